@@ -1,0 +1,3 @@
+using OpsLvp.Cli;
+
+return CliApp.Run(args, Console.Out, Console.Error);

@@ -1,0 +1,10 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>LVP phases (DESIGN §3). Severity order: Normal &lt; Preparation &lt; Active; Cancellation withdraws measures.</summary>
+public enum Phase
+{
+    Normal,
+    Preparation,
+    Active,
+    Cancellation,
+}

@@ -1,0 +1,10 @@
+namespace OpsLvp.Core.Readings;
+
+/// <summary>The sensor's own quality flag. Only <see cref="Ok"/> readings can reach the engine (DESIGN R1).</summary>
+public enum ReadingStatus
+{
+    Ok,
+    Degraded,
+    Failed,
+    Maintenance,
+}
