@@ -1,0 +1,15 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>Alarm causes (DESIGN §3 "Alarms").</summary>
+public enum AlarmKind
+{
+    GoverningRvrUnknown,
+    CeilingUnknown,
+    SensorSilent,
+    ItemOverdue,
+    PendingTransition,
+    /// <summary>The active condition holds but mandatory preparation items are not all done.</summary>
+    SafeguardsIncomplete,
+    /// <summary>Raised by the host, not the engine, when audit storage fails.</summary>
+    AuditStorageFailing,
+}

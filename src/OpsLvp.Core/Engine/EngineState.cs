@@ -1,0 +1,53 @@
+using System.Collections.Immutable;
+using OpsLvp.Core.Readings;
+
+namespace OpsLvp.Core.Engine;
+
+/// <summary>
+/// Everything the engine knows, as an immutable value: the engine is a pure function
+/// (state, inputs, now) → (state, events). Serialisable to JSON so the server can persist it and
+/// resume after a restart (running dwells included, since they are stored as start instants).
+/// </summary>
+public sealed record EngineState
+{
+    /// <summary>The instant up to which this state has been evaluated (UTC).</summary>
+    public required DateTimeOffset EvaluatedAt { get; init; }
+
+    public Phase Phase { get; init; } = Phase.Normal;
+
+    /// <summary>When the current phase was entered.</summary>
+    public required DateTimeOffset PhaseSince { get; init; }
+
+    /// <summary>The running episode (leaving normal until back to normal); null in normal.</summary>
+    public Episode? Episode { get; init; }
+
+    /// <summary>Latest accepted reading per sensor and kind (key: <see cref="SensorKey"/>).</summary>
+    public ImmutableDictionary<string, Reading> Latest { get; init; } = ImmutableDictionary<string, Reading>.Empty;
+
+    /// <summary>Sensors an operator marked out of service.</summary>
+    public ImmutableHashSet<string> OutOfService { get; init; } = ImmutableHashSet<string>.Empty;
+
+    /// <summary>Deterioration forecast flag (DESIGN R4).</summary>
+    public bool DeteriorationForecast { get; init; }
+
+    /// <summary>A declared phase below which the engine does not relax automatically (DESIGN R9).</summary>
+    public Hold? Hold { get; init; }
+
+    /// <summary>Start instants of conditions that currently hold continuously (dwell timers, DESIGN R7).</summary>
+    public ImmutableDictionary<ConditionKind, DateTimeOffset> HoldingSince { get; init; } = ImmutableDictionary<ConditionKind, DateTimeOffset>.Empty;
+
+    /// <summary>After a manual relaxation, escalation dwells are measured from no earlier than this (DESIGN R9).</summary>
+    public DateTimeOffset? EscalationMeasuredFrom { get; init; }
+
+    /// <summary>A transition waiting for a duty manager's confirmation (DESIGN R10).</summary>
+    public PendingTransition? Pending { get; init; }
+
+    /// <summary>Checklist items of the running episode, open and closed (DESIGN R11).</summary>
+    public ImmutableList<ChecklistItemState> Items { get; init; } = ImmutableList<ChecklistItemState>.Empty;
+
+    /// <summary>Alarms raised and not yet cleared (acknowledged ones included).</summary>
+    public ImmutableList<Alarm> Alarms { get; init; } = ImmutableList<Alarm>.Empty;
+
+    /// <summary>The key of <see cref="Latest"/> for a sensor and kind.</summary>
+    public static string SensorKey(string sensorId, ReadingKind kind) => $"{sensorId}|{kind}";
+}
