@@ -20,15 +20,20 @@ public static class RvrCalculator
         ArgumentNullException.ThrowIfNull(inputs);
         var extinction = ResolveExtinction(inputs);
         var threshold = IlluminanceThreshold.FromBackground(ResolveLuminance(inputs), inputs.ThresholdModel);
-        return Calculate(extinction, inputs.LightIntensity, threshold);
+        // A MOR given directly is kept as given rather than recomputed from σ, which could come back a hair below it.
+        var mor = inputs.Mor ?? MeteorologicalOpticalRange.FromExtinction(extinction);
+        return Assess(extinction, mor, inputs.LightIntensity, threshold);
     }
 
     /// <summary>Assesses a known σ, light intensity and threshold; argument rules as in <see cref="AllardLaw.LightsRange"/>.</summary>
-    public static RvrAssessment Calculate(ExtinctionCoefficient extinction, Candela lightIntensity, Lux threshold)
+    public static RvrAssessment Calculate(ExtinctionCoefficient extinction, Candela lightIntensity, Lux threshold) =>
+        Assess(extinction, MeteorologicalOpticalRange.FromExtinction(extinction), lightIntensity, threshold);
+
+    private static RvrAssessment Assess(ExtinctionCoefficient extinction, Metres mor, Candela lightIntensity, Lux threshold)
     {
-        var mor = MeteorologicalOpticalRange.FromExtinction(extinction);
         var lights = AllardLaw.LightsRange(lightIntensity, extinction, threshold);
-        var objects = Koschmieder.ObjectRange(extinction);
+        // Koschmieder with ε = 0.05 is the MOR itself.
+        var objects = mor;
         var rvr = lights > objects ? lights : objects;
         return new RvrAssessment(mor, lights, objects, rvr, threshold, RvrReporting.Report(rvr));
     }
