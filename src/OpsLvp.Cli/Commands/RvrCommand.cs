@@ -36,6 +36,11 @@ public sealed class RvrCommand : ICliCommand
     /// <inheritdoc />
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
+        if (args.Any(a => a is "--help" or "-h"))
+        {
+            stdout.WriteLine("usage: opslvp " + Usage);
+            return 0;
+        }
         var options = Parse(args, out var continuous);
 
         var atmosphere = new[] { "--mor-m", "--extinction-per-km", "--transmittance" }.Where(options.ContainsKey).ToList();

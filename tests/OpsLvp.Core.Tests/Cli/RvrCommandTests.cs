@@ -130,4 +130,15 @@ public sealed class RvrCommandTests
         // At B = 1000 the continuous E_T (≈3.2e-5 lx, recalled for Doc 9328, unconfirmed) is below the band's 1e-4 lx
         Assert.True(continuous.GetProperty("lights_m").GetDouble() > bands.GetProperty("lights_m").GetDouble());
     }
+
+    [Fact]
+    public void Rvr_Help_PrintsUsageNamingTheRounding()
+    {
+        var (exit, stdout, stderr) = Run("rvr", "--help");
+
+        Assert.Equal(0, exit);
+        Assert.Equal("", stderr);
+        Assert.StartsWith("usage: opslvp rvr ", stdout, StringComparison.Ordinal);
+        Assert.Contains("rounded down to 0.1", stdout, StringComparison.Ordinal);
+    }
 }
