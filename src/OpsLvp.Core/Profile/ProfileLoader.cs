@@ -69,33 +69,83 @@ public static partial class ProfileLoader
         var converted = ConvertedToPattern().Match(message);
         if (converted.Success)
         {
-            var target = typeof(ProfileLoader).Assembly.GetType(converted.Groups[1].Value);
+            var target = TargetType(converted.Groups[1].Value, ex.Path);
             if (target is { IsEnum: true })
             {
                 var names = Enum.GetNames(target).Select(n => $"'{JsonNamingPolicy.CamelCase.ConvertName(n)}'");
                 return $"unknown value{where}; expected one of {string.Join(", ", names)}";
             }
-            return $"wrong value type{where}; expected {FriendlyType(converted.Groups[1].Value)}";
+            return $"wrong value type{where}; expected {FriendlyType(target)}";
         }
         var missing = MissingRequiredPattern().Match(message);
         if (missing.Success)
         {
-            return $"missing required {missing.Groups[1].Value}{where}";
+            return $"missing required property {missing.Groups[1].Value}{where}";
         }
         // Syntax errors and the rest: keep the serializer's text, which names the position.
         return message;
     }
 
-    private static string FriendlyType(string clrType) => clrType switch
+    /// <summary>
+    /// The type the serializer failed to produce. For constructor parameters it names the declaring record,
+    /// so the last path segment is looked up on it to find the member's own type.
+    /// </summary>
+    private static Type? TargetType(string clrName, string? path)
     {
-        "System.String" => "a string",
-        "System.Int32" or "System.Nullable`1[System.Int32]" => "a whole number",
-        "System.Double" or "System.Nullable`1[System.Double]" => "a number",
-        "System.Boolean" => "true or false",
-        _ when clrType.Contains("IReadOnlyList", StringComparison.Ordinal) => "an array",
-        _ when clrType.Contains("Dictionary", StringComparison.Ordinal) => "an object",
-        _ => "an object",
-    };
+        var type = typeof(ProfileLoader).Assembly.GetType(clrName) ?? Type.GetType(clrName);
+        if (type is null || type.IsEnum || path is null)
+        {
+            return type;
+        }
+        var last = path[(path.LastIndexOf('.') + 1)..];
+        var bracket = last.IndexOf('[', StringComparison.Ordinal);
+        var isElement = bracket >= 0;
+        if (isElement)
+        {
+            last = last[..bracket];
+        }
+        var property = type.GetProperties().FirstOrDefault(p => string.Equals(p.Name, last, StringComparison.OrdinalIgnoreCase));
+        if (property is null)
+        {
+            return type;
+        }
+        var memberType = Nullable.GetUnderlyingType(property.PropertyType) ?? property.PropertyType;
+        if (isElement && memberType.IsGenericType)
+        {
+            memberType = memberType.GetGenericArguments()[0];
+        }
+        return memberType;
+    }
+
+    private static string FriendlyType(Type? type)
+    {
+        if (type is null)
+        {
+            return "a value of another type";
+        }
+        type = Nullable.GetUnderlyingType(type) ?? type;
+        if (type == typeof(string))
+        {
+            return "a string";
+        }
+        if (type == typeof(int) || type == typeof(long))
+        {
+            return "a whole number";
+        }
+        if (type == typeof(double))
+        {
+            return "a number";
+        }
+        if (type == typeof(bool))
+        {
+            return "true or false";
+        }
+        if (type.IsGenericType && type.GetGenericTypeDefinition() == typeof(IReadOnlyList<>))
+        {
+            return "an array";
+        }
+        return "an object";
+    }
 
     [GeneratedRegex(@"The JSON property '([^']*)' could not be mapped")]
     private static partial Regex UnknownPropertyPattern();
@@ -103,7 +153,7 @@ public static partial class ProfileLoader
     [GeneratedRegex(@"could not be converted to ([^\s]+?)\.? Path:")]
     private static partial Regex ConvertedToPattern();
 
-    [GeneratedRegex(@"missing required properties including: (.+?)\.? Path:|was missing required properties,? including:? (.+)")]
+    [GeneratedRegex(@"missing required properties including: (.+?)\.?$")]
     private static partial Regex MissingRequiredPattern();
 
     private static JsonSerializerOptions CreateOptions()
