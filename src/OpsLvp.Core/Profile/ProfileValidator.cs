@@ -428,7 +428,7 @@ public static class ProfileValidator
         type is SensorType.RvrSystem or SensorType.Transmissometer or SensorType.ForwardScatter;
 
     /// <summary>Reading kinds a sensor of <paramref name="type"/> may send (RVR sensors also send RVR itself).</summary>
-    internal static IReadOnlyList<ReadingKind> KindsOf(SensorType type) => type switch
+    public static IReadOnlyList<ReadingKind> KindsOf(SensorType type) => type switch
     {
         SensorType.RvrSystem => [ReadingKind.Rvr],
         SensorType.Transmissometer => [ReadingKind.Rvr, ReadingKind.Transmittance],

@@ -173,4 +173,60 @@ public sealed class DemoSeedTests
         // Same night across midnight: day 15 then 16, so the ddhhmm stamps sort as strings.
         Assert.Equal(stamps.Order(StringComparer.Ordinal), stamps);
     }
+
+    [Fact]
+    public void DocsExample_ParsesAndValidates()
+    {
+        var md = File.ReadAllText(Path.Combine(ProfileFixtures.RepoRoot(), "docs", "profile.md"));
+        var start = md.IndexOf("```json", StringComparison.Ordinal) + "```json".Length;
+        var end = md.IndexOf("```", start, StringComparison.Ordinal);
+        var profile = ProfileValidator.ParseValidated(md[start..end]);
+        Assert.Equal("XDMO", profile.Aerodrome.Id);
+    }
+
+    /// <summary>max(Allard lights range, Koschmieder 2.996/σ) for σ per metre (DOMAIN.md "Optics").</summary>
+    private static double NightRvr(double sigmaPerM, double intensityCd)
+    {
+        const double NightThresholdLux = 8e-7; // ICAO Annex 3 Attachment D, night band (from memory, DOMAIN.md)
+        double lo = 1, hi = 200_000;
+        for (var i = 0; i < 80; i++)
+        {
+            var mid = (lo + hi) / 2;
+            if (intensityCd * Math.Exp(-sigmaPerM * mid) / (mid * mid) >= NightThresholdLux)
+            {
+                lo = mid;
+            }
+            else
+            {
+                hi = mid;
+            }
+        }
+        return Math.Max(lo, 2.996 / sigmaPerM);
+    }
+
+    [Fact]
+    public void DemoReadings_RawValuesAgreeWithTheirRvrAtNight()
+    {
+        // DOMAIN.md worked check: MOR 300 m, I = 10 000 cd, night → lights range ≈ 954 m.
+        Assert.Equal(954, NightRvr(2.996 / 300, 10_000), 0);
+        var profile = Demo();
+        var intensity = profile.Lights.IntensityCdByStep[profile.Lights.StepInUse];
+        var baselines = profile.Sensors.Where(s => s.BaselineM is not null).ToDictionary(s => s.Id, s => s.BaselineM!.Value);
+        var (_, rows) = ReadCsv("demo-night.csv");
+        var checkedPairs = 0;
+        for (var i = 0; i + 1 < rows.Count; i++)
+        {
+            var (raw, rvr) = (rows[i], rows[i + 1]);
+            if (rvr[2] != "rvr" || raw[1] != rvr[1] || raw[0] != rvr[0] || raw[2] is not ("transmittance" or "extinction"))
+            {
+                continue;
+            }
+            var value = double.Parse(raw[3], CultureInfo.InvariantCulture);
+            var sigma = raw[2] == "extinction" ? value / 1000 : -Math.Log(value) / baselines[raw[1]];
+            var expected = Math.Clamp(NightRvr(sigma, intensity), 50, 2000);
+            Assert.InRange(double.Parse(rvr[3], CultureInfo.InvariantCulture), expected * 0.99 - 2, expected * 1.01 + 1);
+            checkedPairs++;
+        }
+        Assert.True(checkedPairs > 1000, $"only {checkedPairs} raw/rvr pairs");
+    }
 }
