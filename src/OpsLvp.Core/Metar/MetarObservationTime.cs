@@ -32,30 +32,28 @@ public readonly record struct MetarObservationTime
     public int Minute { get; }
 
     /// <summary>
-    /// The instant this group most probably means, given the receiver's clock: the candidate in the month of
-    /// <paramref name="now"/>, the month before or the month after that lies closest to <paramref name="now"/>.
-    /// Months without the day (e.g. 31 in a 30-day month) give no candidate.
+    /// The instant this group means for a receiver whose clock reads <paramref name="now"/>: the latest instant with
+    /// this day, hour and minute that is not later than <paramref name="now"/> + <paramref name="allowedSkew"/>
+    /// (default 10 minutes), looking back at most two months. Months without the day (31 in a 30-day month) are passed
+    /// over; any two consecutive months include one of 31 days, so there is always an answer.
     /// </summary>
-    public DateTimeOffset ResolveNear(DateTimeOffset now)
+    public DateTimeOffset ResolveNear(DateTimeOffset now, TimeSpan? allowedSkew = null)
     {
-        var utc = now.ToUniversalTime();
-        var month = new DateTime(utc.Year, utc.Month, 1, 0, 0, 0, DateTimeKind.Utc);
-        DateTimeOffset? best = null;
-        foreach (var offset in new[] { -1, 0, 1 })
+        var latest = now.ToUniversalTime() + (allowedSkew ?? TimeSpan.FromMinutes(10));
+        var month = new DateTime(latest.Year, latest.Month, 1, 0, 0, 0, DateTimeKind.Utc);
+        for (var back = 0; ; back++)
         {
-            var m = month.AddMonths(offset);
+            var m = month.AddMonths(-back);
             if (Day > DateTime.DaysInMonth(m.Year, m.Month))
             {
                 continue;
             }
             var candidate = new DateTimeOffset(m.Year, m.Month, Day, Hour, Minute, 0, TimeSpan.Zero);
-            if (best is null || (candidate - utc).Duration() < (best.Value - utc).Duration())
+            if (candidate <= latest)
             {
-                best = candidate;
+                return candidate;
             }
         }
-        // Every run of three consecutive months contains at least one month of 31 days, so a candidate exists.
-        return best!.Value;
     }
 
     /// <inheritdoc />
