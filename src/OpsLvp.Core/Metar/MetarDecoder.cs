@@ -57,49 +57,49 @@ public static partial class MetarDecoder
     [GeneratedRegex(@"^[A-Z][A-Z0-9]{3}$")]
     private static partial Regex StationRegex();
 
-    [GeneratedRegex(@"^(\d{2})(\d{2})(\d{2})Z$")]
+    [GeneratedRegex(@"^([0-9]{2})([0-9]{2})([0-9]{2})Z$")]
     private static partial Regex TimeRegex();
 
-    [GeneratedRegex(@"^(\d{3}|VRB|///)(\d{2,3}|//)(G(\d{2,3}|//))?(KT|MPS|KMH)$")]
+    [GeneratedRegex(@"^([0-9]{3}|VRB|///)([0-9]{2,3}|//)(G([0-9]{2,3}|//))?(KT|MPS|KMH)$")]
     private static partial Regex WindRegex();
 
-    [GeneratedRegex(@"^\d{3}V\d{3}$")]
+    [GeneratedRegex(@"^[0-9]{3}V[0-9]{3}$")]
     private static partial Regex WindVariationRegex();
 
-    [GeneratedRegex(@"^(\d{4})(NDV)?$")]
+    [GeneratedRegex(@"^([0-9]{4})(NDV)?$")]
     private static partial Regex VisibilityRegex();
 
     [GeneratedRegex(@"^////(NDV)?$")]
     private static partial Regex MissingVisibilityRegex();
 
-    [GeneratedRegex(@"^(\d{4})(N|NE|E|SE|S|SW|W|NW)$")]
+    [GeneratedRegex(@"^([0-9]{4})(N|NE|E|SE|S|SW|W|NW)$")]
     private static partial Regex MinimumVisibilityRegex();
 
-    [GeneratedRegex(@"^R(\d{2}[LCR]?)/(?:////|([MP])?(\d{4})(?:V([MP])?(\d{4}))?(FT)?/?([UDN])?)$")]
+    [GeneratedRegex(@"^R([0-9]{2}[LCR]?)/(?:////|([MP])?([0-9]{4})(?:V([MP])?([0-9]{4}))?(FT)?/?([UDN])?)$")]
     private static partial Regex RvrRegex();
 
-    [GeneratedRegex(@"^(R\d{2}[LCR]?/([0-9/]{6}|CLRD[0-9/]{2})|R/SNOCLO|SNOCLO|\d{8})$")]
+    [GeneratedRegex(@"^(R[0-9]{2}[LCR]?/([0-9/]{6}|CLRD[0-9/]{2})|R/SNOCLO|SNOCLO|[0-9]{8})$")]
     private static partial Regex RunwayStateRegex();
 
     [GeneratedRegex(@"^(RE)?(\+|-|VC)?(MI|BC|PR|DR|BL|SH|TS|FZ)?((?:DZ|RA|SN|SG|PL|GR|GS|UP|IC|BR|FG|FU|VA|DU|SA|HZ|PO|SQ|FC|SS|DS)*)$")]
     private static partial Regex WeatherRegex();
 
-    [GeneratedRegex(@"^(FEW|SCT|BKN|OVC|///)(\d{3}|///)(CB|TCU|///)?$")]
+    [GeneratedRegex(@"^(FEW|SCT|BKN|OVC|///)([0-9]{3}|///)(CB|TCU|///)?$")]
     private static partial Regex CloudRegex();
 
-    [GeneratedRegex(@"^VV(\d{3}|///)$")]
+    [GeneratedRegex(@"^VV([0-9]{3}|///)$")]
     private static partial Regex VerticalVisibilityRegex();
 
-    [GeneratedRegex(@"^(M?\d{2}|//)/(M?\d{2}|//)?$")]
+    [GeneratedRegex(@"^(M?[0-9]{2}|//)/(M?[0-9]{2}|//)?$")]
     private static partial Regex TemperatureRegex();
 
-    [GeneratedRegex(@"^[QA](\d{4}|////)$")]
+    [GeneratedRegex(@"^[QA]([0-9]{4}|////)$")]
     private static partial Regex PressureRegex();
 
-    [GeneratedRegex(@"^W(M?\d{2}|//)/(S[0-9/]|H\d{1,3}|H///)$")]
+    [GeneratedRegex(@"^W(M?[0-9]{2}|//)/(S[0-9/]|H[0-9]{1,3}|H///)$")]
     private static partial Regex SeaRegex();
 
-    [GeneratedRegex(@"^(R\d{2}[LCR]?|RWY\d{2}[LCR]?)$")]
+    [GeneratedRegex(@"^(R[0-9]{2}[LCR]?|RWY[0-9]{2}[LCR]?)$")]
     private static partial Regex WindShearRunwayRegex();
 
     private sealed class Parser(List<string> groups)

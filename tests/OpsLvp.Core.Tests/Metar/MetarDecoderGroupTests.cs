@@ -487,6 +487,16 @@ public sealed class MetarDecoderGroupTests
     }
 
     [Fact]
+    public void NonAsciiDigits_AreNotTakenAsAValue()
+    {
+        // "٠٤٠٠" are Arabic-Indic digits: not a WMO-No. 306 visibility group, so unknown rather than a crash.
+        var r = Body("\u0660\u0664\u0660\u0660 FG");
+        Assert.Null(r.Visibility);
+        Assert.Single(r.UnknownGroups);
+        Assert.Throws<MetarFormatException>(() => MetarDecoder.Decode("METAR XDMO \u0660\u0661\u0660\u0666\u0662\u0660Z 0400"));
+    }
+
+    [Fact]
     public void TooLongText_IsRefused()
     {
         var text = "METAR XDMO 010620Z " + string.Join(' ', Enumerable.Repeat("FG", 3000));
