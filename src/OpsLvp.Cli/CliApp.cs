@@ -7,6 +7,7 @@ public static class CliApp
     public static IReadOnlyList<ICliCommand> Commands { get; } =
     [
         new Commands.RvrCommand(),
+        new Commands.MetarDecodeCommand(),
     ];
 
     /// <summary>Runs the tool in-process (tests call this directly).</summary>

@@ -1,0 +1,142 @@
+using OpsLvp.Core.Readings;
+using OpsLvp.Core.Units;
+
+namespace OpsLvp.Core.Metar;
+
+/// <summary>
+/// The LVP-relevant part of one METAR or SPECI (WMO-No. 306 FM 15/16), as decoded by <see cref="MetarDecoder"/>.
+/// Everything from the first trend group (NOSIG, BECMG, TEMPO) or RMK on is kept only as text.
+/// </summary>
+public sealed record MetarReport
+{
+    /// <summary>Ceiling layers must lie below this height (ICAO/EASA definition of ceiling).</summary>
+    public static readonly Feet CeilingLimit = new(20_000);
+
+    /// <summary>Null when the text does not start with METAR or SPECI.</summary>
+    public MetarReportType? Type { get; init; }
+
+    public required string Station { get; init; }
+
+    public required MetarObservationTime Time { get; init; }
+
+    /// <summary>COR: a corrected report.</summary>
+    public bool Corrected { get; init; }
+
+    /// <summary>AUTO: fully automated report.</summary>
+    public bool Automatic { get; init; }
+
+    /// <summary>NIL: the report is missing; nothing else is decoded.</summary>
+    public bool Nil { get; init; }
+
+    /// <summary>Prevailing visibility; <c>9999</c> and CAVOK give 10 000 m ("10 km or more"). Null if absent or <c>////</c>.</summary>
+    public Metres? Visibility { get; init; }
+
+    public MetarMinimumVisibility? MinimumVisibility { get; init; }
+
+    /// <summary>Visibility group flagged NDV (no directional variation can be given by the automatic system).</summary>
+    public bool NoDirectionalVariation { get; init; }
+
+    public bool Cavok { get; init; }
+
+    public IReadOnlyList<MetarRvr> Rvr { get; init; } = [];
+
+    public IReadOnlyList<MetarWeather> Weather { get; init; } = [];
+
+    /// <summary>Recent weather groups (<c>REFG</c> etc.), without the RE prefix.</summary>
+    public IReadOnlyList<MetarWeather> RecentWeather { get; init; } = [];
+
+    public IReadOnlyList<MetarCloudLayer> Clouds { get; init; } = [];
+
+    /// <summary><c>VVnnn</c> in feet; null if absent or <c>VV///</c>.</summary>
+    public Feet? VerticalVisibility { get; init; }
+
+    /// <summary>True for <c>VVnnn</c> or <c>VV///</c>: the sky is obscured.</summary>
+    public bool SkyObscured { get; init; }
+
+    /// <summary><c>NSC</c>, <c>NCD</c>, <c>SKC</c> or <c>CLR</c> when one of them was reported, else null.</summary>
+    public string? SkyCondition { get; init; }
+
+    /// <summary>The trend part as written (from NOSIG, BECMG or TEMPO up to RMK), or null.</summary>
+    public string? Trend { get; init; }
+
+    /// <summary>The remarks after RMK as written, or null.</summary>
+    public string? Remarks { get; init; }
+
+    /// <summary>Groups of the decoded part that match no known form; they are skipped.</summary>
+    public IReadOnlyList<string> UnknownGroups { get; init; } = [];
+
+    /// <summary>The lowest BKN or OVC layer with a known base below <see cref="CeilingLimit"/>, or null.</summary>
+    public MetarCloudLayer? CeilingLayer =>
+        Clouds.Where(c => c.CoversMoreThanHalf && c.Base is { } b && b < CeilingLimit).MinBy(c => c.Base!.Value.Value);
+
+    /// <summary>
+    /// Ceiling: the base of <see cref="CeilingLayer"/>, or the vertical visibility, whichever is lower; null if neither
+    /// (DESIGN §4.1). Counting vertical visibility is local practice; use <see cref="FindCeiling"/> to leave it out.
+    /// </summary>
+    public Feet? Ceiling => FindCeiling(countVerticalVisibility: true);
+
+    /// <summary>Ceiling with or without vertical visibility counted (ICAO/EASA ceiling definition; VV is local practice).</summary>
+    public Feet? FindCeiling(bool countVerticalVisibility)
+    {
+        var layer = CeilingLayer?.Base;
+        var vv = countVerticalVisibility ? VerticalVisibility : null;
+        if (layer is { } l && vv is { } v)
+        {
+            return l < v ? l : v;
+        }
+        return layer ?? vv;
+    }
+
+    /// <summary>
+    /// True when the report positively states there is no ceiling: CAVOK, NSC/NCD/SKC/CLR, or cloud layers none of
+    /// which can form one, and no vertical visibility.
+    /// </summary>
+    public bool StatesNoCeiling =>
+        !Nil && !SkyObscured && Ceiling is null
+        && (Cavok || SkyCondition is not null
+            || (Clouds.Count > 0 && Clouds.All(c => c.Cover is not null && c.Base is not null)));
+
+    /// <summary>
+    /// Readings for the server's METAR feed, all at <paramref name="observedAt"/> (resolve the day/time group with
+    /// <see cref="MetarObservationTime.ResolveNear"/>): one <see cref="ReadingKind.Rvr"/> per mapped runway with a
+    /// value (the minimum when varying; M0050 gives 50 m and P2000 gives 2000 m, the limits themselves), the prevailing
+    /// visibility, the base of <see cref="CeilingLayer"/> as <see cref="ReadingKind.CloudBase"/>, and the vertical
+    /// visibility. A NIL report gives none.
+    /// </summary>
+    public IReadOnlyList<Reading> ToReadings(DateTimeOffset observedAt, MetarSensorMap map)
+    {
+        ArgumentNullException.ThrowIfNull(map);
+        var readings = new List<Reading>();
+        if (Nil)
+        {
+            return readings;
+        }
+        foreach (var rvr in Rvr)
+        {
+            if (rvr.Value is { } value && map.RvrSensorByRunway.TryGetValue(rvr.Runway, out var sensor))
+            {
+                readings.Add(new Reading(observedAt, sensor, ReadingKind.Rvr, value.Value));
+            }
+        }
+        if (Visibility is { } visibility && map.VisibilitySensorId is { } visibilitySensor)
+        {
+            readings.Add(new Reading(observedAt, visibilitySensor, ReadingKind.Visibility, visibility.Value));
+        }
+        if (map.CloudBaseSensorId is { } cloudSensor)
+        {
+            if (CeilingLayer?.Base is { } cloudBase)
+            {
+                readings.Add(new Reading(observedAt, cloudSensor, ReadingKind.CloudBase, cloudBase.Value));
+            }
+            else if (map.NoCeilingCloudBaseFeet is { } clear && StatesNoCeiling)
+            {
+                readings.Add(new Reading(observedAt, cloudSensor, ReadingKind.CloudBase, clear));
+            }
+        }
+        if (VerticalVisibility is { } vv && map.VerticalVisibilitySensorId is { } vvSensor)
+        {
+            readings.Add(new Reading(observedAt, vvSensor, ReadingKind.VerticalVisibility, vv.Value));
+        }
+        return readings;
+    }
+}
