@@ -27,15 +27,8 @@ public sealed class AuditChainVerifier
         {
             return;
         }
-        var expected = _previous is null ? 1 : _previous.Sequence + 1;
-        if (entry.Sequence > expected)
+        if (!SequenceFollows(entry.Sequence))
         {
-            Fail(expected, AuditFailure.SequenceGap, $"expected sequence {expected}, found {entry.Sequence}");
-            return;
-        }
-        if (entry.Sequence < expected)
-        {
-            Fail(entry.Sequence, AuditFailure.SequenceDuplicate, $"expected sequence {expected}, found {entry.Sequence} again or out of order");
             return;
         }
         var expectedLink = _previous?.Hash ?? AuditChain.GenesisHash;
@@ -73,8 +66,43 @@ public sealed class AuditChainVerifier
         _previous = entry;
     }
 
+    /// <summary>
+    /// Takes a stored entry that could not even be read into an <see cref="AuditEntry"/> (e.g. a time column that is
+    /// not a time): counts it, and fails it as <see cref="AuditFailure.MalformedEntry"/> unless an earlier entry failed
+    /// (a sequence fault found first still wins).
+    /// </summary>
+    public void ObserveUnreadable(long sequence, string detail)
+    {
+        ArgumentNullException.ThrowIfNull(detail);
+        _count++;
+        if (_failure is not null)
+        {
+            return;
+        }
+        if (SequenceFollows(sequence))
+        {
+            Fail(sequence, AuditFailure.MalformedEntry, detail);
+        }
+    }
+
     /// <summary>The verdict over the entries observed so far (ok for none).</summary>
     public AuditVerification Result => new(_count, _failure is null, _firstBad, _failure, _detail, _firstTimeRegression);
+
+    private bool SequenceFollows(long sequence)
+    {
+        var expected = _previous is null ? 1 : _previous.Sequence + 1;
+        if (sequence > expected)
+        {
+            Fail(expected, AuditFailure.SequenceGap, string.Create(CultureInfo.InvariantCulture, $"expected sequence {expected}, found {sequence}"));
+            return false;
+        }
+        if (sequence < expected)
+        {
+            Fail(sequence, AuditFailure.SequenceDuplicate, string.Create(CultureInfo.InvariantCulture, $"expected sequence {expected}, found {sequence} again or out of order"));
+            return false;
+        }
+        return true;
+    }
 
     private void Fail(long sequence, AuditFailure failure, string detail)
     {
