@@ -1,6 +1,6 @@
 namespace OpsLvp.Cli;
 
-/// <summary>Dispatches `opslvp` arguments to a command. Exit codes: 0 ok, 1 bad input, 2 usage.</summary>
+/// <summary>Dispatches `opslvp` arguments to a command. Exit codes: 0 ok, 1 bad input, 2 usage, 3 audit chain broken (audit verify).</summary>
 public static class CliApp
 {
     /// <summary>Every command the tool knows.</summary>
@@ -8,6 +8,7 @@ public static class CliApp
     [
         new Commands.RvrCommand(),
         new Commands.MetarDecodeCommand(),
+        new Commands.AuditVerifyCommand(),
     ];
 
     /// <summary>Runs the tool in-process (tests call this directly).</summary>

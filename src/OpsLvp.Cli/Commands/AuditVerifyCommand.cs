@@ -1,0 +1,122 @@
+using System.Buffers;
+using System.Text;
+using System.Text.Json;
+using Microsoft.Data.Sqlite;
+using Microsoft.EntityFrameworkCore;
+using OpsLvp.Core.Audit;
+using OpsLvp.Data;
+using OpsLvp.Data.Stores;
+
+namespace OpsLvp.Cli.Commands;
+
+/// <summary>
+/// <c>opslvp audit verify --db path</c> (DESIGN §4.1): verifies the audit hash chain of a database file, opened
+/// read-only. Prints <c>{"entries","ok","first_bad_sequence","reason","detail","time_regression_sequence"}</c>.
+/// Exit 0 when the chain verifies, <see cref="ChainBrokenExitCode"/> when it does not, 1 for a missing or
+/// unreadable file, 2 for a bad command line (docs/audit.md).
+/// </summary>
+public sealed class AuditVerifyCommand : ICliCommand
+{
+    /// <summary>Exit code for a database whose chain does not verify.</summary>
+    public const int ChainBrokenExitCode = 3;
+
+    public IReadOnlyList<string> Path { get; } = ["audit", "verify"];
+
+    public string Usage => "audit verify --db <file>";
+
+    public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
+    {
+        var path = ParseDb(args);
+        if (!File.Exists(path))
+        {
+            stderr.WriteLine($"error: database file '{path}' not found");
+            return 1;
+        }
+        AuditVerification result;
+        try
+        {
+            result = VerifyAsync(path).GetAwaiter().GetResult();
+        }
+        catch (Exception ex) when (ex is SqliteException or InvalidDataException or FormatException or InvalidCastException)
+        {
+            stderr.WriteLine($"error: cannot read '{path}' as an OpsLvp database: {ex.Message.ReplaceLineEndings(" ")}");
+            return 1;
+        }
+
+        var buffer = new ArrayBufferWriter<byte>();
+        using (var json = new Utf8JsonWriter(buffer))
+        {
+            json.WriteStartObject();
+            json.WriteNumber("entries", result.Entries);
+            json.WriteBoolean("ok", result.Ok);
+            WriteNullable(json, "first_bad_sequence", result.FirstBadSequence);
+            if (result.Failure is { } failure)
+            {
+                json.WriteString("reason", JsonNamingPolicy.SnakeCaseLower.ConvertName(failure.ToString()));
+            }
+            else
+            {
+                json.WriteNull("reason");
+            }
+            json.WriteString("detail", result.Detail);
+            WriteNullable(json, "time_regression_sequence", result.FirstTimeRegressionSequence);
+            json.WriteEndObject();
+        }
+        stdout.WriteLine(Encoding.UTF8.GetString(buffer.WrittenSpan));
+        return result.Ok ? 0 : ChainBrokenExitCode;
+    }
+
+    private static string ParseDb(IReadOnlyList<string> args)
+    {
+        string? path = null;
+        for (var i = 0; i < args.Count; i++)
+        {
+            if (args[i] == "--db" && i + 1 < args.Count && path is null)
+            {
+                path = args[++i];
+            }
+            else
+            {
+                throw new CliUsageException($"unexpected argument '{args[i]}'; usage: opslvp audit verify --db <file>");
+            }
+        }
+        return string.IsNullOrWhiteSpace(path)
+            ? throw new CliUsageException("missing --db <file>; usage: opslvp audit verify --db <file>")
+            : path;
+    }
+
+    private static async Task<AuditVerification> VerifyAsync(string path)
+    {
+        var connectionString = new SqliteConnectionStringBuilder
+        {
+            DataSource = path,
+            Mode = SqliteOpenMode.ReadOnly,
+            Pooling = false,
+        }.ToString();
+        var options = OpsLvpDatabase.SqliteOptions(connectionString);
+        await using (var db = new OpsLvpDbContext(options))
+        {
+            var tables = await db.Database
+                .SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = 'audit_entries'")
+                .SingleAsync();
+            if (tables == 0)
+            {
+                throw new InvalidDataException("it has no audit_entries table");
+            }
+        }
+        using var store = new AuditStore(new OpsLvpDbContextFactory(options));
+        return await store.VerifyAsync();
+    }
+
+    private static void WriteNullable(Utf8JsonWriter json, string name, long? value)
+    {
+        if (value is { } v)
+        {
+            json.WriteNumber(name, v);
+        }
+        else
+        {
+            json.WriteNull(name);
+        }
+    }
+}

@@ -1,0 +1,23 @@
+using Microsoft.Extensions.Configuration;
+using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Data.Stores;
+
+namespace OpsLvp.Data;
+
+public static class OpsLvpDataServiceCollectionExtensions
+{
+    /// <summary>
+    /// Registers the context factory and the stores (singletons; the audit store's write lock is per instance) from
+    /// <c>OpsLvp:Database:*</c>. The settings are read when the first context is made, so a bad value fails at start
+    /// once the host calls <see cref="DatabaseStartup.MigrateAndCheckAsync"/>.
+    /// </summary>
+    public static IServiceCollection AddOpsLvpData(this IServiceCollection services, IConfiguration configuration, string? defaultConnectionString = null)
+    {
+        ArgumentNullException.ThrowIfNull(configuration);
+        services.AddDbContextFactory<OpsLvpDbContext>(b => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString));
+        services.AddSingleton<ReadingStore>();
+        services.AddSingleton<AuditStore>();
+        services.AddSingleton<FeedHealthStore>();
+        return services;
+    }
+}

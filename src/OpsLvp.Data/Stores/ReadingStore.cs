@@ -1,0 +1,66 @@
+using Microsoft.EntityFrameworkCore;
+using OpsLvp.Core.Readings;
+using OpsLvp.Data.Entities;
+
+namespace OpsLvp.Data.Stores;
+
+/// <summary>The <c>readings</c> table: batch insert of everything received, and reads by receipt time.</summary>
+public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory)
+{
+    /// <summary>Inserts the batch in one transaction (all or none).</summary>
+    /// <exception cref="ArgumentException">An accepted reading lacks time, value or status or has a reject reason, or a rejected one has none; or source is empty.</exception>
+    public async Task InsertAsync(IReadOnlyList<ReceivedReading> readings, CancellationToken cancellationToken = default)
+    {
+        ArgumentNullException.ThrowIfNull(readings);
+        var rows = readings.Select(ToRow).ToList();
+        if (rows.Count == 0)
+        {
+            return;
+        }
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        db.Readings.AddRange(rows);
+        await db.SaveChangesAsync(cancellationToken);
+    }
+
+    /// <summary>Readings received with <paramref name="from"/> ≤ received_at &lt; <paramref name="to"/>, in insertion order.</summary>
+    public async Task<IReadOnlyList<ReceivedReading>> GetReceivedAsync(DateTimeOffset from, DateTimeOffset to, CancellationToken cancellationToken = default)
+    {
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        var rows = await db.Readings.AsNoTracking()
+            .Where(r => r.ReceivedAt >= from && r.ReceivedAt < to)
+            .OrderBy(r => r.Id)
+            .ToListAsync(cancellationToken);
+        return rows.ConvertAll(r => new ReceivedReading(
+            r.ReceivedAt, r.Source, r.Sensor, r.Kind, r.Time, r.Value, r.Status, r.Accepted,
+            r.RejectReason is null ? null : Enum.Parse<RejectReason>(r.RejectReason), r.RejectDetail));
+    }
+
+    private static ReadingRow ToRow(ReceivedReading reading)
+    {
+        ArgumentNullException.ThrowIfNull(reading);
+        ArgumentException.ThrowIfNullOrWhiteSpace(reading.Source);
+        ArgumentNullException.ThrowIfNull(reading.Sensor);
+        ArgumentNullException.ThrowIfNull(reading.Kind);
+        if (reading.Accepted && (reading.RejectReason is not null || reading.Time is null || reading.Value is null || reading.Status is null))
+        {
+            throw new ArgumentException($"accepted reading from sensor '{reading.Sensor}' must have time, value and status and no reject reason", nameof(reading));
+        }
+        if (!reading.Accepted && reading.RejectReason is null)
+        {
+            throw new ArgumentException($"rejected reading from sensor '{reading.Sensor}' has no reject reason", nameof(reading));
+        }
+        return new ReadingRow
+        {
+            Time = reading.Time,
+            ReceivedAt = reading.ReceivedAt,
+            Source = reading.Source,
+            Sensor = reading.Sensor,
+            Kind = reading.Kind,
+            Value = reading.Value,
+            Status = reading.Status,
+            Accepted = reading.Accepted,
+            RejectReason = reading.RejectReason?.ToString(),
+            RejectDetail = reading.RejectDetail,
+        };
+    }
+}

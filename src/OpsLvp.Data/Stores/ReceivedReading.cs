@@ -1,0 +1,33 @@
+using OpsLvp.Core.Readings;
+
+namespace OpsLvp.Data.Stores;
+
+/// <summary>
+/// A reading as received, for the <c>readings</c> table (every reading is kept, accepted or not; DESIGN R1).
+/// Fields that could not be parsed are null (<see cref="Time"/>, <see cref="Value"/>, <see cref="Status"/>) or the
+/// raw text (<see cref="Kind"/>); an accepted reading has all of them and no reject reason.
+/// </summary>
+public sealed record ReceivedReading(
+    DateTimeOffset ReceivedAt,
+    string Source,
+    string Sensor,
+    string Kind,
+    DateTimeOffset? Time,
+    double? Value,
+    string? Status,
+    bool Accepted,
+    RejectReason? RejectReason = null,
+    string? RejectDetail = null)
+{
+    public static ReceivedReading Accept(Reading reading, DateTimeOffset receivedAt, string source)
+    {
+        ArgumentNullException.ThrowIfNull(reading);
+        return new(receivedAt, source, reading.SensorId, reading.Kind.ToString(), reading.Time, reading.Value, reading.Status.ToString(), true);
+    }
+
+    public static ReceivedReading Reject(Reading reading, DateTimeOffset receivedAt, string source, RejectReason reason, string? detail = null)
+    {
+        ArgumentNullException.ThrowIfNull(reading);
+        return new(receivedAt, source, reading.SensorId, reading.Kind.ToString(), reading.Time, reading.Value, reading.Status.ToString(), false, reason, detail);
+    }
+}
