@@ -7,7 +7,7 @@ namespace OpsLvp.Web.Feeds.Demo;
 /// Reads the demo scenario CSVs (docs/feeds.md): readings <c>time,sensor,kind,value,status</c> and, optionally,
 /// actions <c>time,actor,action,target,value,reason</c>. Blank lines and lines starting with <c>#</c> are skipped.
 /// A wrong header throws <see cref="FeedFormatException"/>; a bad row is reported and skipped.
-/// Offsets are measured from the first reading row's time.
+/// Offsets are measured from the earliest reading row (ISO-8601 style) or from <c>00:00:00</c> (offset style).
 /// </summary>
 public static class ScenarioCsv
 {
@@ -45,7 +45,7 @@ public static class ScenarioCsv
             readingRows.Add((stamp, fields[1], kind, value, status));
         }
 
-        var origin = readingRows.Count > 0 ? readingRows.Min(r => r.Stamp) : new Stamp(null, TimeSpan.Zero);
+        var origin = absoluteStyle == true ? readingRows.Min(r => r.Stamp) : new Stamp(null, TimeSpan.Zero);
         var readings = readingRows
             .Select(r => new ScenarioReading(r.Stamp.OffsetFrom(origin), r.Sensor, r.Kind, r.Value, r.Status))
             .OrderBy(r => r.Offset)
