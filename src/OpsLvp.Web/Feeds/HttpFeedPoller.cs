@@ -61,10 +61,9 @@ public sealed class HttpFeedPoller(
             {
                 return;
             }
-#pragma warning disable CA1031 // A feed's failure of any kind is health data, never a crash of the server.
             catch (Exception ex)
-#pragma warning restore CA1031
             {
+                // A feed's failure of any kind is health data, never a crash of the server.
                 var error = Describe(ex, feed);
                 health.RecordFailure(source, error);
                 logger.LogWarning("Feed {Feed} poll failed: {Error}", source, error);

@@ -21,7 +21,7 @@ public static class ReadingsApi
         ReadingPipeline pipeline,
         FeedHealthRegistry health,
         TimeProvider clock,
-        ILogger<ReadingPipeline> logger)
+        ILoggerFactory loggers)
     {
         var push = options.Value.Push;
         if (push.ApiKeys.Count == 0)
@@ -61,7 +61,7 @@ public static class ReadingsApi
 
         if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow())))
         {
-            logger.LogWarning("Push from {Source} refused: reading pipeline full", source);
+            loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} refused: reading pipeline full", source);
             context.Response.Headers.RetryAfter = "5";
             return Error(StatusCodes.Status503ServiceUnavailable, "reading pipeline is full; retry later");
         }

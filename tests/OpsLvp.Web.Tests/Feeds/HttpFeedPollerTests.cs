@@ -9,12 +9,12 @@ public sealed class HttpFeedPollerTests
 {
     private const string Source = "http:upstream";
 
-    private static Dictionary<string, string?> Settings(Uri url, string name = "upstream", int index = 0) => new()
+    private static Dictionary<string, string?> Settings(Uri url, string name = "upstream", int index = 0, string timeout = "00:00:00.300") => new()
     {
         [$"Feeds:Http:{index}:Name"] = name,
         [$"Feeds:Http:{index}:Url"] = url.ToString(),
         [$"Feeds:Http:{index}:PollInterval"] = "00:00:00.200",
-        [$"Feeds:Http:{index}:Timeout"] = "00:00:00.300",
+        [$"Feeds:Http:{index}:Timeout"] = timeout,
         [$"Feeds:Http:{index}:Retries"] = "1",
         [$"Feeds:Http:{index}:RetryDelay"] = "00:00:00.050",
     };
@@ -46,7 +46,8 @@ public sealed class HttpFeedPollerTests
     public async Task Http500_IsRetried_RecordedAsFailure_AndNothingReachesPipeline()
     {
         await using var upstream = await FakeUpstreamFeed.StartAsync(UpstreamMode.Http500);
-        await using var app = OpsLvpApp.Start(Settings(upstream.Url));
+        // A generous timeout here, so a slow first connection on a busy machine cannot stand in for the 500.
+        await using var app = OpsLvpApp.Start(Settings(upstream.Url, timeout: "00:00:05"));
 
         var health = await Eventually.ValueAsync(() => app.Health.Get(Source), h => h.ConsecutiveFailures >= 2, "two failed polls");
 
@@ -79,7 +80,7 @@ public sealed class HttpFeedPollerTests
     public async Task GarbageBytes_AreAFailure_NotABatch()
     {
         await using var upstream = await FakeUpstreamFeed.StartAsync(UpstreamMode.Garbage);
-        await using var app = OpsLvpApp.Start(Settings(upstream.Url));
+        await using var app = OpsLvpApp.Start(Settings(upstream.Url, timeout: "00:00:05"));
 
         var health = await Eventually.ValueAsync(() => app.Health.Get(Source), h => h.ConsecutiveFailures >= 1, "a failed parse");
 

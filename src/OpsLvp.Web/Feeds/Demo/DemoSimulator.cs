@@ -99,8 +99,9 @@ public sealed class DemoSimulator(
 
     private async Task WaitUntilAsync(DateTimeOffset due, CancellationToken stoppingToken)
     {
-        var wait = due - clock.GetUtcNow();
-        if (wait > TimeSpan.Zero)
+        // Timers may fire a little early against the clock; never stamp a reading ahead of "now".
+        TimeSpan wait;
+        while ((wait = due - clock.GetUtcNow()) > TimeSpan.Zero)
         {
             await Task.Delay(wait, clock, stoppingToken);
         }
