@@ -1,27 +1,33 @@
+using MudBlazor.Services;
 using OpsLvp.Web.Components;
+using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Time;
 
 var builder = WebApplication.CreateBuilder(args);
 
-// Add services to the container.
-builder.Services.AddRazorComponents()
-    .AddInteractiveServerComponents();
+builder.Services.AddRazorComponents().AddInteractiveServerComponents();
+builder.Services.AddMudServices();
+builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
+builder.Services.AddAppClock(builder.Configuration);
+builder.Services.AddFeeds(builder.Configuration);
 
 var app = builder.Build();
 
-// Configure the HTTP request pipeline.
 if (!app.Environment.IsDevelopment())
 {
     app.UseExceptionHandler("/Error", createScopeForErrors: true);
-    // The default HSTS value is 30 days. You may want to change this for production scenarios, see https://aka.ms/aspnetcore-hsts.
     app.UseHsts();
 }
+
 app.UseStatusCodePagesWithReExecute("/not-found", createScopeForStatusCodePages: true);
 app.UseHttpsRedirection();
-
+app.UseAppAssets();
 app.UseAntiforgery();
 
 app.MapStaticAssets();
-app.MapRazorComponents<App>()
-    .AddInteractiveServerRenderMode();
+app.MapHealthApi();
+app.MapReadingsApi();
+app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 app.Run();

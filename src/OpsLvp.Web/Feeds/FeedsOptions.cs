@@ -1,0 +1,15 @@
+namespace OpsLvp.Web.Feeds;
+
+/// <summary>Configuration section <c>Feeds</c> (docs/feeds.md).</summary>
+public sealed class FeedsOptions
+{
+    public const string SectionName = "Feeds";
+
+    /// <summary>Polled HTTP JSON feeds, each under <c>Feeds:Http:{i}</c>.</summary>
+    public List<HttpFeedOptions> Http { get; set; } = [];
+
+    public PushIngestOptions Push { get; set; } = new();
+
+    /// <summary>Batches the reading pipeline holds before feeds have to wait for the consumer.</summary>
+    public int PipelineCapacity { get; set; } = 1024;
+}

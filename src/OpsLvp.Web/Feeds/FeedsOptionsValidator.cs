@@ -1,0 +1,105 @@
+using System.Globalization;
+using Microsoft.Extensions.Options;
+
+namespace OpsLvp.Web.Feeds;
+
+/// <summary>Checks <see cref="FeedsOptions"/>; each failure names the setting (e.g. <c>Feeds:Http:0:Url</c>).</summary>
+public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
+{
+    /// <summary>Shortest accepted push key, characters.</summary>
+    public const int MinKeyLength = 16;
+
+    public ValidateOptionsResult Validate(string? name, FeedsOptions options)
+    {
+        var errors = Errors(options);
+        return errors.Count == 0 ? ValidateOptionsResult.Success : ValidateOptionsResult.Fail(errors);
+    }
+
+    public static List<string> Errors(FeedsOptions options)
+    {
+        var errors = new List<string>();
+        if (options.PipelineCapacity is < 1 or > 1_000_000)
+        {
+            errors.Add(Msg($"Feeds:PipelineCapacity must be between 1 and 1000000 (got {options.PipelineCapacity})."));
+        }
+
+        var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        for (var i = 0; i < options.Http.Count; i++)
+        {
+            var feed = options.Http[i];
+            var at = Msg($"Feeds:Http:{i}");
+            if (string.IsNullOrWhiteSpace(feed.Name))
+            {
+                errors.Add($"{at}:Name must be set.");
+            }
+            else if (!names.Add(feed.Name))
+            {
+                errors.Add($"{at}:Name '{feed.Name}' is used by another feed.");
+            }
+
+            if (!Uri.TryCreate(feed.Url, UriKind.Absolute, out var uri) || (uri.Scheme != Uri.UriSchemeHttp && uri.Scheme != Uri.UriSchemeHttps))
+            {
+                errors.Add($"{at}:Url must be an absolute http or https URL (got '{feed.Url}').");
+            }
+
+            if (feed.PollInterval < TimeSpan.FromMilliseconds(100) || feed.PollInterval > TimeSpan.FromHours(1))
+            {
+                errors.Add($"{at}:PollInterval must be between 00:00:00.1 and 01:00:00.");
+            }
+
+            if (feed.Timeout < TimeSpan.FromMilliseconds(10) || feed.Timeout > TimeSpan.FromMinutes(5))
+            {
+                errors.Add($"{at}:Timeout must be between 00:00:00.01 and 00:05:00.");
+            }
+
+            if (feed.Retries is < 0 or > 10)
+            {
+                errors.Add(Msg($"{at}:Retries must be between 0 and 10 (got {feed.Retries})."));
+            }
+
+            if (feed.RetryDelay < TimeSpan.Zero || feed.RetryDelay > TimeSpan.FromMinutes(1))
+            {
+                errors.Add($"{at}:RetryDelay must be between 00:00:00 and 00:01:00.");
+            }
+
+            if (feed.MaxResponseBytes is < 1024 or > 64 * 1024 * 1024)
+            {
+                errors.Add(Msg($"{at}:MaxResponseBytes must be between 1024 and 67108864 (got {feed.MaxResponseBytes})."));
+            }
+
+            if (feed.StaleAfter is { } stale && stale <= TimeSpan.Zero)
+            {
+                errors.Add($"{at}:StaleAfter must be positive when set.");
+            }
+        }
+
+        var keyNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        for (var i = 0; i < options.Push.ApiKeys.Count; i++)
+        {
+            var key = options.Push.ApiKeys[i];
+            var at = Msg($"Feeds:Push:ApiKeys:{i}");
+            if (string.IsNullOrWhiteSpace(key.Name))
+            {
+                errors.Add($"{at}:Name must be set.");
+            }
+            else if (!keyNames.Add(key.Name))
+            {
+                errors.Add($"{at}:Name '{key.Name}' is used by another key.");
+            }
+
+            if (string.IsNullOrEmpty(key.Key) || key.Key.Length < MinKeyLength)
+            {
+                errors.Add(Msg($"{at}:Key must be at least {MinKeyLength} characters."));
+            }
+        }
+
+        if (options.Push.MaxBodyBytes is < 1024 or > 64 * 1024 * 1024)
+        {
+            errors.Add(Msg($"Feeds:Push:MaxBodyBytes must be between 1024 and 67108864 (got {options.Push.MaxBodyBytes})."));
+        }
+
+        return errors;
+    }
+
+    private static string Msg(FormattableString text) => text.ToString(CultureInfo.InvariantCulture);
+}

@@ -1,0 +1,27 @@
+using Microsoft.AspNetCore.Http.HttpResults;
+using OpsLvp.Web.Time;
+
+namespace OpsLvp.Web.Feeds;
+
+/// <summary><c>GET /health</c>: liveness plus per-feed health (docs/feeds.md, "Health"). Always 200 while the server runs.</summary>
+public static class HealthApi
+{
+    public static IEndpointRouteBuilder MapHealthApi(this IEndpointRouteBuilder endpoints)
+    {
+        endpoints.MapGet("/health", GetHealth);
+        return endpoints;
+    }
+
+    private static Ok<HealthResponse> GetHealth(FeedHealthRegistry registry, DemoMode demo, TimeProvider clock)
+    {
+        var feeds = registry.Snapshot();
+        var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
+        return TypedResults.Ok(new HealthResponse(
+            "ok",
+            clock.GetUtcNow(),
+            demo.Enabled,
+            demo.Enabled ? demo.Speed : null,
+            FeedHealthDto.StatusText(worst),
+            feeds.Select(FeedHealthDto.From).ToList()));
+    }
+}

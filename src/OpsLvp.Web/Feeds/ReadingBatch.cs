@@ -1,0 +1,10 @@
+using OpsLvp.Core.Readings;
+
+namespace OpsLvp.Web.Feeds;
+
+/// <summary>
+/// What one feed delivered at once: <paramref name="Source"/> names the feed (<c>http:{name}</c>,
+/// <c>push:{key name}</c>, <c>demo</c>), <paramref name="ReceivedAt"/> is app-clock time of arrival.
+/// Rejections here are structural (<see cref="RejectReason.Malformed"/>); the engine host applies the rest.
+/// </summary>
+public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IReadOnlyList<Reading> Readings, IReadOnlyList<ReadingRejection> Rejections);

@@ -1,0 +1,120 @@
+using Microsoft.AspNetCore.Http.Features;
+using Microsoft.AspNetCore.Http.HttpResults;
+using Microsoft.Extensions.Options;
+
+namespace OpsLvp.Web.Feeds;
+
+/// <summary>Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md).</summary>
+public static class ReadingsApi
+{
+    public const string ApiKeyHeader = "X-Api-Key";
+
+    public static IEndpointRouteBuilder MapReadingsApi(this IEndpointRouteBuilder endpoints)
+    {
+        endpoints.MapPost("/api/readings", PostReadingsAsync).DisableAntiforgery();
+        return endpoints;
+    }
+
+    private static async Task<Results<Accepted<PushResponse>, JsonHttpResult<ApiError>>> PostReadingsAsync(
+        HttpContext context,
+        IOptions<FeedsOptions> options,
+        ReadingPipeline pipeline,
+        FeedHealthRegistry health,
+        TimeProvider clock,
+        ILoggerFactory loggers)
+    {
+        var push = options.Value.Push;
+        if (push.ApiKeys.Count == 0)
+        {
+            return Unauthorized(context, "push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys");
+        }
+
+        var presented = context.Request.Headers[ApiKeyHeader].ToString();
+        if (presented.Length == 0)
+        {
+            return Unauthorized(context, $"missing {ApiKeyHeader} header");
+        }
+
+        var keyName = PushKeys.Match(push.ApiKeys, presented);
+        if (keyName is null)
+        {
+            return Unauthorized(context, $"the {ApiKeyHeader} header does not match any configured key");
+        }
+
+        var source = "push:" + keyName;
+        var body = await ReadBodyAsync(context, push.MaxBodyBytes);
+        if (body is null)
+        {
+            return Error(StatusCodes.Status413PayloadTooLarge, $"request body exceeds Feeds:Push:MaxBodyBytes ({push.MaxBodyBytes} bytes)");
+        }
+
+        ReadingParseResult parsed;
+        try
+        {
+            parsed = ReadingJsonParser.Parse(body);
+        }
+        catch (FeedFormatException ex)
+        {
+            health.RecordFailure(source, "bad document: " + ex.Message);
+            return Error(StatusCodes.Status400BadRequest, ex.Message);
+        }
+
+        if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow())))
+        {
+            loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} refused: reading pipeline full", source);
+            context.Response.Headers.RetryAfter = "5";
+            return Error(StatusCodes.Status503ServiceUnavailable, "reading pipeline is full; retry later");
+        }
+
+        health.RecordSuccess(source, parsed.Readings.Count, parsed.Rejections.Count);
+        var rejected = parsed.Rejections
+            .Select(r => new PushRejection(r.Index, ReadingWireNames.ToWire(r.Reason), r.Detail, r.SensorId))
+            .ToList();
+        return TypedResults.Accepted((string?)null, new PushResponse(source, parsed.Readings.Count, rejected));
+    }
+
+    /// <summary>The body, or null when it is larger than <paramref name="maxBytes"/>.</summary>
+    private static async Task<byte[]?> ReadBodyAsync(HttpContext context, int maxBytes)
+    {
+        if (context.Request.ContentLength > maxBytes)
+        {
+            return null;
+        }
+
+        var sizeFeature = context.Features.Get<IHttpMaxRequestBodySizeFeature>();
+        if (sizeFeature is { IsReadOnly: false })
+        {
+            sizeFeature.MaxRequestBodySize = maxBytes;
+        }
+
+        using var buffer = new MemoryStream();
+        var chunk = new byte[16 * 1024];
+        try
+        {
+            int read;
+            while ((read = await context.Request.Body.ReadAsync(chunk, context.RequestAborted)) > 0)
+            {
+                if (buffer.Length + read > maxBytes)
+                {
+                    return null;
+                }
+
+                buffer.Write(chunk, 0, read);
+            }
+        }
+        catch (BadHttpRequestException ex) when (ex.StatusCode == StatusCodes.Status413PayloadTooLarge)
+        {
+            return null;
+        }
+
+        return buffer.ToArray();
+    }
+
+    private static JsonHttpResult<ApiError> Unauthorized(HttpContext context, string error)
+    {
+        context.Response.Headers.WWWAuthenticate = $"ApiKey header=\"{ApiKeyHeader}\"";
+        return Error(StatusCodes.Status401Unauthorized, error);
+    }
+
+    private static JsonHttpResult<ApiError> Error(int status, string error) => TypedResults.Json(new ApiError(error), statusCode: status);
+}

@@ -1,0 +1,162 @@
+using Microsoft.Extensions.Logging.Abstractions;
+using Microsoft.Extensions.Options;
+using Microsoft.Extensions.Time.Testing;
+using OpsLvp.Core.Readings;
+using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Feeds.Demo;
+using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Time;
+
+namespace OpsLvp.Web.Tests.Feeds.Demo;
+
+/// <summary>The simulator on a fake clock. The scenario rows are invented test data.</summary>
+public sealed class DemoSimulatorTests : IDisposable
+{
+    private const string ReadingsCsv = """
+        # invented test scenario
+        time,sensor,kind,value,status
+        00:00:00,T1,rvr,1500,ok
+        00:00:00,C1,cloud_base,300,ok
+        00:01:00,T1,rvr,900,ok
+        00:02:00,T1,rvr,abc,ok
+        00:02:00,T1,rvr,600,failed
+        """;
+
+    private const string ActionsCsv = """
+        time,actor,action,target,value,reason
+        00:01:00,duty-demo,confirm,active,,"invented: fog as forecast"
+        """;
+
+    private static readonly DateTimeOffset s_start = new(2026, 1, 15, 2, 0, 0, TimeSpan.Zero);
+
+    private readonly string _folder = Path.Combine(Path.GetTempPath(), "opslvp-sim-tests", Guid.NewGuid().ToString("N"));
+    private readonly ReadingPipeline _pipeline = new(Options.Create(new FeedsOptions()));
+    private readonly DemoActionQueue _actions = new();
+    private readonly FakeTimeProvider _fake = new(s_start);
+
+    public DemoSimulatorTests()
+    {
+        Directory.CreateDirectory(_folder);
+        File.WriteAllText(Path.Combine(_folder, "night.csv"), ReadingsCsv);
+        File.WriteAllText(Path.Combine(_folder, "night.actions.csv"), ActionsCsv);
+    }
+
+    public void Dispose() => Directory.Delete(_folder, recursive: true);
+
+    private DemoSimulator Simulator(TimeProvider clock, FeedHealthRegistry health, bool demo = true, string scenario = "night.csv") => new(
+        Options.Create(new DemoOptions { ScenarioPath = scenario, ActionsPath = "night.actions.csv", LoopGap = TimeSpan.FromMinutes(1) }),
+        new DemoMode(demo, 30),
+        new ContentPaths(_folder),
+        _pipeline,
+        _actions,
+        health,
+        clock,
+        NullLogger<DemoSimulator>.Instance);
+
+    private async Task<ReadingBatch> NextAsync()
+    {
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+        await foreach (var batch in _pipeline.ReadAllAsync(cts.Token))
+        {
+            return batch;
+        }
+
+        throw new InvalidOperationException("pipeline completed");
+    }
+
+    private async Task<DemoAction> NextActionAsync()
+    {
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+        await foreach (var action in _actions.ReadAllAsync(cts.Token))
+        {
+            return action;
+        }
+
+        throw new InvalidOperationException("queue completed");
+    }
+
+    [Fact]
+    public async Task PlaysRows_StampedWithDemoNow_AndLoopsWithTimeContinuingForward()
+    {
+        var health = new FeedHealthRegistry(_fake);
+        using var simulator = Simulator(_fake, health);
+        await simulator.StartAsync(CancellationToken.None);
+
+        var rejected = await NextAsync();
+        Assert.Empty(rejected.Readings);
+        Assert.Equal("line 6: value 'abc' is not a finite number", Assert.Single(rejected.Rejections).Detail);
+
+        var first = await NextAsync();
+        Assert.Equal("demo", first.Source);
+        Assert.Equal(
+            [new Reading(s_start, "T1", ReadingKind.Rvr, 1500), new Reading(s_start, "C1", ReadingKind.CloudBase, 300)],
+            first.Readings);
+
+        _fake.Advance(TimeSpan.FromMinutes(1));
+        var second = await NextAsync();
+        Assert.Equal(new Reading(s_start.AddMinutes(1), "T1", ReadingKind.Rvr, 900), Assert.Single(second.Readings));
+        Assert.Equal(new DemoAction(s_start.AddMinutes(1), "duty-demo", "confirm", "active", null, "invented: fog as forecast"), await NextActionAsync());
+
+        _fake.Advance(TimeSpan.FromMinutes(1));
+        var third = await NextAsync();
+        Assert.Equal(new Reading(s_start.AddMinutes(2), "T1", ReadingKind.Rvr, 600, ReadingStatus.Failed), Assert.Single(third.Readings));
+
+        // Scenario lasts 2 min, loop gap 1 min: the second loop starts at +3 min, not back at the start.
+        _fake.Advance(TimeSpan.FromSeconds(59));
+        Assert.False(_pipeline.TryRead(out _));
+        _fake.Advance(TimeSpan.FromSeconds(1));
+        var looped = await NextAsync();
+        Assert.Equal(s_start.AddMinutes(3), looped.Readings[0].Time);
+        Assert.Equal(2, looped.Readings.Count);
+
+        Assert.Equal(FeedStatus.Ok, health.Get("demo")!.Status);
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    [Fact]
+    public async Task OnAcceleratedClock_OneDemoMinuteTakesTwoRealSeconds()
+    {
+        var real = new FakeTimeProvider(new DateTimeOffset(2030, 6, 1, 12, 0, 0, TimeSpan.Zero));
+        var demoClock = new AcceleratedTimeProvider(real, s_start, 30);
+        using var simulator = Simulator(demoClock, new FeedHealthRegistry(demoClock));
+        await simulator.StartAsync(CancellationToken.None);
+        await NextAsync();
+        var first = await NextAsync();
+        Assert.Equal(s_start, first.Readings[0].Time);
+
+        real.Advance(TimeSpan.FromSeconds(2));
+        var second = await NextAsync();
+
+        Assert.Equal(s_start.AddMinutes(1), second.Readings[0].Time);
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    [Fact]
+    public async Task MissingScenarioFile_IsHealthDown_NotACrash()
+    {
+        var health = new FeedHealthRegistry(_fake);
+        using var simulator = Simulator(_fake, health, scenario: "missing.csv");
+
+        await simulator.StartAsync(CancellationToken.None);
+        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(5));
+
+        var entry = health.Get("demo")!;
+        Assert.Equal(FeedStatus.Down, entry.Status);
+        Assert.StartsWith("cannot read Demo:ScenarioPath", entry.LastError, StringComparison.Ordinal);
+        Assert.Contains("missing.csv", entry.LastError, StringComparison.Ordinal);
+        Assert.True(simulator.ExecuteTask.IsCompletedSuccessfully);
+    }
+
+    [Fact]
+    public async Task NotInDemoMode_PlaysNothing_AndIsNotListed()
+    {
+        var health = new FeedHealthRegistry(_fake);
+        using var simulator = Simulator(_fake, health, demo: false);
+
+        await simulator.StartAsync(CancellationToken.None);
+        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(5));
+
+        Assert.False(_pipeline.TryRead(out _));
+        Assert.Null(health.Get("demo"));
+    }
+}

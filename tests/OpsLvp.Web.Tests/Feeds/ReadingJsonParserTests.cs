@@ -1,0 +1,163 @@
+using System.Text;
+using OpsLvp.Core.Readings;
+using OpsLvp.Web.Feeds;
+
+namespace OpsLvp.Web.Tests.Feeds;
+
+/// <summary>The JSON format is OpsLvp's own (docs/feeds.md); sensor ids and values are invented.</summary>
+public sealed class ReadingJsonParserTests
+{
+    private static ReadingParseResult Parse(string json) => ReadingJsonParser.Parse(Encoding.UTF8.GetBytes(json));
+
+    private static string Item(string time = "2026-01-15T03:00:00Z", string sensor = "\"S1\"", string kind = "\"rvr\"", string value = "550", string status = "\"ok\"") =>
+        $$"""{ "readings": [ { "time": "{{time}}", "sensor": {{sensor}}, "kind": {{kind}}, "value": {{value}}, "status": {{status}} } ] }""";
+
+    [Theory]
+    [InlineData("rvr", ReadingKind.Rvr)]
+    [InlineData("visibility", ReadingKind.Visibility)]
+    [InlineData("cloud_base", ReadingKind.CloudBase)]
+    [InlineData("vertical_visibility", ReadingKind.VerticalVisibility)]
+    [InlineData("extinction", ReadingKind.Extinction)]
+    [InlineData("transmittance", ReadingKind.Transmittance)]
+    [InlineData("background_luminance", ReadingKind.BackgroundLuminance)]
+    public void EveryDocumentedKind_IsRead(string wire, ReadingKind expected)
+    {
+        var result = Parse(Item(kind: $"\"{wire}\""));
+
+        Assert.Equal(expected, Assert.Single(result.Readings).Kind);
+    }
+
+    [Theory]
+    [InlineData("ok", ReadingStatus.Ok)]
+    [InlineData("degraded", ReadingStatus.Degraded)]
+    [InlineData("failed", ReadingStatus.Failed)]
+    [InlineData("maintenance", ReadingStatus.Maintenance)]
+    public void EveryDocumentedStatus_IsRead(string wire, ReadingStatus expected)
+    {
+        var result = Parse(Item(status: $"\"{wire}\""));
+
+        Assert.Equal(expected, Assert.Single(result.Readings).Status);
+    }
+
+    [Theory]
+    // ISO 8601 / RFC 3339 date-time with offset (from memory): Z, +hh:mm, -hh:mm, fractional seconds, no seconds.
+    [InlineData("2026-01-15T03:00:00Z", "2026-01-15T03:00:00Z")]
+    [InlineData("2026-01-15T04:30:00+01:30", "2026-01-15T03:00:00Z")]
+    [InlineData("2026-01-14T22:00:00-05:00", "2026-01-15T03:00:00Z")]
+    [InlineData("2026-01-15T03:00:00.250Z", "2026-01-15T03:00:00.25Z")]
+    [InlineData("2026-01-15T03:00Z", "2026-01-15T03:00:00Z")]
+    public void TimeWithOffset_IsConvertedToUtc(string wire, string expectedUtc)
+    {
+        var reading = Assert.Single(Parse(Item(time: wire)).Readings);
+
+        Assert.Equal(DateTimeOffset.Parse(expectedUtc, System.Globalization.CultureInfo.InvariantCulture), reading.Time);
+        Assert.Equal(TimeSpan.Zero, reading.Time.Offset);
+    }
+
+    [Theory]
+    [InlineData("2026-01-15T03:00:00", "time '2026-01-15T03:00:00' is not ISO-8601 with an offset")]
+    [InlineData("2026-01-15 03:00:00Z", "is not ISO-8601 with an offset")]
+    [InlineData("15/01/2026 03:00", "is not ISO-8601 with an offset")]
+    [InlineData("2026-02-30T03:00:00Z", "is not ISO-8601 with an offset")]
+    public void TimeWithoutOffsetOrInvalid_IsMalformed(string wire, string expectedDetail)
+    {
+        var result = Parse(Item(time: wire));
+
+        Assert.Empty(result.Readings);
+        var rejection = Assert.Single(result.Rejections);
+        Assert.Equal(RejectReason.Malformed, rejection.Reason);
+        Assert.Contains(expectedDetail, rejection.Detail, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [InlineData("\"RVR\"", "\"ok\"", "kind 'RVR' is not one of")]
+    [InlineData("\"rvr\"", "\"OK\"", "status 'OK' is not one of")]
+    [InlineData("\"rvr\"", "null", "status is missing")]
+    [InlineData("5", "\"ok\"", "kind must be a string (got a number)")]
+    public void UnknownKindOrStatus_IsMalformed_CaseSensitive(string kind, string status, string expectedDetail)
+    {
+        var rejection = Assert.Single(Parse(Item(kind: kind, status: status)).Rejections);
+
+        Assert.Contains(expectedDetail, rejection.Detail, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [InlineData("1e999", "value must be a finite number")]
+    [InlineData("\"NaN\"", "value must be a number (got a string)")]
+    [InlineData("null", "value is missing")]
+    [InlineData("true", "value must be a number (got a boolean)")]
+    public void NonFiniteOrNonNumericValue_IsMalformed(string value, string expectedDetail)
+    {
+        var rejection = Assert.Single(Parse(Item(value: value)).Rejections);
+
+        Assert.Equal(expectedDetail, rejection.Detail);
+    }
+
+    [Theory]
+    [InlineData("\"\"", "sensor is missing")]
+    [InlineData("\"RVR 09\"", "sensor 'RVR 09' must be 1-32 letters, digits")]
+    [InlineData("\"ABCDEFGHIJKLMNOPQRSTUVWXYZ0123456\"", "must be 1-32 letters")]
+    public void BadSensorId_IsMalformed(string sensor, string expectedDetail)
+    {
+        var rejection = Assert.Single(Parse(Item(sensor: sensor)).Rejections);
+
+        Assert.Contains(expectedDetail, rejection.Detail, StringComparison.Ordinal);
+        Assert.Null(rejection.SensorId);
+    }
+
+    [Fact]
+    public void SeveralProblemsInOneItem_AreAllNamed()
+    {
+        var rejection = Assert.Single(Parse("""{ "readings": [ { "sensor": "S1", "kind": "fog", "value": "x" } ] }""").Rejections);
+
+        Assert.Equal("time is missing; status is missing; kind 'fog' is not one of rvr, visibility, cloud_base, vertical_visibility, extinction, transmittance, background_luminance; value must be a number (got a string)", rejection.Detail);
+        Assert.Equal("S1", rejection.SensorId);
+    }
+
+    [Fact]
+    public void UnknownExtraFields_AreIgnored()
+    {
+        var result = Parse("""{ "feed": "x", "readings": [ { "time": "2026-01-15T03:00:00Z", "sensor": "S1", "kind": "rvr", "value": 550, "status": "ok", "note": "n" } ] }""");
+
+        Assert.Single(result.Readings);
+        Assert.Empty(result.Rejections);
+    }
+
+    [Fact]
+    public void EmptyReadingsArray_IsAnEmptyResult()
+    {
+        var result = Parse("""{ "readings": [] }""");
+
+        Assert.Empty(result.Readings);
+        Assert.Empty(result.Rejections);
+    }
+
+    [Theory]
+    [InlineData("", "body is not valid JSON")]
+    [InlineData("{ \"readings\": [ ", "body is not valid JSON")]
+    [InlineData("\"readings\"", "body must be a JSON object with a \"readings\" array (got a string)")]
+    [InlineData("{ \"reading\": [] }", "body must have a \"readings\" array")]
+    [InlineData("{ \"readings\": {} }", "body must have a \"readings\" array")]
+    public void WrongDocument_Throws_WithMessage(string json, string expected)
+    {
+        var ex = Assert.Throws<FeedFormatException>(() => Parse(json));
+
+        Assert.StartsWith(expected, ex.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void TooManyItems_Throws()
+    {
+        var items = string.Join(",", Enumerable.Repeat("{}", ReadingJsonParser.MaxItems + 1));
+
+        var ex = Assert.Throws<FeedFormatException>(() => Parse("{ \"readings\": [" + items + "] }"));
+
+        Assert.Equal("\"readings\" has 10001 items; at most 10000 are accepted per document", ex.Message);
+    }
+
+    [Fact]
+    public void InvalidUtf8_Throws()
+    {
+        Assert.Throws<FeedFormatException>(() => ReadingJsonParser.Parse(new byte[] { 0xFF, 0xFE, 0x7B, 0x7D }));
+    }
+}

@@ -1,0 +1,11 @@
+namespace OpsLvp.Web.Tests.Infrastructure;
+
+/// <summary>What the fake upstream feed answers.</summary>
+public enum UpstreamMode
+{
+    GoodJson,
+    Http500,
+    Hang,
+    Garbage,
+    PartiallyMalformed,
+}
