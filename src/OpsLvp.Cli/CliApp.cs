@@ -6,6 +6,7 @@ public static class CliApp
     /// <summary>Every command the tool knows.</summary>
     public static IReadOnlyList<ICliCommand> Commands { get; } =
     [
+        new Commands.ReplayCommand(),
     ];
 
     /// <summary>Runs the tool in-process (tests call this directly).</summary>
