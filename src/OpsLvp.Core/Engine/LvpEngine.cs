@@ -510,34 +510,34 @@ public sealed class LvpEngine(AerodromeProfile profile)
             var wanted = new List<(string Key, AlarmKind Kind, string Message)>();
             if (_model.RvrConfigured && sit.RvrM is null)
             {
-                wanted.Add(("rvr-unknown", AlarmKind.GoverningRvrUnknown, "governing RVR unknown: no fresh reading from any governing sensor"));
+                wanted.Add((AlarmKeys.RvrUnknown, AlarmKind.GoverningRvrUnknown, "governing RVR unknown: no fresh reading from any governing sensor"));
             }
             if (_model.CeilingConfigured && sit.CeilingFt is null)
             {
-                wanted.Add(("ceiling-unknown", AlarmKind.CeilingUnknown, "ceiling unknown: no fresh reading from any ceilometer"));
+                wanted.Add((AlarmKeys.CeilingUnknown, AlarmKind.CeilingUnknown, "ceiling unknown: no fresh reading from any ceilometer"));
             }
             foreach (var sensor in _model.Sensors.Values)
             {
                 if (!State.OutOfService.Contains(sensor.Id) && IsSilent(sensor, t))
                 {
-                    wanted.Add(($"sensor-silent:{sensor.Id}", AlarmKind.SensorSilent, $"sensor {sensor.Id} silent past its maximum age"));
+                    wanted.Add((AlarmKeys.SensorSilent(sensor.Id), AlarmKind.SensorSilent, $"sensor {sensor.Id} silent past its maximum age"));
                 }
             }
             foreach (var item in State.Items)
             {
                 if (item.IsOverdue(t))
                 {
-                    wanted.Add(($"item-overdue:{item.ItemId}", AlarmKind.ItemOverdue, $"item {item.ItemId} ({item.Team}) overdue since {Fmt.Time(item.DueAt)}"));
+                    wanted.Add((AlarmKeys.ItemOverdue(item.ItemId), AlarmKind.ItemOverdue, $"item {item.ItemId} ({item.Team}) overdue since {Fmt.Time(item.DueAt)}"));
                 }
             }
             if (State.Pending is { } p)
             {
-                wanted.Add(("pending", AlarmKind.PendingTransition, $"confirm {Fmt.Name(p.From)} -> {Fmt.Name(p.To)}: {p.Reason}"));
+                wanted.Add((AlarmKeys.Pending, AlarmKind.PendingTransition, $"confirm {Fmt.Name(p.From)} -> {Fmt.Name(p.To)}: {p.Reason}"));
             }
             if (State.Episode is not null && sit.Active
                 && State.Items.Any(i => i.Phase == Phase.Preparation && i.Mandatory && i.Status == ItemStatus.Open))
             {
-                wanted.Add(("safeguards-incomplete", AlarmKind.SafeguardsIncomplete, "active condition holds while mandatory preparation items are open"));
+                wanted.Add((AlarmKeys.SafeguardsIncomplete, AlarmKind.SafeguardsIncomplete, "active condition holds while mandatory preparation items are open"));
             }
             var alarms = State.Alarms;
             foreach (var old in State.Alarms)

@@ -31,7 +31,7 @@ public class AlarmTests
         d.Weather(0, 1500);
         d.Run(60, Rvr(60, "RVR07T", 1500), Rvr(60, "RVR07M", 1500));
         d.Run(300);
-        var raised = Assert.Single(d.Events.OfType<AlarmRaised>(), a => a.Alarm.Key == "sensor-silent:RVR25T");
+        var raised = Assert.Single(d.Events.OfType<AlarmRaised>(), a => a.Alarm.Key == "feed-silent:RVR25T");
         Assert.Equal(At(120), raised.At); // reading at 0 s + max age 120 s (invented)
     }
 

@@ -9,11 +9,14 @@ namespace OpsLvp.Core.Tests.Engine;
 /// <summary>The server persists EngineState as JSON for restart recovery: a restored state must behave exactly like the original.</summary>
 public class EngineStateJsonTests
 {
-    public static TheoryData<string> OptionSets => ["web", "profile"];
+    public static TheoryData<string> OptionSets => ["default", "web", "profile"];
 
-    private static JsonSerializerOptions Options(string which) => which == "web"
-        ? new JsonSerializerOptions(JsonSerializerDefaults.Web) { Converters = { new JsonStringEnumConverter() } }
-        : ProfileLoader.JsonOptions;
+    private static JsonSerializerOptions Options(string which) => which switch
+    {
+        "default" => JsonSerializerOptions.Default,
+        "web" => new JsonSerializerOptions(JsonSerializerDefaults.Web) { Converters = { new JsonStringEnumConverter() } },
+        _ => ProfileLoader.JsonOptions,
+    };
 
     [Theory]
     [MemberData(nameof(OptionSets))]

@@ -23,7 +23,7 @@ public class RecoveryFailSafeTests
         d.Weather(60, 1500);
         GoodExceptRvr25T(d, 120, 1500);
         Assert.Equal("30:Normal->Active", d.TransitionLog);
-        Assert.Contains(d.State.Alarms, a => a.Key == "sensor-silent:RVR25T");
+        Assert.Contains(d.State.Alarms, a => a.Key == "feed-silent:RVR25T");
     }
 
     [Fact]
@@ -37,7 +37,7 @@ public class RecoveryFailSafeTests
         d.Run(200, new SetSensorService("dm (invented)", "RVR25T", false, "sensor fault reported (invented)"));
         GoodExceptRvr25T(d, 240, 840);
         Assert.Equal("30:Normal->Active; 800:Active->Cancellation", d.TransitionLog);
-        Assert.DoesNotContain(d.State.Alarms, a => a.Key == "sensor-silent:RVR25T");
+        Assert.DoesNotContain(d.State.Alarms, a => a.Key == "feed-silent:RVR25T");
     }
 
     [Fact]

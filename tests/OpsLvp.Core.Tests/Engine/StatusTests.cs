@@ -63,4 +63,17 @@ public class StatusTests
         d.Run(40);
         Assert.Contains(d.Engine.Describe(d.State, At(40)).Waiting, w => w.Kind == WaitKind.Confirmation && w.Text.StartsWith("waiting for confirmation", StringComparison.Ordinal));
     }
+
+    [Fact]
+    public void Describe_WithoutCeilometers_SaysCeilingIsNotConfigured_AndShowsThresholdsInEffect()
+    {
+        var profile = TestProfiles.WithoutCeilometer();
+        var d = new EngineDriver(profile);
+        d.Run(0, Rvr(0, "RVR07T", 700));
+        var s = d.Engine.Describe(d.State, At(10));
+        Assert.False(s.CeilingConfigured);
+        Assert.Null(s.Ceiling);
+        Assert.Equal(profile.Thresholds, s.Thresholds);
+        Assert.Equal(Phase.Normal, s.Phase);
+    }
 }

@@ -71,7 +71,7 @@ public class ReplayCommandTests
         var (_, without, _) = Run("replay", "--profile", profile, "--readings", readings);
         var (code, with, _) = Run("replay", "--profile", profile, "--readings", readings, "--until", "2026-12-01T03:30:00Z");
         Assert.Equal(0, code);
-        Assert.DoesNotContain("sensor-silent:RVR25T", without);
-        Assert.Contains("\"key\":\"sensor-silent:RVR25T\"", with);
+        Assert.DoesNotContain("feed-silent:RVR25T", without);
+        Assert.Contains("\"key\":\"feed-silent:RVR25T\"", with);
     }
 }
