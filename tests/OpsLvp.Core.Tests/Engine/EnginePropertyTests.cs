@@ -96,6 +96,10 @@ public class EnginePropertyTests
         return d;
     }
 
+    /// <summary>Escalations (R8); cancellation → preparation is the end of cancellation, not an escalation.</summary>
+    private static bool IsEscalation(PhaseTransition t) =>
+        (t.From, t.To) is (Phase.Normal, Phase.Preparation) or (Phase.Normal, Phase.Active) or (Phase.Preparation, Phase.Active) or (Phase.Cancellation, Phase.Active);
+
     private static List<string> Lines(EngineDriver d) => d.Events.Select(EventJson.ToLine).ToList();
 
     [Fact]
@@ -178,7 +182,7 @@ public class EnginePropertyTests
                     Assert.True(gap >= (b.From == Phase.Active ? 600 : 900), $"{b.From}->{b.To} only {gap} s after {a.From}->{a.To}");
                 }
                 var escalationAfterRelaxation = (a.From, a.To) is (Phase.Active, Phase.Cancellation) or (Phase.Preparation, Phase.Normal)
-                    && b.To is Phase.Active or Phase.Preparation;
+                    && IsEscalation(b);
                 if (escalationAfterRelaxation)
                 {
                     Assert.True(gap >= 30, $"{b.From}->{b.To} only {gap} s after {a.From}->{a.To}");
@@ -199,6 +203,24 @@ public class EnginePropertyTests
             var silentSince = TestProfiles.T0.AddSeconds(x.steps.Sum(s => s.Gap) + 120);
             Assert.DoesNotContain(d.Transitions, t => t.At >= silentSince && t.By == TransitionBy.Auto
                 && (t.From, t.To) is (Phase.Active, Phase.Cancellation) or (Phase.Preparation, Phase.Normal));
+        }, iter: Iterations);
+    }
+
+    [Fact]
+    public void AfterAManualRelaxation_AutomaticEscalationWaitsItsDwellFromTheAction()
+    {
+        Scenario(12).Sample(steps =>
+        {
+            var transitions = RunOnce(steps).Transitions.ToList();
+            for (var i = 1; i < transitions.Count; i++)
+            {
+                var (a, b) = (transitions[i - 1], transitions[i]);
+                if (a.By == TransitionBy.Manual && (a.From, a.To) is (Phase.Active, Phase.Cancellation) or (Phase.Preparation, Phase.Normal)
+                    && b.By == TransitionBy.Auto && IsEscalation(b))
+                {
+                    Assert.True((b.At - a.At).TotalSeconds >= 30, $"{b.From}->{b.To} at {b.At} only {(b.At - a.At).TotalSeconds} s after the manual {a.From}->{a.To}");
+                }
+            }
         }, iter: Iterations);
     }
 }

@@ -105,4 +105,39 @@ public class ManualActionTests
         Assert.Equal(["forecast", "sensor_out"], events.OfType<ManualActionApplied>().Select(m => m.Action));
         Assert.Contains("RVR07M", d.State.OutOfService);
     }
+
+    private sealed record UnknownCommand(string Actor) : EngineCommand(Actor);
+
+    [Fact]
+    public void CommandsThatCannotApply_AreRefusedWithAReadableReason_NeverThrown()
+    {
+        var d = new EngineDriver();
+        var events = d.Run(10,
+            new DeclarePhase(Dm, Phase.Normal, "r"),
+            new DeclarePhase(" ", Phase.Active, "r"),
+            new ReleaseHold(Dm, "r"),
+            new SetForecast(Dm, false, "r"),
+            new ConfirmPending(Dm),
+            new UnknownCommand(Dm));
+        Assert.Equal(
+        [
+            "only preparation or active can be declared, not normal",
+            "actor is blank",
+            "no hold to release",
+            "deterioration forecast is already off",
+            "nothing to confirm: no transition is pending",
+            "unknown command UnknownCommand",
+        ], events.OfType<CommandRefused>().Select(r => r.Reason));
+        Assert.Equal(Phase.Normal, d.State.Phase);
+    }
+
+    [Fact]
+    public void EvaluatingAtAnEarlierInstant_IsTreatedAsTheStatesInstant()
+    {
+        var d = new EngineDriver();
+        d.Run(100);
+        var result = d.Engine.Evaluate(d.State, [EngineDriver.Rvr(100, "RVR07T", 800)], EngineDriver.At(50));
+        Assert.Equal(EngineDriver.At(100), result.State.EvaluatedAt);
+        Assert.All(result.Events, e => Assert.Equal(EngineDriver.At(100), e.At));
+    }
 }
