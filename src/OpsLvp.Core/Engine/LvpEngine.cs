@@ -542,7 +542,8 @@ public sealed class LvpEngine(AerodromeProfile profile)
             var alarms = State.Alarms;
             foreach (var old in State.Alarms)
             {
-                if (!wanted.Any(w => w.Key == old.Key))
+                // a changed message is a new cause under the same key (e.g. a different pending transition): raise it afresh
+                if (!wanted.Any(w => w.Key == old.Key && w.Message == old.Message))
                 {
                     alarms = alarms.Remove(old);
                     Events.Add(new AlarmCleared(t, old.Key, old.Kind));

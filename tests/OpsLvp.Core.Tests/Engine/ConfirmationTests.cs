@@ -58,4 +58,18 @@ public class ConfirmationTests
         Assert.Equal("30:Normal->Preparation", d.TransitionLog);
         Assert.Equal(EngineDriver.At(70), d.State.Pending?.ConditionMetAt);
     }
+
+    [Fact]
+    public void NewProposalReplacingAnother_RaisesThePendingAlarmAfreshWithItsOwnText()
+    {
+        var d = new EngineDriver(TestProfiles.Confirming(new TransitionRule(Phase.Normal, Phase.Preparation), new TransitionRule(Phase.Normal, Phase.Active)));
+        d.Run(0, [.. TestProfiles.GoverningRvr.Select(s => EngineDriver.Rvr(0, s, 800)), EngineDriver.Ceiling(0, 5000)]);
+        d.Run(40, new AcknowledgeAlarm(Dm, "pending"));
+        d.Weather(50, 500);
+        d.Run(90);
+        var pending = Assert.Single(d.State.Alarms, a => a.Key == "pending");
+        Assert.StartsWith("confirm normal -> active", pending.Message);
+        Assert.False(pending.Acknowledged);
+        Assert.Equal(2, d.Events.OfType<TransitionProposed>().Count());
+    }
 }
