@@ -233,7 +233,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 var desired = Desired(sit, t);
                 if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
                 {
-                    Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, "condition no longer holds"));
+                    var why = desired is { } other
+                        ? $"superseded: {Fmt.Name(pending.From)} -> {Fmt.Name(other.To)} is due instead"
+                        : State.Hold is { } hold && Severity(pending.To) < Severity(hold.Phase)
+                            ? $"hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}"
+                            : "condition no longer holds";
+                    Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, why));
                     State = State with { Pending = null };
                 }
                 if (desired is not { } d)

@@ -32,7 +32,7 @@ public class ConfirmationTests
         d.Weather(0, 800);
         d.Weather(45, 1050);
         var withdrawn = Assert.Single(d.Events.OfType<ProposalWithdrawn>());
-        Assert.Equal(EngineDriver.At(45), withdrawn.At);
+        Assert.Equal((EngineDriver.At(45), "condition no longer holds"), (withdrawn.At, withdrawn.Reason));
         Assert.Null(d.State.Pending);
         Assert.Single(d.Events.OfType<AlarmCleared>(), c => c.Kind == AlarmKind.PendingTransition);
         Assert.Single(d.Run(50, new ConfirmPending(Dm)).OfType<CommandRefused>());
