@@ -9,6 +9,7 @@ public static class CliApp
         new Commands.RvrCommand(),
         new Commands.MetarDecodeCommand(),
         new Commands.AuditVerifyCommand(),
+        new Commands.ReplayCommand(),
     ];
 
     /// <summary>Runs the tool in-process (tests call this directly).</summary>

@@ -15,6 +15,9 @@ public sealed record EngineState
 
     public Phase Phase { get; init; } = Phase.Normal;
 
+    /// <summary>When monitoring began (engine start); a sensor that never reported is silent from here + its maximum age. Null: <see cref="PhaseSince"/>.</summary>
+    public DateTimeOffset? MonitoringSince { get; init; }
+
     /// <summary>When the current phase was entered.</summary>
     public required DateTimeOffset PhaseSince { get; init; }
 

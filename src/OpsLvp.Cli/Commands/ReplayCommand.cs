@@ -1,0 +1,67 @@
+using OpsLvp.Core.Engine.Replay;
+using OpsLvp.Core.Profile;
+
+namespace OpsLvp.Cli.Commands;
+
+/// <summary>
+/// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]` (DESIGN §4.1): runs the
+/// engine over the files and writes one JSON line per event. Formats: docs/replay.md.
+/// </summary>
+public sealed class ReplayCommand : ICliCommand
+{
+    public IReadOnlyList<string> Path { get; } = ["replay"];
+
+    public string Usage => "opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]";
+
+    public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
+    {
+        var options = new Dictionary<string, string>(StringComparer.Ordinal);
+        for (var i = 0; i < args.Count; i++)
+        {
+            var name = args[i];
+            if (name is not ("--profile" or "--readings" or "--actions" or "--until"))
+            {
+                throw new CliUsageException($"unknown option '{name}'; usage: {Usage}");
+            }
+            if (i + 1 >= args.Count)
+            {
+                throw new CliUsageException($"{name} needs a value");
+            }
+            if (!options.TryAdd(name, args[++i]))
+            {
+                throw new CliUsageException($"{name} given twice");
+            }
+        }
+        if (!options.TryGetValue("--profile", out var profilePath) || !options.TryGetValue("--readings", out var readingsPath))
+        {
+            throw new CliUsageException($"--profile and --readings are required; usage: {Usage}");
+        }
+        AerodromeProfile profile;
+        try
+        {
+            profile = ProfileLoader.Load(profilePath);
+        }
+        catch (ProfileException ex)
+        {
+            stderr.WriteLine($"error: {profilePath}: {ex.Message.ReplaceLineEndings(" ")}");
+            return 1;
+        }
+        var readings = ReadingsCsv.Parse(File.ReadAllText(readingsPath), readingsPath);
+        var actions = options.TryGetValue("--actions", out var actionsPath)
+            ? ActionsCsv.Parse(File.ReadAllText(actionsPath), actionsPath)
+            : [];
+        DateTimeOffset? until = null;
+        if (options.TryGetValue("--until", out var untilText))
+        {
+            until = DateTimeOffset.TryParse(untilText, System.Globalization.CultureInfo.InvariantCulture, System.Globalization.DateTimeStyles.AdjustToUniversal, out var u) && untilText.EndsWith('Z')
+                ? u
+                : throw new CliUsageException($"--until must be an ISO 8601 UTC time ending in Z, not '{untilText}'");
+        }
+        var result = ReplayRunner.Run(profile, readings, actions, until);
+        foreach (var e in result.Events)
+        {
+            stdout.WriteLine(EventJson.ToLine(e));
+        }
+        return 0;
+    }
+}

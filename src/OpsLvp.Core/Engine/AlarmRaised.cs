@@ -1,0 +1,4 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>An alarm was raised.</summary>
+public sealed record AlarmRaised(DateTimeOffset At, Alarm Alarm) : EngineEvent(At);

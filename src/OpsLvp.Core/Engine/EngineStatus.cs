@@ -1,0 +1,34 @@
+using OpsLvp.Core.Profile;
+
+namespace OpsLvp.Core.Engine;
+
+/// <summary>What a display shows at an instant (from <see cref="LvpEngine.Describe"/>); holds no decision logic of its own.</summary>
+/// <param name="GoverningRvr">Lowest fresh governing RVR, null when unknown.</param>
+/// <param name="Ceiling">Lowest fresh ceiling, null when unknown or when no ceilometer is configured.</param>
+/// <param name="CeilingConfigured">False for an aerodrome without ceilometers (ceiling left out, DESIGN R5).</param>
+/// <param name="Runways">Per LVP runway, the RVR at TDZ/MID/END for the direction in use.</param>
+/// <param name="Thresholds">The thresholds in effect.</param>
+/// <param name="Waiting">What the engine is waiting for, as data and text.</param>
+/// <param name="At">The instant (UTC).</param>
+/// <param name="Phase">The current phase.</param>
+/// <param name="PhaseSince">When it was entered.</param>
+/// <param name="Episode">The running episode, null in normal.</param>
+/// <param name="DeteriorationForecast">The forecast flag (DESIGN R4).</param>
+/// <param name="Hold">The declared hold, if any (DESIGN R9).</param>
+/// <param name="Pending">The pending transition, if any (DESIGN R10).</param>
+/// <param name="Alarms">Raised alarms, acknowledged ones included.</param>
+public sealed record EngineStatus(
+    DateTimeOffset At,
+    Phase Phase,
+    DateTimeOffset PhaseSince,
+    Episode? Episode,
+    MeasuredValue? GoverningRvr,
+    MeasuredValue? Ceiling,
+    bool CeilingConfigured,
+    IReadOnlyList<RunwayRvrStatus> Runways,
+    ThresholdSet Thresholds,
+    bool DeteriorationForecast,
+    Hold? Hold,
+    PendingTransition? Pending,
+    IReadOnlyList<Alarm> Alarms,
+    IReadOnlyList<WaitingFor> Waiting);

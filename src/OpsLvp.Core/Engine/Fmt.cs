@@ -1,0 +1,24 @@
+using System.Globalization;
+
+namespace OpsLvp.Core.Engine;
+
+/// <summary>Invariant formatting for reasons and status texts.</summary>
+internal static class Fmt
+{
+    public static string N(double value) => value.ToString("0.#", CultureInfo.InvariantCulture);
+
+    public static string Time(DateTimeOffset t) =>
+        t.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss.FFFFFFF'Z'", CultureInfo.InvariantCulture);
+
+    /// <summary>"90 s" below two minutes, else whole minutes ("10 min").</summary>
+    public static string Span(TimeSpan span) =>
+        span.TotalSeconds < 120 ? $"{N(Math.Floor(span.TotalSeconds))} s" : $"{N(Math.Floor(span.TotalMinutes))} min";
+
+    /// <summary>"6 of 10 min" or "20 of 30 s", in the unit of <paramref name="required"/>.</summary>
+    public static string Of(TimeSpan held, TimeSpan required) =>
+        required.TotalSeconds < 120
+            ? $"{N(Math.Floor(held.TotalSeconds))} of {N(required.TotalSeconds)} s"
+            : $"{N(Math.Floor(held.TotalMinutes))} of {N(Math.Round(required.TotalMinutes, 1))} min";
+
+    public static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+}

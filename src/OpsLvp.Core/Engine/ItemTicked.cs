@@ -1,0 +1,4 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>A checklist item was ticked done (DESIGN R11).</summary>
+public sealed record ItemTicked(DateTimeOffset At, string ItemId, ItemTick Tick) : EngineEvent(At);

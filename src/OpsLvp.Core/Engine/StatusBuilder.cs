@@ -1,0 +1,120 @@
+using OpsLvp.Core.Profile;
+using OpsLvp.Core.Readings;
+
+namespace OpsLvp.Core.Engine;
+
+/// <summary>Builds <see cref="EngineStatus"/> from a state; reads the state, never changes it.</summary>
+internal static class StatusBuilder
+{
+    public static EngineStatus Build(EngineModel model, EngineState state, DateTimeOffset now)
+    {
+        var sit = LvpEngine.Situate(model, state, now);
+        MeasuredValue? Measured(string sensorId, ReadingKind kind, string label) =>
+            state.Latest.TryGetValue(EngineState.SensorKey(sensorId, kind), out var r)
+                ? new MeasuredValue(r.Value, sensorId, label, r.Time, (now - r.Time).TotalSeconds, !model.IsFresh(r, now))
+                : null;
+        var rvr = sit.RvrSensor is { } g ? Measured(g.SensorId, ReadingKind.Rvr, g.Label) : null;
+        MeasuredValue? ceiling = null;
+        if (sit.CeilingSensor is { } c)
+        {
+            ceiling = LvpEngine.CeilingKinds(model)
+                .Select(k => Measured(c, k, c))
+                .Where(m => m is { Stale: false })
+                .MinBy(m => m!.Value);
+        }
+        var runways = new List<RunwayRvrStatus>();
+        foreach (var (runway, direction) in model.LvpRunways)
+        {
+            var positions = new List<PositionRvr>();
+            foreach (var position in Enum.GetValues<RvrPosition>())
+            {
+                var sensor = model.Sensors.Values.FirstOrDefault(s =>
+                    ReadingScreen.GivesRvr(s.Type) && s.Runway == runway.Id
+                    && s.Sites is not null && s.Sites.TryGetValue(direction, out var p) && p == position);
+                var label = $"{direction} {position.ToString().ToUpperInvariant()}";
+                positions.Add(new PositionRvr(
+                    position,
+                    sensor?.Id,
+                    sensor is null ? null : Measured(sensor.Id, ReadingKind.Rvr, label),
+                    sensor is not null && state.OutOfService.Contains(sensor.Id),
+                    model.Profile.GoverningPositions.Contains(position)));
+            }
+            runways.Add(new RunwayRvrStatus(runway.Id, direction, positions));
+        }
+        return new EngineStatus(
+            now, state.Phase, state.PhaseSince, state.Episode, rvr, ceiling, model.CeilingConfigured, runways,
+            model.Profile.Thresholds, state.DeteriorationForecast, state.Hold, state.Pending, state.Alarms,
+            Waiting(model, state, sit, now));
+    }
+
+    private static List<WaitingFor> Waiting(EngineModel model, EngineState state, Situation sit, DateTimeOffset now)
+    {
+        var waiting = new List<WaitingFor>();
+        void Dwell(ConditionKind kind, WaitKind wait, string name)
+        {
+            if (!state.HoldingSince.TryGetValue(kind, out var since))
+            {
+                return;
+            }
+            var start = kind is ConditionKind.Active or ConditionKind.Preparation && state.EscalationMeasuredFrom is { } f && f > since ? f : since;
+            var held = now > start ? now - start : TimeSpan.Zero;
+            var required = model.Dwell(kind);
+            if (held < required)
+            {
+                waiting.Add(new WaitingFor(wait, $"{name} held {Fmt.Of(held, required)}", held.TotalSeconds, required.TotalSeconds, []));
+            }
+        }
+        void Blocked()
+        {
+            var missing = sit.RvrMissing.Concat(sit.CeilingMissing).ToList();
+            if (missing.Count > 0)
+            {
+                waiting.Add(new WaitingFor(WaitKind.RecoveryBlocked, $"recovery blocked: no fresh reading from {string.Join(", ", missing)}", null, null, missing));
+            }
+            else if (model.RvrConfigured && sit.RvrM is null)
+            {
+                waiting.Add(new WaitingFor(WaitKind.RecoveryBlocked, "recovery blocked: governing RVR unknown (all governing sensors out of service)", null, null, []));
+            }
+        }
+        if (state.Pending is { } pending)
+        {
+            waiting.Add(new WaitingFor(
+                WaitKind.Confirmation,
+                $"waiting for confirmation: {Fmt.Name(pending.From)} -> {Fmt.Name(pending.To)} proposed {Fmt.Time(pending.ConditionMetAt)} ({pending.Reason})",
+                null, null, []));
+        }
+        if (state.Hold is { } hold)
+        {
+            waiting.Add(new WaitingFor(WaitKind.Hold, $"hold: {Fmt.Name(hold.Phase)} declared by {hold.Actor}; no automatic relaxation below it until released", null, null, []));
+        }
+        switch (state.Phase)
+        {
+            case Phase.Normal:
+                Dwell(ConditionKind.Active, WaitKind.EscalationDwell, "active condition");
+                Dwell(ConditionKind.Preparation, WaitKind.EscalationDwell, "preparation condition");
+                break;
+            case Phase.Preparation:
+                Dwell(ConditionKind.Active, WaitKind.EscalationDwell, "active condition");
+                Dwell(ConditionKind.RecoveryFromPreparation, WaitKind.RecoveryDwell, "recovery from preparation");
+                Blocked();
+                break;
+            case Phase.Active:
+                Dwell(ConditionKind.RecoveryFromActive, WaitKind.RecoveryDwell, "recovery from active");
+                Blocked();
+                break;
+            case Phase.Cancellation:
+                var open = state.Items.Where(i => i.Phase == Phase.Cancellation && i.Mandatory && i.Status == ItemStatus.Open).Select(i => i.ItemId).ToList();
+                if (open.Count > 0)
+                {
+                    waiting.Add(new WaitingFor(WaitKind.CancellationItems, $"cancellation: {open.Count} mandatory item{(open.Count == 1 ? "" : "s")} open", null, null, open));
+                }
+                Dwell(ConditionKind.Active, WaitKind.EscalationDwell, "active condition (re-instatement)");
+                Dwell(ConditionKind.RecoveryFromPreparation, WaitKind.RecoveryDwell, "recovery from preparation");
+                Blocked();
+                break;
+            default:
+                break;
+        }
+        return waiting;
+    }
+}

@@ -1,0 +1,4 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>Undo a tick; needs a reason (DESIGN R11).</summary>
+public sealed record UntickItem(string Actor, string ItemId, string Reason) : EngineCommand(Actor);
