@@ -68,7 +68,7 @@ public class EnginePropertyTests
         return list;
     }
 
-    private static EngineDriver RunOnce(Step[] steps, Profile.AerodromeProfile? profile = null, int tickEvery = 0)
+    private static EngineDriver RunOnce(Step[] steps, OpsLvp.Core.Profile.AerodromeProfile? profile = null, int tickEvery = 0)
     {
         var d = new EngineDriver(profile);
         var last = 0;
@@ -111,7 +111,7 @@ public class EnginePropertyTests
     [Fact]
     public void EvaluatingInOneStep_OrInManySmallSteps_GivesTheSameEventsAtTheSameInstants()
     {
-        var confirming = TestProfiles.Confirming(new Profile.TransitionRule(Phase.Preparation, Phase.Active));
+        var confirming = TestProfiles.Confirming(new OpsLvp.Core.Profile.TransitionRule(Phase.Preparation, Phase.Active));
         Gen.Select(Scenario(12), Gen.Int[1, 13], Gen.Bool, (steps, tick, confirm) => (steps, tick, confirm))
             .Sample(x =>
             {

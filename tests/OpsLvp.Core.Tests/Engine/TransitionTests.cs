@@ -144,7 +144,7 @@ public class TransitionTests
     {
         var profile = TestProfiles.Standard() with
         {
-            Checklists = TestProfiles.Standard().Checklists with { Cancellation = [new Profile.ChecklistItemConfig("C2", "Log (invented)", "lighting", false, 30)] },
+            Checklists = TestProfiles.Standard().Checklists with { Cancellation = [new OpsLvp.Core.Profile.ChecklistItemConfig("C2", "Log (invented)", "lighting", false, 30)] },
         };
         var d = new EngineDriver(profile);
         d.Weather(0, 500);
