@@ -1,0 +1,27 @@
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Feeds;
+
+namespace OpsLvp.Web.Live;
+
+/// <summary>
+/// Everything a screen shows, as one immutable value pushed on every change: to Blazor circuits through
+/// <see cref="ILiveState"/> and to external clients as the hub's <c>state</c> message and <c>GET /api/state</c>.
+/// Built by the engine host from the engine state; components only render it.
+/// </summary>
+/// <param name="Version">Increases with every published change (never reused after a restart).</param>
+/// <param name="At">The instant it describes (app clock, demo time in demo mode).</param>
+/// <param name="Aerodrome">Who and which profile.</param>
+/// <param name="Status">The engine's view: phase, conditions, runways, thresholds, waiting-for, alarms.</param>
+/// <param name="Items">Checklist items of the running episode with their texts and team names.</param>
+/// <param name="OutOfService">Sensors an operator marked out of service.</param>
+/// <param name="Feeds">Per-feed health.</param>
+/// <param name="Demo">Set in demo mode (the "DEMO ×N" badge).</param>
+public sealed record LiveSnapshot(
+    long Version,
+    DateTimeOffset At,
+    AerodromeView Aerodrome,
+    EngineStatus Status,
+    IReadOnlyList<ChecklistItemView> Items,
+    IReadOnlyList<string> OutOfService,
+    IReadOnlyList<FeedHealthDto> Feeds,
+    DemoView? Demo);
