@@ -15,6 +15,7 @@ namespace OpsLvp.Web.Live;
 /// <param name="Items">Checklist items of the running episode with their texts and team names.</param>
 /// <param name="OutOfService">Sensors an operator marked out of service.</param>
 /// <param name="Feeds">Per-feed health.</param>
+/// <param name="Trends">Per RVR sensor: 1-minute mean and the 10-minute U/D/N tendency (ICAO Annex 3, App 3, §4.3.6.6).</param>
 /// <param name="Demo">Set in demo mode (the "DEMO ×N" badge).</param>
 public sealed record LiveSnapshot(
     long Version,
@@ -24,4 +25,5 @@ public sealed record LiveSnapshot(
     IReadOnlyList<ChecklistItemView> Items,
     IReadOnlyList<string> OutOfService,
     IReadOnlyList<FeedHealthDto> Feeds,
+    IReadOnlyList<SensorTrend> Trends,
     DemoView? Demo);
