@@ -18,7 +18,7 @@ builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
-builder.Services.AddLiveEngine(builder.Configuration, builder.Environment);
+builder.Services.AddLiveEngine(builder.Configuration);
 
 var app = builder.Build();
 

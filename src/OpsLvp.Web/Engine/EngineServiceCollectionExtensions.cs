@@ -15,11 +15,10 @@ public static class EngineServiceCollectionExtensions
     /// <see cref="LiveEngineHost"/>, <see cref="LiveState"/>, the hub and its broadcaster, the command service and the
     /// demo action runner. Needs <c>AddAppPaths</c>, <c>AddAppClock</c> and <c>AddFeeds</c>.
     /// </summary>
-    public static IServiceCollection AddLiveEngine(this IServiceCollection services, IConfiguration configuration, IWebHostEnvironment environment)
+    public static IServiceCollection AddLiveEngine(this IServiceCollection services, IConfiguration configuration)
     {
-        var dataFolder = Path.GetFullPath(Path.Combine(environment.ContentRootPath, configuration[$"{StorageOptions.SectionName}:DataFolder"] is { Length: > 0 } f ? f : new StorageOptions().DataFolder));
-        Directory.CreateDirectory(dataFolder);
-        services.AddOpsLvpData(configuration, $"Data Source={Path.Combine(dataFolder, DatabaseFileName)}");
+        // resolved when first needed: configuration is complete only once the app is built
+        services.AddOpsLvpData(configuration, sp => $"Data Source={Path.Combine(sp.GetRequiredService<AppPaths>().DataFolder, DatabaseFileName)}");
         services.AddOptions<EngineOptions>()
             .Bind(configuration.GetSection(EngineOptions.SectionName))
             .Validate(o => !string.IsNullOrWhiteSpace(o.ProfilePath), "Engine:ProfilePath must be set.")
