@@ -79,9 +79,11 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
               const h = window.innerHeight;
               const texts = [...document.querySelectorAll('.wall *')]
                 .filter(e => e.offsetParent !== null && [...e.childNodes].some(n => n.nodeType === 3 && n.textContent.trim().length > 0));
-              const clipped = texts
-                .filter(e => e.scrollWidth > e.clientWidth + 1 && e.clientWidth > 0 && getComputedStyle(e).display !== 'inline')
-                .map(e => e.textContent.trim().slice(0, 40));
+              // Content spilling out of its box, visible or cut off, is text nobody can read at 5 m.
+              const clipped = [...document.querySelectorAll('.wall, .wall *')]
+                .filter(e => e.offsetParent !== null && getComputedStyle(e).display !== 'inline' && e.clientWidth > 0)
+                .filter(e => e.scrollWidth > e.clientWidth + 2 || e.scrollHeight > e.clientHeight + 2)
+                .map(e => `${e.className}: ${e.textContent.trim().slice(0, 50)}`);
               return {
                 innerHeight: h,
                 scrollHeight: Math.max(document.documentElement.scrollHeight, document.body.scrollHeight),

@@ -47,7 +47,7 @@ public sealed class WallPageTests : WallTestBase
 
         var tiles = cut.FindAll("[data-testid=wall-pos]");
         Assert.Equal(["TDZ", "MID", "END"], tiles.Select(t => t.GetAttribute("data-position")));
-        Assert.Equal("STALE · 5 min old", State(tiles[0]));
+        Assert.Equal("STALE · 5 min", State(tiles[0]));
         Assert.Contains("wall-pos-stale", tiles[0].ClassList);
         Assert.Equal("OUT OF SERVICE", State(tiles[2]));
         Assert.Contains("wall-pos-oos", tiles[2].ClassList);
@@ -207,7 +207,7 @@ public sealed class WallPageTests : WallTestBase
     {
         var cut = RenderWall(Snapshot(demo: new DemoView(30)));
 
-        Assert.Equal("THRESHOLDS ILLUSTRATIVE", cut.Find("[data-testid=wall-illustrative]").TextContent);
+        Assert.Equal("ILLUSTRATIVE VALUES", cut.Find("[data-testid=wall-illustrative]").TextContent);
         Assert.Equal("DEMO ×30", cut.Find("[data-testid=demo-badge]").TextContent);
     }
 

@@ -12,13 +12,19 @@ namespace OpsLvp.Web.Components.Pages.Wall;
 /// </summary>
 public sealed class WallViewModel
 {
-    /// <summary>Line budget of the checklist column at 1920×1080 (a team header is one line, a long item two).</summary>
-    public const int ItemLineBudget = 17;
+    /// <summary>Line budget of the checklist column at 1920×1080 (a team header, a "+ N more" line and a short item are one line each, a long item two).</summary>
+    public const int ItemLineBudget = 19;
 
-    /// <summary>Items longer than this take two lines in the checklist column (measured at 1920 px).</summary>
-    public const int ItemCharsPerLine = 44;
+    /// <summary>Characters of item text per line in the checklist column (measured at 1920 px).</summary>
+    public const int ItemCharsPerLine = 36;
 
-    public const int MaxAlarms = 4;
+    public const int MaxAlarms = 3;
+
+    /// <summary>Height of the status column at 1920×1080 in tenths of a text line (alarms, notices, waiting).</summary>
+    public const int StatusTenthsBudget = 215;
+
+    /// <summary>Characters per line in the status column (measured at 1920 px).</summary>
+    public const int StatusCharsPerLine = 38;
 
     public const int MaxFeeds = 6;
 
@@ -93,6 +99,8 @@ public sealed class WallViewModel
         var runways = BuildRunways(snapshot, drift);
         var (localTime, localLabel) = Local(snapshot.Aerodrome.TimeZone, now);
         var (teams, summary) = BuildTeams(snapshot.Items, now);
+        var notices = BuildNotices(status);
+        var waiting = status.Waiting.Where(w => w.Kind is not (WaitKind.Confirmation or WaitKind.Hold)).Select(Wait).ToList();
         var alarms = status.Alarms
             .OrderBy(a => a.Acknowledged)
             .ThenByDescending(a => a.RaisedAt)
@@ -103,6 +111,7 @@ public sealed class WallViewModel
                 a.Acknowledged,
                 a.Acknowledged ? "wall-alarm-acked" : "wall-alarm-raised"))
             .ToList();
+        var shownAlarms = AlarmsThatFit(alarms, notices, waiting);
         var silent = runways
             .SelectMany(r => r.Positions.Where(p => p.CssClass is "wall-pos-stale" or "wall-pos-missing").Select(p => $"{r.Title} {p.Position}"))
             .ToList();
@@ -124,17 +133,43 @@ public sealed class WallViewModel
             GoverningRvr = Figure("Governing RVR", status.GoverningRvr, "m", drift, "no fresh governing RVR"),
             Ceiling = status.CeilingConfigured ? Figure("Ceiling", status.Ceiling, "ft", drift, "no fresh ceiling") : null,
             Thresholds = [Row("Preparation", status.Thresholds.Preparation), Row("LVP in force", status.Thresholds.Active)],
-            Notices = BuildNotices(status),
-            Waiting = status.Waiting.Where(w => w.Kind is not (WaitKind.Confirmation or WaitKind.Hold)).Select(Wait).ToList(),
+            Notices = notices,
+            Waiting = waiting,
             Teams = teams,
             ItemsSummary = summary,
-            Alarms = alarms.Take(MaxAlarms).ToList(),
-            HiddenAlarms = Math.Max(0, alarms.Count - MaxAlarms),
+            Alarms = alarms.Take(shownAlarms).ToList(),
+            HiddenAlarms = alarms.Count - shownAlarms,
             SensorSummary = silent.Count == 0 ? $"All {watched} RVR positions reporting" : "No fresh reading: " + string.Join(", ", silent),
             SensorsAllAlive = silent.Count == 0,
             OutOfServiceText = snapshot.OutOfService.Count == 0 ? "" : "Out of service: " + string.Join(", ", snapshot.OutOfService),
             Feeds = snapshot.Feeds.Take(MaxFeeds).Select(Feed).ToList(),
         };
+    }
+
+    /// <summary>
+    /// How many alarms the status column holds beside the notices and waits (always at least one when any is raised);
+    /// the rest are counted as "+ N more". Costs are in tenths of a line, boxes include their padding.
+    /// </summary>
+    private static int AlarmsThatFit(List<WallAlarm> alarms, List<WallNotice> notices, List<WallWait> waiting)
+    {
+        static int Lines(int chars) => Math.Max(1, (chars + StatusCharsPerLine - 1) / StatusCharsPerLine) * 10;
+        const int title = 12;
+        var used = 2 * title
+            + notices.Sum(n => Lines(n.Label.Length + 1 + n.Text.Length) + 8)
+            + waiting.Sum(w => Lines(w.Text.Length) + (w.Percent is null ? 3 : 11));
+        var shown = 0;
+        foreach (var alarm in alarms.Take(MaxAlarms))
+        {
+            var cost = Lines(alarm.Message.Length + 1 + alarm.Since.Length + (alarm.Acknowledged ? 15 : 0)) + 6;
+            var moreLine = alarms.Count > shown + 1 ? 10 : 0;
+            if (shown > 0 && used + cost + moreLine > StatusTenthsBudget)
+            {
+                break;
+            }
+            used += cost;
+            shown++;
+        }
+        return shown;
     }
 
     /// <summary>"45 s", "12 min", "1 h 05 min", "2 d 3 h".</summary>
@@ -214,7 +249,7 @@ public sealed class WallViewModel
         }
         var age = Duration(TimeSpan.FromSeconds(r.AgeSeconds + drift));
         return r.Stale
-            ? new(name, N(r.Value), "", "", "", $"STALE · {age} old", "wall-pos-stale", false, p.Governing, null)
+            ? new(name, N(r.Value), "", "", "", $"STALE · {age}", "wall-pos-stale", false, p.Governing, null)
             : new(name, N(r.Value), mean, arrow, word, $"{age} old", "wall-pos-fresh", false, p.Governing, r.Value);
     }
 
@@ -227,12 +262,12 @@ public sealed class WallViewModel
 
     private static WallThresholdRow Row(string phase, PhaseThresholds t)
     {
-        static string Part(string name, double? value, string op, string unit) => value is { } v ? $"{name} {op} {N(v)} {unit}" : "";
+        static string Part(double? value, string unit) => value is { } v ? $"{N(v)} {unit}" : "";
         static string Join(params string[] parts) => string.Join(" · ", parts.Where(p => p.Length > 0)) is { Length: > 0 } s ? s : "–";
         return new(
             phase,
-            Join(Part("RVR", t.RvrBelowM, "<", "m"), Part("ceiling", t.CeilingBelowFt, "<", "ft")),
-            Join(Part("RVR", t.RvrRecoverM, "≥", "m"), Part("ceiling", t.CeilingRecoverFt, "≥", "ft")),
+            Join(Part(t.RvrBelowM, "m"), Part(t.CeilingBelowFt, "ft")),
+            Join(Part(t.RvrRecoverM, "m"), Part(t.CeilingRecoverFt, "ft")),
             $"{Duration(TimeSpan.FromSeconds(t.EnterDwellSeconds))} / {Duration(TimeSpan.FromSeconds(t.RecoverDwellSeconds))}");
     }
 
@@ -291,27 +326,39 @@ public sealed class WallViewModel
             .ThenBy(g => g.Min(i => i.DueAt))
             .ThenBy(g => g[0].TeamName, StringComparer.Ordinal)
             .ToList();
-        // Every team with open work keeps its header; items fill what is left of the budget in team order.
-        var budget = ItemLineBudget - groups.Count;
-        var teams = new List<WallTeam>();
-        foreach (var group in groups)
+        // Every team with open work keeps its header and, room allowing, its most urgent item; then the rest fill
+        // what is left in team order. A team's "+ N more" line costs a line as well.
+        static int Lines(ChecklistItemView i) => Math.Max(1, (i.Text.Length + ItemCharsPerLine - 1) / ItemCharsPerLine);
+        var shownCount = new int[groups.Count];
+        var used = groups.Count * 2;
+        for (var pass = 0; pass < 2; pass++)
         {
-            var shown = new List<WallItem>();
-            foreach (var item in group)
+            for (var g = 0; g < groups.Count; g++)
             {
-                var lines = item.Text.Length > ItemCharsPerLine ? 2 : 1;
-                if (lines > budget)
+                while (shownCount[g] < groups[g].Count && (pass == 1 || shownCount[g] == 0))
                 {
-                    break;
+                    var lastHidden = shownCount[g] == groups[g].Count - 1;
+                    var delta = Lines(groups[g][shownCount[g]]) - (lastHidden ? 1 : 0);
+                    if (used + delta > ItemLineBudget)
+                    {
+                        break;
+                    }
+                    used += delta;
+                    shownCount[g]++;
                 }
-                budget -= lines;
-                shown.Add(new WallItem(
-                    item.ItemId,
-                    item.Text,
-                    item.Overdue ? $"LATE {Duration(now - item.DueAt)}" : $"due {Hm(item.DueAt)}",
-                    item.Overdue,
-                    item.Mandatory));
             }
+        }
+
+        var teams = new List<WallTeam>();
+        for (var g = 0; g < groups.Count; g++)
+        {
+            var group = groups[g];
+            var shown = group.Take(shownCount[g]).Select(item => new WallItem(
+                item.ItemId,
+                item.Text,
+                item.Overdue ? $"LATE {Duration(now - item.DueAt)}" : $"due {Hm(item.DueAt)}",
+                item.Overdue,
+                item.Mandatory)).ToList();
             var lateHere = group.Count(i => i.Overdue);
             teams.Add(new WallTeam(
                 group[0].TeamName,
@@ -331,7 +378,8 @@ public sealed class WallViewModel
             "degraded" => ("!", "DEGRADED", "wall-feed-degraded"),
             _ => ("✕", "DOWN", "wall-feed-down"),
         };
-        var detail = f.Detail ?? (f.LastGoodAt is { } good ? "last good " + Hm(good) : "no data yet");
+        // A healthy feed needs no explanation on the wall; the others say why or since when.
+        var detail = f.Status == "ok" ? "" : f.Detail ?? (f.LastGoodAt is { } good ? "last good " + Hm(good) : "no data yet");
         return new(f.Name, glyph, word, detail, css);
     }
 }
