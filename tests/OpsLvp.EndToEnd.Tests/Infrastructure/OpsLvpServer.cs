@@ -17,7 +17,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     public const string ApiKey = "e2e-key-0123456789abcdef";
 
     /// <summary>The configuration key naming the aerodrome profile file (the engine host's setting).</summary>
-    public const string ProfileSetting = "Profile__Path";
+    public const string ProfileSetting = "Engine__ProfilePath";
 
     private static readonly TimeSpan s_startTimeout = TimeSpan.FromSeconds(60);
 
@@ -63,6 +63,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         start.Environment["ASPNETCORE_ENVIRONMENT"] = "Development";
         start.Environment["Storage__DataFolder"] = dataFolder;
         start.Environment[ProfileSetting] = profile;
+        start.Environment["Engine__TickInterval"] = "00:00:00.200";
         start.Environment["Demo__Simulator"] = "Off";
         start.Environment["Feeds__Push__ApiKeys__0__Name"] = "e2e";
         start.Environment["Feeds__Push__ApiKeys__0__Key"] = ApiKey;

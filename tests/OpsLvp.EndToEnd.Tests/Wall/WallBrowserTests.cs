@@ -79,11 +79,14 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
               const h = window.innerHeight;
               const texts = [...document.querySelectorAll('.wall *')]
                 .filter(e => e.offsetParent !== null && [...e.childNodes].some(n => n.nodeType === 3 && n.textContent.trim().length > 0));
-              // Content spilling out of its box, visible or cut off, is text nobody can read at 5 m.
-              const clipped = [...document.querySelectorAll('.wall, .wall *')]
-                .filter(e => e.offsetParent !== null && getComputedStyle(e).display !== 'inline' && e.clientWidth > 0)
-                .filter(e => e.scrollWidth > e.clientWidth + 2 || e.scrollHeight > e.clientHeight + 2)
-                .map(e => `${e.className}: ${e.textContent.trim().slice(0, 50)}`);
+              // Content spilling out of its box, visible or cut off, is text nobody can read at 5 m: sideways for any
+              // box, downwards for the wall's containers (a glyph's ink may exceed a line-height of 1; that is no spill).
+              const boxes = '.wall-main, .wall-col, .wall-runway, .wall-pos, .wall-fig, .wall-notice, .wall-alarm, .wall-wait, .wall-team, .wall-strip';
+              const shown = [...document.querySelectorAll('.wall, .wall *')]
+                .filter(e => e.offsetParent !== null && getComputedStyle(e).display !== 'inline' && e.clientWidth > 0);
+              const clipped = shown
+                .filter(e => e.scrollWidth > e.clientWidth + 2 || (e.matches(boxes) && e.scrollHeight > e.clientHeight + 2))
+                .map(e => `${e.className} (${e.scrollWidth}x${e.scrollHeight} in ${e.clientWidth}x${e.clientHeight}): ${e.textContent.trim().slice(0, 40)}`);
               return {
                 innerHeight: h,
                 scrollHeight: Math.max(document.documentElement.scrollHeight, document.body.scrollHeight),

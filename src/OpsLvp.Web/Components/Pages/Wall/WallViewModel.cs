@@ -24,7 +24,7 @@ public sealed class WallViewModel
     public const int StatusTenthsBudget = 215;
 
     /// <summary>Characters per line in the status column (measured at 1920 px).</summary>
-    public const int StatusCharsPerLine = 38;
+    public const int StatusCharsPerLine = 35;
 
     public const int MaxFeeds = 6;
 
