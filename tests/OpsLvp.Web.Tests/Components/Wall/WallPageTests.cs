@@ -11,7 +11,7 @@ namespace OpsLvp.Web.Tests.Components.Wall;
 public sealed class WallPageTests : WallTestBase
 {
     [Theory]
-    [InlineData(Phase.Normal, "NORMAL OPERATIONS", "○", "wall-phase-normal")]
+    [InlineData(Phase.Normal, "NORMAL", "○", "wall-phase-normal")]
     [InlineData(Phase.Preparation, "PREPARING LVP", "△", "wall-phase-preparation")]
     [InlineData(Phase.Active, "LVP IN FORCE", "■", "wall-phase-active")]
     [InlineData(Phase.Cancellation, "CANCELLING LVP", "▽", "wall-phase-cancellation")]
@@ -43,15 +43,17 @@ public sealed class WallPageTests : WallTestBase
             Fresh(RvrPosition.Mid, "rvr-07l-mid", "07L MID", 600),
             new PositionRvr(RvrPosition.End, "rvr-07l-end", Rvr(300, "rvr-07l-end", "07L END"), true, true));
 
-        var cut = RenderWall(Snapshot(Status(Phase.Active, [runway]), outOfService: ["rvr-07l-end"]));
+        var other = new RunwayRvrStatus("07R/25L", "07R", [Fresh(RvrPosition.Tdz, "rvr-07r-tdz", "07R TDZ", 900)]);
+
+        var cut = RenderWall(Snapshot(Status(Phase.Active, [runway, other]), outOfService: ["rvr-07l-end"]));
 
         var tiles = cut.FindAll("[data-testid=wall-pos]");
-        Assert.Equal(["TDZ", "MID", "END"], tiles.Select(t => t.GetAttribute("data-position")));
+        Assert.Equal(["TDZ", "MID", "END", "TDZ"], tiles.Select(t => t.GetAttribute("data-position")));
         Assert.Equal("STALE · 5 min", State(tiles[0]));
         Assert.Contains("wall-pos-stale", tiles[0].ClassList);
         Assert.Equal("OUT OF SERVICE", State(tiles[2]));
         Assert.Contains("wall-pos-oos", tiles[2].ClassList);
-        // The stale 450 m and the out-of-service 300 m do not count: MID 600 m is the lowest usable value.
+        // The stale 450 m and the out-of-service 300 m do not count: 07L MID 600 m is the lowest usable value.
         var lowest = Assert.Single(cut.FindAll("[data-testid=wall-lowest]"));
         Assert.Same(tiles[1], lowest.Closest("[data-testid=wall-pos]"));
         Assert.Equal("No fresh reading: RWY 07L TDZ", cut.Find("[data-testid=wall-sensors]").TextContent.TrimStart('✕', ' '));

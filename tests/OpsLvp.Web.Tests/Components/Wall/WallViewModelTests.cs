@@ -107,4 +107,17 @@ public sealed class WallViewModelTests
         Assert.Equal(WallViewModel.MaxAlarms, roomy.Alarms.Count);
         Assert.Equal(6 - WallViewModel.MaxAlarms, roomy.HiddenAlarms);
     }
+
+    [Fact]
+    public void WhenEveryPositionReadsTheSame_NoneIsMarkedLowest()
+    {
+        var runway = Runway07L(
+            Fresh(Core.Profile.RvrPosition.Tdz, "rvr-07l-tdz", "07L TDZ", 2000),
+            Fresh(Core.Profile.RvrPosition.Mid, "rvr-07l-mid", "07L MID", 2000),
+            Fresh(Core.Profile.RvrPosition.End, "rvr-07l-end", "07L END", 2000));
+
+        var vm = WallViewModel.Build(Snapshot(Status(runways: [runway])), At);
+
+        Assert.DoesNotContain(vm.Runways[0].Positions, p => p.Lowest);
+    }
 }

@@ -208,7 +208,9 @@ public sealed class WallViewModel
         var runways = snapshot.Status.Runways
             .Select(r => (Runway: r, Positions: r.Positions.Select(p => Position(p, trends, drift)).ToList()))
             .ToList();
-        var lowest = runways.SelectMany(r => r.Positions).Select(p => p.Value).Where(v => v is not null).Min();
+        var usable = runways.SelectMany(r => r.Positions).Select(p => p.Value).Where(v => v is not null).ToList();
+        // When every usable position reads the same there is no lowest worth pointing at.
+        var lowest = usable.Distinct().Count() > 1 ? usable.Min() : null;
         return runways
             .Select(r => new WallRunway(
                 $"RWY {r.Runway.Direction}",
