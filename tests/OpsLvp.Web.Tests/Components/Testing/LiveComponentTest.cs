@@ -7,8 +7,8 @@ using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Tests.Components.Testing;
 
-/// <summary>Shared bUnit setup: MudBlazor services, loose JS interop, the test live state and command service, and sign-in helpers.</summary>
-public abstract class LiveComponentTest : BunitContext
+/// <summary>Shared bUnit setup (disposed asynchronously): MudBlazor services, loose JS interop, the test live state and command service, and sign-in helpers.</summary>
+public abstract class LiveComponentTest : BunitContext, IAsyncLifetime
 {
     protected LiveComponentTest()
     {
@@ -32,4 +32,9 @@ public abstract class LiveComponentTest : BunitContext
     }
 
     protected void SignedOut() => AddAuthorization();
+
+    public Task InitializeAsync() => Task.CompletedTask;
+
+    // MudBlazor's popover and pointer services are async-disposable only: the container must be disposed asynchronously.
+    Task IAsyncLifetime.DisposeAsync() => DisposeAsync().AsTask();
 }

@@ -11,7 +11,7 @@ public static class TestSnapshots
 
     public static readonly Episode Episode = new("XDMO-20261201T030000Z", T0, Phase.Preparation);
 
-    private static readonly ThresholdSet Thresholds = new(
+    public static readonly ThresholdSet Thresholds = new(
         new PhaseThresholds { RvrBelowM = 1000, RvrRecoverM = 1100, EnterDwellSeconds = 30, RecoverDwellSeconds = 900 },
         new PhaseThresholds { RvrBelowM = 550, RvrRecoverM = 650, EnterDwellSeconds = 30, RecoverDwellSeconds = 600 });
 
