@@ -95,6 +95,7 @@ public partial class DutyConsole
     {
         { Episode: null } => "safeguards: not applicable (normal)",
         { SafeguardsComplete: true } => "safeguards complete",
+        { SafeguardsOutstanding.Count: 0 } => "safeguards incomplete",
         _ => $"safeguards incomplete: {string.Join(", ", status.SafeguardsOutstanding)} outstanding",
     };
 
