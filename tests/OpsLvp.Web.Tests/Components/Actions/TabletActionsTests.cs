@@ -110,6 +110,22 @@ public sealed class TabletActionsTests : LiveComponentTest
     }
 
     [Fact]
+    public async Task AnotherTabletTicksWhileThisOneAsks_TheQuestionCloses_AndSaysWhoDidIt()
+    {
+        SignIn(Kim, Roles.GroundStaff, "airside");
+        Live.Set(TestSnapshots.Make(1, items: [TestSnapshots.Item("P1", "airside")]));
+        var cut = Render<TabletActions>();
+        cut.Find("[data-testid=action-tick]").Click();
+        Assert.NotNull(cut.Find("[data-testid=action-confirm]"));
+
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, items: [TestSnapshots.Item("P1", "airside", ItemStatus.Done, tick: TickBy("lee (invented)", 3))])));
+
+        cut.WaitForAssertion(() => Assert.Empty(cut.FindAll("[data-testid=action-confirm]")));
+        Assert.Equal("Already done by lee (invented) at 03:03:00Z", cut.Find("[data-testid=action-message]").TextContent.Trim());
+        Assert.Empty(Commands.Calls);
+    }
+
+    [Fact]
     public void ConfirmBack_SendsNothing()
     {
         SignIn(Kim, Roles.GroundStaff, "airside");

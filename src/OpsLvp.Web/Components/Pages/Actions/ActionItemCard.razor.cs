@@ -63,6 +63,17 @@ public partial class ActionItemCard
 
     protected override void OnParametersSet()
     {
+        // Someone else ticked (or undid) while this tablet was asking: the question no longer applies.
+        if (_stage == TickStage.Confirming && Item.Status == ItemStatus.Done && Item.Tick is { } tick)
+        {
+            _stage = TickStage.Idle;
+            _message = $"Already done by {tick.User} at {DisplayTime.ClockSeconds(tick.At)}";
+            _messageSeverity = Severity.Info;
+        }
+        else if ((_stage == TickStage.UndoReason && Item.Status != ItemStatus.Done) || (_stage == TickStage.Confirming && Item.Status != ItemStatus.Open))
+        {
+            _stage = TickStage.Idle;
+        }
         // A sent command is settled by the server's state: the item reached the wanted status, or a newer snapshot came.
         if (_stage == TickStage.Sending && _waitBeyondVersion is { } v && (Item.Status == _wanted || SnapshotVersion > v))
         {
