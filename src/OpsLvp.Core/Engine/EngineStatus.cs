@@ -31,4 +31,14 @@ public sealed record EngineStatus(
     Hold? Hold,
     PendingTransition? Pending,
     IReadOnlyList<Alarm> Alarms,
-    IReadOnlyList<WaitingFor> Waiting);
+    IReadOnlyList<WaitingFor> Waiting)
+{
+    /// <summary>
+    /// All mandatory preparation items of the running episode are done (<see cref="Checklists.Safeguards.AreComplete"/>);
+    /// false in normal. LVP are in force only when the phase is active and this is true.
+    /// </summary>
+    public bool SafeguardsComplete { get; init; }
+
+    /// <summary>Mandatory preparation items not yet done (ids), empty when complete or in normal.</summary>
+    public IReadOnlyList<string> SafeguardsOutstanding { get; init; } = [];
+}

@@ -1,4 +1,5 @@
 using System.Collections.Immutable;
+using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 
@@ -539,8 +540,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 wanted.Add((AlarmKeys.Pending, AlarmKind.PendingTransition, $"confirm {Fmt.Name(p.From)} -> {Fmt.Name(p.To)}: {p.Reason}"));
             }
-            if (State.Episode is not null && sit.Active
-                && State.Items.Any(i => i.Phase == Phase.Preparation && i.Mandatory && i.Status == ItemStatus.Open))
+            if (State.Episode is not null && sit.Active && !Safeguards.AreComplete(State.Episode, State.Items))
             {
                 wanted.Add((AlarmKeys.SafeguardsIncomplete, AlarmKind.SafeguardsIncomplete, "active condition holds while mandatory preparation items are open"));
             }

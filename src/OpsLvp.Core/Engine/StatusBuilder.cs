@@ -1,3 +1,4 @@
+using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 
@@ -44,7 +45,11 @@ internal static class StatusBuilder
         return new EngineStatus(
             now, state.Phase, state.PhaseSince, state.Episode, rvr, ceiling, model.CeilingConfigured, runways,
             model.Profile.Thresholds, state.DeteriorationForecast, state.Hold, state.Pending, state.Alarms,
-            Waiting(model, state, sit, now));
+            Waiting(model, state, sit, now))
+        {
+            SafeguardsComplete = Safeguards.AreComplete(state.Episode, state.Items),
+            SafeguardsOutstanding = state.Episode is null ? [] : Safeguards.Outstanding(state.Items),
+        };
     }
 
     private static List<WaitingFor> Waiting(EngineModel model, EngineState state, Situation sit, DateTimeOffset now)

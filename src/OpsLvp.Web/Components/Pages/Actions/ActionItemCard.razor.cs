@@ -1,0 +1,138 @@
+using Microsoft.AspNetCore.Components;
+using MudBlazor;
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Components.Shared;
+using OpsLvp.Web.Live;
+
+namespace OpsLvp.Web.Components.Pages.Actions;
+
+/// <summary>
+/// One checklist item on a tablet. A tap asks for confirmation (optional note); the tick is sent through the
+/// command service and the card shows "sending…" until the outcome and then the next snapshot say what is true:
+/// it never shows an item done that the server has not committed. Undo needs a reason.
+/// </summary>
+public partial class ActionItemCard
+{
+    private TickStage _stage = TickStage.Idle;
+    private string? _note;
+    private string? _reason;
+    private string? _message;
+    private Severity _messageSeverity = Severity.Info;
+    private long? _waitBeyondVersion;
+    private ItemStatus _wanted;
+
+    [Inject]
+    private ILvpCommandService Commands { get; set; } = default!;
+
+    /// <summary>The item as the latest snapshot shows it.</summary>
+    [Parameter, EditorRequired]
+    public ChecklistItemView Item { get; set; } = default!;
+
+    /// <summary>Who is using the tablet.</summary>
+    [Parameter, EditorRequired]
+    public CommandCaller Caller { get; set; } = CommandCaller.Anonymous;
+
+    /// <summary>The snapshot's version: a sent command resolves once a newer snapshot arrives.</summary>
+    [Parameter]
+    public long SnapshotVersion { get; set; }
+
+    /// <summary>The snapshot's instant, for "due in" and "overdue by".</summary>
+    [Parameter]
+    public DateTimeOffset Now { get; set; }
+
+    internal TickStage Stage => _stage;
+
+    private string PhaseLabel => Item.Phase.ToString().ToLowerInvariant();
+
+    private string StatusAttribute => _stage == TickStage.Sending ? "sending" : Item.Status.ToString().ToLowerInvariant();
+
+    private string CardClass => Item switch
+    {
+        { Status: ItemStatus.Done } => "done",
+        { Overdue: true } => "overdue",
+        _ => "open",
+    };
+
+    private string DueText => Item switch
+    {
+        { Status: ItemStatus.Done } => $"was due {DisplayTime.Clock(Item.DueAt)}",
+        { Overdue: true } => $"OVERDUE by {DisplayTime.Span(Now - Item.DueAt)} — was due {DisplayTime.Clock(Item.DueAt)}",
+        _ => $"due {DisplayTime.Clock(Item.DueAt)} (in {DisplayTime.Span(Item.DueAt - Now)})",
+    };
+
+    protected override void OnParametersSet()
+    {
+        // Someone else ticked (or undid) while this tablet was asking: the question no longer applies.
+        if (_stage == TickStage.Confirming && Item.Status == ItemStatus.Done && Item.Tick is { } tick)
+        {
+            _stage = TickStage.Idle;
+            _message = $"Already done by {tick.User} at {DisplayTime.ClockSeconds(tick.At)}";
+            _messageSeverity = Severity.Info;
+        }
+        else if ((_stage == TickStage.UndoReason && Item.Status != ItemStatus.Done) || (_stage == TickStage.Confirming && Item.Status != ItemStatus.Open))
+        {
+            _stage = TickStage.Idle;
+        }
+        // A sent command is settled by the server's state: the item reached the wanted status, or a newer snapshot came.
+        if (_stage == TickStage.Sending && _waitBeyondVersion is { } v && (Item.Status == _wanted || SnapshotVersion > v))
+        {
+            _stage = TickStage.Idle;
+            _waitBeyondVersion = null;
+        }
+    }
+
+    private void AskConfirm()
+    {
+        _message = null;
+        _note = null;
+        _stage = TickStage.Confirming;
+    }
+
+    private void AskUndo()
+    {
+        _message = null;
+        _reason = null;
+        _stage = TickStage.UndoReason;
+    }
+
+    private void Back() => _stage = TickStage.Idle;
+
+    private Task TickAsync() =>
+        SendAsync(new TickItem(Caller.Name, Item.Team, Item.ItemId, string.IsNullOrWhiteSpace(_note) ? null : _note.Trim()), ItemStatus.Done);
+
+    private Task UndoAsync() =>
+        string.IsNullOrWhiteSpace(_reason) ? Task.CompletedTask : SendAsync(new UntickItem(Caller.Name, Item.ItemId, _reason.Trim()), ItemStatus.Open);
+
+    private async Task SendAsync(EngineCommand command, ItemStatus wanted)
+    {
+        _stage = TickStage.Sending;
+        _wanted = wanted;
+        _waitBeyondVersion = null;
+        _message = null;
+        CommandOutcome outcome;
+        try
+        {
+            outcome = await Commands.ExecuteAsync(Caller, command);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            outcome = new CommandOutcome(CommandOutcomeKind.Failed, $"Not sent: {ex.Message}");
+        }
+        if (outcome.Applied)
+        {
+            if (Item.Status == wanted)
+            {
+                _stage = TickStage.Idle;
+            }
+            else
+            {
+                _waitBeyondVersion = SnapshotVersion;
+            }
+            return;
+        }
+        _stage = TickStage.Idle;
+        _message = outcome.Message;
+        _messageSeverity = outcome.Kind == CommandOutcomeKind.Failed ? Severity.Error : Severity.Warning;
+    }
+}

@@ -1,0 +1,92 @@
+using Microsoft.AspNetCore.Components;
+using Microsoft.AspNetCore.Components.Authorization;
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Live;
+
+namespace OpsLvp.Web.Components.Pages.Actions;
+
+/// <summary>
+/// The tablet page: the signed-in person's teams' items for the running episode, overdue first. Live data from
+/// <see cref="ILiveState"/>; ticks go through the command service from <see cref="ActionItemCard"/>.
+/// </summary>
+public partial class TabletActions
+{
+    private CommandCaller _caller = CommandCaller.Anonymous;
+    private LiveSnapshot? _snapshot;
+    private IReadOnlyList<ChecklistItemView> _items = [];
+    private IDisposable? _subscription;
+
+    [Inject]
+    private ILiveState Live { get; set; } = default!;
+
+    [CascadingParameter]
+    private Task<AuthenticationState>? AuthenticationState { get; set; }
+
+    private string TeamNames
+    {
+        get
+        {
+            var names = _caller.Teams
+                .Select(t => _snapshot?.Items.FirstOrDefault(i => i.Team == t)?.TeamName ?? t)
+                .Order(StringComparer.Ordinal);
+            return string.Join(", ", names);
+        }
+    }
+
+    protected override async Task OnInitializedAsync()
+    {
+        if (AuthenticationState is not null)
+        {
+            _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
+        }
+        Show(Live.Current);
+    }
+
+    protected override void OnAfterRender(bool firstRender)
+    {
+        if (firstRender)
+        {
+            _subscription = Live.Subscribe(OnSnapshotAsync);
+            if (Live.Current is { } current && current.Version != _snapshot?.Version)
+            {
+                Show(current);
+                StateHasChanged();
+            }
+        }
+    }
+
+    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
+    {
+        try
+        {
+            Show(snapshot);
+            StateHasChanged();
+        }
+        catch (Exception ex)
+        {
+            await DispatchExceptionAsync(ex);
+        }
+    });
+
+    private void Show(LiveSnapshot? snapshot)
+    {
+        if (snapshot is null || (_snapshot is not null && snapshot.Version < _snapshot.Version))
+        {
+            return;
+        }
+        _snapshot = snapshot;
+        _items = ActionList.For(snapshot.Items, _caller.Teams);
+    }
+
+    private static string PhaseText(LiveSnapshot s) => s.Status.Phase switch
+    {
+        Phase.Active when s.Status.SafeguardsComplete => "LVP IN FORCE",
+        Phase.Active => "ACTIVE: safeguards incomplete",
+        Phase.Preparation => "PREPARATION",
+        Phase.Cancellation => "CANCELLATION",
+        _ => "NORMAL",
+    };
+
+    public void Dispose() => _subscription?.Dispose();
+}

@@ -1,0 +1,193 @@
+using System.Globalization;
+using Microsoft.AspNetCore.Components;
+using Microsoft.AspNetCore.Components.Authorization;
+using MudBlazor;
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Live;
+
+namespace OpsLvp.Web.Components.Pages.Console;
+
+/// <summary>
+/// The duty manager's console: condition summary, what the engine waits for, the pending transition, the
+/// declare/cancel/hold/forecast/sensor actions (each asking a reason in a dialog) and each team's progress.
+/// Buttons show only for duty managers; the command service decides and its outcome is shown as a snackbar.
+/// </summary>
+public partial class DutyConsole
+{
+    private CommandCaller _caller = CommandCaller.Anonymous;
+    private LiveSnapshot? _snapshot;
+    private IReadOnlyList<TeamProgress> _progress = [];
+    private IDisposable? _subscription;
+    private bool _isDutyManager;
+
+    [Inject]
+    private ILiveState Live { get; set; } = default!;
+
+    [Inject]
+    private ILvpCommandService Commands { get; set; } = default!;
+
+    [Inject]
+    private IDialogService Dialogs { get; set; } = default!;
+
+    [Inject]
+    private ISnackbar Snackbar { get; set; } = default!;
+
+    [CascadingParameter]
+    private Task<AuthenticationState>? AuthenticationState { get; set; }
+
+    protected override async Task OnInitializedAsync()
+    {
+        if (AuthenticationState is not null)
+        {
+            _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
+        }
+        _isDutyManager = _caller.IsInRole(Roles.DutyManager);
+        Show(Live.Current);
+    }
+
+    protected override void OnAfterRender(bool firstRender)
+    {
+        if (firstRender)
+        {
+            _subscription = Live.Subscribe(OnSnapshotAsync);
+            if (Live.Current is { } current && current.Version != _snapshot?.Version)
+            {
+                Show(current);
+                StateHasChanged();
+            }
+        }
+    }
+
+    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
+    {
+        try
+        {
+            Show(snapshot);
+            StateHasChanged();
+        }
+        catch (Exception ex)
+        {
+            await DispatchExceptionAsync(ex);
+        }
+    });
+
+    private void Show(LiveSnapshot? snapshot)
+    {
+        if (snapshot is null || (_snapshot is not null && snapshot.Version < _snapshot.Version))
+        {
+            return;
+        }
+        _snapshot = snapshot;
+        _progress = TeamProgress.For(snapshot.Items);
+    }
+
+    internal static string PhaseText(EngineStatus status) => status.Phase switch
+    {
+        Phase.Active when status.SafeguardsComplete => "LVP IN FORCE",
+        Phase.Active => "ACTIVE — SAFEGUARDS INCOMPLETE",
+        Phase.Preparation => "PREPARATION",
+        Phase.Cancellation => "CANCELLATION",
+        _ => "NORMAL",
+    };
+
+    internal static string SafeguardsText(EngineStatus status) => status switch
+    {
+        { Episode: null } => "safeguards: not applicable (normal)",
+        { SafeguardsComplete: true } => "safeguards complete",
+        { SafeguardsOutstanding.Count: 0 } => "safeguards incomplete",
+        _ => $"safeguards incomplete: {string.Join(", ", status.SafeguardsOutstanding)} outstanding",
+    };
+
+    private static string PositionText(PositionRvr p) => p switch
+    {
+        { SensorId: null } => "—",
+        { OutOfService: true } => "OOS",
+        { Reading: null } => "no data",
+        { Reading: { Stale: true } } => "stale",
+        { Reading: { } r } => string.Create(CultureInfo.InvariantCulture, $"{r.Value:0} m"),
+    };
+
+    /// <summary>Sensors the console can mark: those standing at an LVP runway position, the ceilometer in use, and any already out of service.</summary>
+    private static IEnumerable<string> Sensors(LiveSnapshot s) =>
+        s.Status.Runways.SelectMany(r => r.Positions).Select(p => p.SensorId)
+            .Append(s.Status.Ceiling?.SensorId)
+            .Concat(s.OutOfService)
+            .OfType<string>()
+            .Distinct(StringComparer.Ordinal)
+            .Order(StringComparer.Ordinal);
+
+    private Task ConfirmPendingAsync()
+    {
+        if (_snapshot?.Status.Pending is not { } p)
+        {
+            return Task.CompletedTask;
+        }
+        var what = $"{Name(p.From)} → {Name(p.To)}";
+        return AskAndRunAsync($"Confirm {what}", $"Confirm the pending transition {what} ({p.Reason}).", $"Confirm {Name(p.To)}", Color.Warning,
+            reason => new ConfirmPending(_caller.Name, reason));
+    }
+
+    private Task DeclareAsync(Phase phase) =>
+        AskAndRunAsync($"Declare {Name(phase)}", $"Declare {Name(phase)} now. This sets a hold: the phase will not relax automatically below {Name(phase)} until the hold is released.",
+            $"Declare {Name(phase)}", phase == Phase.Active ? Color.Error : Color.Warning,
+            reason => new DeclarePhase(_caller.Name, phase, reason));
+
+    private Task CancelAsync() =>
+        AskAndRunAsync("Cancel LVP", "Cancel: active goes to cancellation, preparation goes to normal, even against the conditions.", "Cancel LVP", Color.Info,
+            reason => new CancelLvp(_caller.Name, reason));
+
+    private Task ReleaseHoldAsync() =>
+        AskAndRunAsync("Release hold", "Release the declared hold: automatic relaxation may follow at once if its dwell has held.", "Release hold", Color.Primary,
+            reason => new ReleaseHold(_caller.Name, reason));
+
+    private Task ToggleForecastAsync()
+    {
+        var on = !(_snapshot?.Status.DeteriorationForecast ?? false);
+        return AskAndRunAsync(on ? "Set deterioration forecast" : "Clear deterioration forecast",
+            on ? "Set the deterioration forecast flag." : "Clear the deterioration forecast flag.",
+            on ? "Set forecast" : "Clear forecast", Color.Primary,
+            reason => new SetForecast(_caller.Name, on, reason));
+    }
+
+    private Task SetSensorAsync(string sensorId, bool currentlyOutOfService) =>
+        AskAndRunAsync(currentlyOutOfService ? $"Return {sensorId} to service" : $"Take {sensorId} out of service",
+            currentlyOutOfService ? $"Mark {sensorId} back in service: its readings count again." : $"Mark {sensorId} out of service: its readings no longer count.",
+            currentlyOutOfService ? "Back in service" : "Out of service", Color.Primary,
+            reason => new SetSensorService(_caller.Name, sensorId, currentlyOutOfService, reason));
+
+    private async Task AskAndRunAsync(string title, string prompt, string confirmText, Color color, Func<string, EngineCommand> command)
+    {
+        var parameters = new DialogParameters<ReasonDialog>
+        {
+            { d => d.Prompt, prompt },
+            { d => d.ConfirmText, confirmText },
+            { d => d.ConfirmColor, color },
+        };
+        var dialog = await Dialogs.ShowAsync<ReasonDialog>(title, parameters, new DialogOptions { MaxWidth = MaxWidth.Small, FullWidth = true, CloseOnEscapeKey = true });
+        var result = await dialog.Result;
+        if (result is null || result.Canceled || result.Data is not string reason || string.IsNullOrWhiteSpace(reason))
+        {
+            return;
+        }
+        CommandOutcome outcome;
+        try
+        {
+            outcome = await Commands.ExecuteAsync(_caller, command(reason));
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            outcome = new CommandOutcome(CommandOutcomeKind.Failed, $"Not sent: {ex.Message}");
+        }
+        Snackbar.Add(outcome.Message, outcome.Kind switch
+        {
+            CommandOutcomeKind.Applied => Severity.Success,
+            CommandOutcomeKind.Refused => Severity.Warning,
+            _ => Severity.Error,
+        });
+    }
+
+    private static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+
+    public void Dispose() => _subscription?.Dispose();
+}

@@ -1,0 +1,164 @@
+using Microsoft.AspNetCore.Components;
+using Microsoft.AspNetCore.Components.Authorization;
+using Microsoft.JSInterop;
+using MudBlazor;
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Live;
+
+namespace OpsLvp.Web.Components.Shared;
+
+/// <summary>
+/// Raised alarms from <see cref="LiveSnapshot.Status"/>: unacknowledged first, an acknowledge button for duty
+/// managers (the command service decides), and on screens that ask for it (<see cref="Audible"/>) a chime for
+/// every newly raised unacknowledged alarm, mutable per screen.
+/// </summary>
+public partial class AlarmStrip
+{
+    private readonly HashSet<string> _heard = new(StringComparer.Ordinal);
+    private readonly HashSet<string> _sending = new(StringComparer.Ordinal);
+    private ILiveState? _live;
+    private ILvpCommandService? _commands;
+    private IReadOnlyList<Alarm> _alarms = [];
+    private IDisposable? _subscription;
+    private IJSObjectReference? _module;
+    private CommandCaller _caller = CommandCaller.Anonymous;
+    private bool _muted;
+
+    [Inject]
+    private IServiceProvider Services { get; set; } = default!;
+
+    [Inject]
+    private IJSRuntime Js { get; set; } = default!;
+
+    [Inject]
+    private ISnackbar Snackbar { get; set; } = default!;
+
+    [CascadingParameter]
+    private Task<AuthenticationState>? AuthenticationState { get; set; }
+
+    /// <summary>Chime for new unacknowledged alarms (the wall). Off by default.</summary>
+    [Parameter]
+    public bool Audible { get; set; }
+
+    /// <summary>Names the screen whose mute choice is remembered (localStorage).</summary>
+    [Parameter]
+    public string ScreenKey { get; set; } = "default";
+
+    /// <summary>Extra CSS class, e.g. to make the strip larger on the wall.</summary>
+    [Parameter]
+    public string? Class { get; set; }
+
+    /// <summary>Unacknowledged alarms shown right now.</summary>
+    internal int UnacknowledgedCount => _alarms.Count(a => !a.Acknowledged);
+
+    /// <summary>How many chimes this strip has asked the browser for (for tests and diagnostics).</summary>
+    internal int ChimeCount { get; private set; }
+
+    private bool CanAcknowledge => _commands is not null && _caller.IsInRole(Roles.DutyManager);
+
+    private string StripClass => $"{(UnacknowledgedCount > 0 ? "has-unacked" : "")} {Class}".Trim();
+
+    protected override async Task OnInitializedAsync()
+    {
+        _live = Services.GetService<ILiveState>();
+        _commands = Services.GetService<ILvpCommandService>();
+        if (AuthenticationState is not null)
+        {
+            _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
+        }
+        _alarms = AlarmLabels.Ordered(_live?.Current?.Status.Alarms);
+    }
+
+    protected override async Task OnAfterRenderAsync(bool firstRender)
+    {
+        if (!firstRender)
+        {
+            return;
+        }
+        if (Audible)
+        {
+            _module = await Js.InvokeAsync<IJSObjectReference>("import", "/assets/alarm-sound.js");
+            _muted = await _module.InvokeAsync<bool>("isMuted", ScreenKey);
+        }
+        if (_live is not null)
+        {
+            _subscription = _live.Subscribe(OnSnapshotAsync);
+            if (_live.Current is { } current)
+            {
+                await ShowAsync(current);
+            }
+        }
+        StateHasChanged();
+    }
+
+    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
+    {
+        try
+        {
+            await ShowAsync(snapshot);
+            StateHasChanged();
+        }
+        catch (Exception ex)
+        {
+            await DispatchExceptionAsync(ex);
+        }
+    });
+
+    private async Task ShowAsync(LiveSnapshot snapshot)
+    {
+        _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
+        var fresh = _alarms.Where(a => !a.Acknowledged).Select(AlarmLabels.Identity).Where(_heard.Add).ToList();
+        if (fresh.Count > 0 && Audible && !_muted && _module is not null)
+        {
+            ChimeCount++;
+            await _module.InvokeAsync<bool>("chime");
+        }
+    }
+
+    private async Task ToggleMuteAsync()
+    {
+        _muted = !_muted;
+        if (_module is not null)
+        {
+            await _module.InvokeVoidAsync("setMuted", ScreenKey, _muted);
+        }
+    }
+
+    private async Task AcknowledgeAsync(Alarm alarm)
+    {
+        if (_commands is null || !_sending.Add(alarm.Key))
+        {
+            return;
+        }
+        try
+        {
+            var outcome = await _commands.ExecuteAsync(_caller, new AcknowledgeAlarm(_caller.Name, alarm.Key));
+            if (!outcome.Applied)
+            {
+                Snackbar.Add(outcome.Message, outcome.Kind == CommandOutcomeKind.Failed ? Severity.Error : Severity.Warning);
+            }
+        }
+        finally
+        {
+            _sending.Remove(alarm.Key);
+        }
+    }
+
+    public async ValueTask DisposeAsync()
+    {
+        _subscription?.Dispose();
+        if (_module is not null)
+        {
+            try
+            {
+                await _module.DisposeAsync();
+            }
+            catch (JSDisconnectedException)
+            {
+                // the circuit is gone: nothing to release in the browser
+            }
+        }
+        GC.SuppressFinalize(this);
+    }
+}

@@ -1,0 +1,129 @@
+using Bunit;
+using OpsLvp.Core.Engine;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Components.Shared;
+using OpsLvp.Web.Tests.Components.Testing;
+
+namespace OpsLvp.Web.Tests.Components.Shared;
+
+/// <summary>The alarm strip on every screen: listing, acknowledging (duty managers), and the wall's chime. Alarms are invented.</summary>
+public sealed class AlarmStripTests : LiveComponentTest
+{
+    private static readonly Alarm Silent = new("sensor-silent:RVR07M", AlarmKind.SensorSilent, "sensor RVR07M silent past its maximum age", TestSnapshots.T0.AddMinutes(2));
+    private static readonly Alarm Overdue = new("item-overdue:P1", AlarmKind.ItemOverdue, "item P1 (airside) overdue since 03:10", TestSnapshots.T0.AddMinutes(10));
+    private static readonly Alarm AckedRvr = new("rvr-unknown", AlarmKind.GoverningRvrUnknown, "governing RVR unknown", TestSnapshots.T0.AddMinutes(1), "dana (invented)", TestSnapshots.T0.AddMinutes(3));
+
+    private BunitJSModuleInterop SoundModule()
+    {
+        var module = JSInterop.SetupModule("/assets/alarm-sound.js");
+        module.Setup<bool>("isMuted", _ => true).SetResult(false);
+        module.Setup<bool>("chime", _ => true).SetResult(true);
+        module.SetupVoid("setMuted", _ => true).SetVoidResult();
+        return module;
+    }
+
+    [Fact]
+    public void ListsAlarms_UnacknowledgedFirst_WithWhoAcknowledged()
+    {
+        SignIn("kim (invented)", Roles.GroundStaff, "airside");
+        Live.Set(TestSnapshots.Make(1, alarms: [AckedRvr, Overdue, Silent]));
+        var cut = Render<AlarmStrip>();
+        var rows = cut.FindAll("[data-testid=alarm]");
+        Assert.Equal(["sensor-silent:RVR07M", "item-overdue:P1", "rvr-unknown"], rows.Select(r => r.GetAttribute("data-alarm-key")));
+        Assert.Equal("ack dana (invented) 03:03Z", cut.Find("[data-testid=alarm-acked-by]").TextContent.Trim());
+        Assert.Contains("has-unacked", cut.Find("[data-testid=alarm-strip]").ClassList);
+    }
+
+    [Fact]
+    public void NoAlarms_SaysSo()
+    {
+        SignedOut();
+        Live.Set(TestSnapshots.Make(1));
+        var cut = Render<AlarmStrip>();
+        Assert.Equal("No alarms", cut.Find("[data-testid=alarm-none]").TextContent);
+    }
+
+    [Fact]
+    public void DutyManager_GetsAnAcknowledgeButton_ThatSendsAcknowledgeAlarm()
+    {
+        SignIn("dana (invented)", Roles.DutyManager);
+        Live.Set(TestSnapshots.Make(1, alarms: [Silent, AckedRvr]));
+        var cut = Render<AlarmStrip>();
+        var button = Assert.Single(cut.FindAll("[data-testid=alarm-ack]"));
+        button.Click();
+        var (caller, command) = Assert.Single(Commands.Calls);
+        Assert.Equal("dana (invented)", caller.Name);
+        Assert.Equal(new AcknowledgeAlarm("dana (invented)", "sensor-silent:RVR07M"), command);
+    }
+
+    [Theory]
+    [InlineData(Roles.GroundStaff)]
+    [InlineData(Roles.Viewer)]
+    public void OthersSeeAlarms_ButNoAcknowledgeButton(string role)
+    {
+        SignIn("kim (invented)", role, "airside");
+        Live.Set(TestSnapshots.Make(1, alarms: [Silent]));
+        var cut = Render<AlarmStrip>();
+        Assert.Single(cut.FindAll("[data-testid=alarm]"));
+        Assert.Empty(cut.FindAll("[data-testid=alarm-ack]"));
+    }
+
+    [Fact]
+    public async Task FollowsLiveSnapshots()
+    {
+        SignedOut();
+        Live.Set(TestSnapshots.Make(1));
+        var cut = Render<AlarmStrip>();
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, alarms: [Overdue])));
+        cut.WaitForAssertion(() => Assert.Equal("item-overdue:P1", cut.Find("[data-testid=alarm]").GetAttribute("data-alarm-key")));
+    }
+
+    [Fact]
+    public async Task Audible_ChimesOncePerNewUnacknowledgedAlarm_NotForAcknowledgedOrRepeats()
+    {
+        SignedOut();
+        var module = SoundModule();
+        Live.Set(TestSnapshots.Make(1, alarms: [AckedRvr]));
+        var cut = Render<AlarmStrip>(p => p.Add(s => s.Audible, true).Add(s => s.ScreenKey, "wall"));
+        cut.WaitForAssertion(() => Assert.Single(module.Invocations["isMuted"]));
+        Assert.Empty(module.Invocations["chime"]);
+
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, alarms: [AckedRvr, Silent])));
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(3, alarms: [AckedRvr, Silent])));
+        cut.WaitForAssertion(() => Assert.Single(module.Invocations["chime"]));
+
+        // re-raised later under the same key: a new alarm
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(4, alarms: [Silent with { RaisedAt = Silent.RaisedAt.AddMinutes(5) }])));
+        cut.WaitForAssertion(() => Assert.Equal(2, module.Invocations["chime"].Count));
+        Assert.Equal("wall", module.Invocations["isMuted"][0].Arguments[0]);
+    }
+
+    [Fact]
+    public async Task Muted_DoesNotChime_AndTheChoiceIsStoredForThisScreen()
+    {
+        SignedOut();
+        var module = SoundModule();
+        Live.Set(TestSnapshots.Make(1));
+        var cut = Render<AlarmStrip>(p => p.Add(s => s.Audible, true).Add(s => s.ScreenKey, "wall"));
+        cut.WaitForAssertion(() => Assert.Single(module.Invocations["isMuted"]));
+
+        cut.Find("[data-testid=alarm-mute]").Click();
+        var stored = Assert.Single(module.Invocations["setMuted"]);
+        Assert.Equal(["wall", true], stored.Arguments);
+        Assert.Equal("Sound off", cut.Find("[data-testid=alarm-mute]").TextContent.Trim());
+
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, alarms: [Silent])));
+        cut.WaitForAssertion(() => Assert.Single(cut.FindAll("[data-testid=alarm]")));
+        Assert.Empty(module.Invocations["chime"]);
+    }
+
+    [Fact]
+    public void NotAudible_LoadsNoSoundModule()
+    {
+        SignedOut();
+        Live.Set(TestSnapshots.Make(1, alarms: [Silent]));
+        var cut = Render<AlarmStrip>();
+        Assert.Empty(cut.FindAll("[data-testid=alarm-mute]"));
+        Assert.Empty(JSInterop.Invocations["import"]);
+    }
+}
