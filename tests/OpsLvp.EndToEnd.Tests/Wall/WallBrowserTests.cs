@@ -19,8 +19,8 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
     [BrowserFact]
     public async Task PushedReadings_ChangeThePhaseOnTheWall_WithinTwoSeconds_WithoutReload()
     {
-        await using var server = await OpsLvpServer.StartAsync();
         await using var browser = await BrowserSession.LaunchAsync();
+        await using var server = await OpsLvpServer.StartAsync();
         var page = await browser.NewWallPageAsync();
         await OpenLiveWallAsync(page, server);
 
@@ -43,8 +43,8 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
     [BrowserFact]
     public async Task WhenTheServerGoesAway_TheConnectionBannerShows()
     {
-        await using var server = await OpsLvpServer.StartAsync();
         await using var browser = await BrowserSession.LaunchAsync();
+        await using var server = await OpsLvpServer.StartAsync();
         var page = await browser.NewWallPageAsync();
         await OpenLiveWallAsync(page, server);
         var banner = page.Locator("[data-testid=connection-banner]");
@@ -62,8 +62,8 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
     [BrowserFact]
     public async Task WallAt1920x1080_IsSaved_AndFitsWithoutScrolling()
     {
-        await using var server = await OpsLvpServer.StartAsync();
         await using var browser = await BrowserSession.LaunchAsync();
+        await using var server = await OpsLvpServer.StartAsync();
         var page = await browser.NewWallPageAsync();
         await OpenLiveWallAsync(page, server);
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 180));
