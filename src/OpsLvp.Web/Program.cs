@@ -2,6 +2,7 @@ using MudBlazor.Services;
 using OpsLvp.Web.Components;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Review;
 using OpsLvp.Web.Time;
 
 var builder = WebApplication.CreateBuilder(args);
@@ -11,6 +12,7 @@ builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
+builder.Services.AddReview();
 
 var app = builder.Build();
 
@@ -28,6 +30,7 @@ app.UseAntiforgery();
 app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
+app.MapReviewApi();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 app.Run();
