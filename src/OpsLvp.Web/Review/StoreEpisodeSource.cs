@@ -3,19 +3,21 @@ using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 using OpsLvp.Core.Review;
 using OpsLvp.Data.Stores;
+using OpsLvp.Web.Engine;
 
 namespace OpsLvp.Web.Review;
 
 /// <summary>
 /// Reads the record from the database: every audit entry (engine events are the entries whose payload is an
-/// EventJson object, docs/review.md), the accepted readings, and the profile registered in the container.
+/// EventJson object, as <see cref="AuditEvents"/> writes them), the accepted readings, and the live engine's profile
+/// (or an <see cref="AerodromeProfile"/> registered in the container).
 /// Stores that are not registered (no database configured) give an empty record with a clear detail.
 /// </summary>
 public sealed class StoreEpisodeSource(IServiceProvider services) : IEpisodeSource
 {
     public async Task<ReviewRecord> LoadAsync(CancellationToken cancellationToken = default)
     {
-        var profile = services.GetService<AerodromeProfile>();
+        var profile = services.GetService<AerodromeProfile>() ?? services.GetService<LiveEngineHost>()?.Profile;
         var audit = services.GetService<AuditStore>();
         var readingStore = services.GetService<ReadingStore>();
         if (audit is null || readingStore is null)
