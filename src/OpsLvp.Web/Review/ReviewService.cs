@@ -9,7 +9,8 @@ public sealed class ReviewService(IEpisodeSource source, TimeProvider clock)
     public async Task<(IReadOnlyList<EpisodeSummary> Episodes, ReviewRecord Record)> ListAsync(CancellationToken cancellationToken = default)
     {
         var record = await source.LoadAsync(cancellationToken);
-        return (EpisodeModel.Build(record.Events, record.Readings, clock.GetUtcNow()), record);
+        var shown = record.Profile is null ? record.Readings : ReviewReadings.WithDerivedRvr(record.Profile, record.Readings);
+        return (EpisodeModel.Build(record.Events, shown, clock.GetUtcNow()), record);
     }
 
     /// <summary>The episode with <paramref name="episodeId"/>, or null when there is none (or no profile is loaded).</summary>

@@ -32,7 +32,7 @@ public static class TimelineChartOptions
         var gaps = new JsonArray();
         var rvrAge = TimeSpan.FromSeconds(profile.MaxAgeSeconds.TryGetValue(ReadingKind.Rvr, out var ra) ? ra : 120);
         var ceilingAge = TimeSpan.FromSeconds(profile.MaxAgeSeconds.TryGetValue(ReadingKind.CloudBase, out var ca) ? ca : 300);
-        var ok = export.Readings.Where(r => r.Status == ReadingStatus.Ok).ToList();
+        var ok = ReviewReadings.WithDerivedRvr(profile, export.Readings).Where(r => r.Status == ReadingStatus.Ok).ToList();
         foreach (var group in ok.Where(r => r.Kind == ReadingKind.Rvr).GroupBy(r => r.SensorId).OrderBy(g => g.Key, StringComparer.Ordinal))
         {
             var name = RvrName(profile, group.Key);

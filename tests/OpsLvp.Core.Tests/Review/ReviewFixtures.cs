@@ -33,7 +33,7 @@ public sealed class ReviewFixtures
             audit.Add(previous);
         }
         Audit = audit;
-        Episodes = EpisodeModel.Build(Events, Readings, Readings[^1].Time);
+        Episodes = EpisodeModel.Build(Events, ReviewReadings.WithDerivedRvr(Profile, Readings), Readings[^1].Time);
     }
 
     public static ReviewFixtures DemoNight => DemoNightLazy.Value;

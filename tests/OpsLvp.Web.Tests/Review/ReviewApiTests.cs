@@ -44,8 +44,8 @@ public sealed class ReviewApiTests : IAsyncLifetime
         var e = Assert.Single(doc.RootElement.GetProperty("episodes").EnumerateArray());
         Assert.Equal(EpisodeId, e.GetProperty("id").GetString());
         Assert.Equal("active", e.GetProperty("deepest_phase").GetString());
-        // Preparation entered 20:36:36 on the invented demo night (docs/replay.md).
-        Assert.Equal("2026-01-15T20:36:36Z", e.GetProperty("start").GetString());
+        // Preparation entered 20:37:06 on the invented demo night (seed-demo/README.md).
+        Assert.Equal("2026-01-15T20:37:06Z", e.GetProperty("start").GetString());
     }
 
     [Fact]
