@@ -4,6 +4,7 @@ using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Live;
+using OpsLvp.Web.Review;
 using OpsLvp.Web.Time;
 
 if (HealthCheckMode.Requested(args))
@@ -19,6 +20,7 @@ builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
+builder.Services.AddReview();
 
 var app = builder.Build();
 
@@ -37,6 +39,7 @@ app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
 app.MapLiveApi();
+app.MapReviewApi();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 await app.RunAsync();

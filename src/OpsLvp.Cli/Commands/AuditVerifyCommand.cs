@@ -4,6 +4,7 @@ using System.Text.Json;
 using Microsoft.Data.Sqlite;
 using Microsoft.EntityFrameworkCore;
 using OpsLvp.Core.Audit;
+using OpsLvp.Core.Review;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
 
@@ -13,7 +14,8 @@ namespace OpsLvp.Cli.Commands;
 /// <c>opslvp audit verify --db path</c> (DESIGN §4.1): verifies the audit hash chain of a database file, opened
 /// read-only. Prints <c>{"entries","ok","first_bad_sequence","reason","detail","time_regression_sequence"}</c>.
 /// Exit 0 when the chain verifies, <see cref="ChainBrokenExitCode"/> when it does not, 1 for a missing or
-/// unreadable file, 2 for a bad command line (docs/audit.md).
+/// unreadable file, 2 for a bad command line (docs/audit.md). <c>opslvp audit verify --export E.json</c> checks the
+/// audit entries of an episode export as a chain segment (docs/review.md), same output and exit codes.
 /// </summary>
 public sealed class AuditVerifyCommand : ICliCommand
 {
@@ -22,25 +24,40 @@ public sealed class AuditVerifyCommand : ICliCommand
 
     public IReadOnlyList<string> Path { get; } = ["audit", "verify"];
 
-    public string Usage => "audit verify --db <file>";
+    public string Usage => "audit verify --db <file> | audit verify --export <episode.json>";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
-        var path = ParseDb(args);
+        var (option, path) = ParseDb(args);
         if (!File.Exists(path))
         {
-            stderr.WriteLine($"error: database file '{path}' not found");
+            stderr.WriteLine(option == "--db" ? $"error: database file '{path}' not found" : $"error: episode export '{path}' not found");
             return 1;
         }
         AuditVerification result;
-        try
+        if (option == "--export")
         {
-            result = VerifyAsync(path).GetAwaiter().GetResult();
+            try
+            {
+                result = EpisodeExport.Parse(File.ReadAllText(path)).VerifyAudit();
+            }
+            catch (FormatException ex)
+            {
+                stderr.WriteLine($"error: cannot read '{path}' as an episode export: {ex.Message.ReplaceLineEndings(" ")}");
+                return 1;
+            }
         }
-        catch (Exception ex) when (ex is SqliteException or InvalidDataException or FormatException or InvalidCastException)
+        else
         {
-            stderr.WriteLine($"error: cannot read '{path}' as an OpsLvp database: {ex.Message.ReplaceLineEndings(" ")}");
-            return 1;
+            try
+            {
+                result = VerifyAsync(path).GetAwaiter().GetResult();
+            }
+            catch (Exception ex) when (ex is SqliteException or InvalidDataException or FormatException or InvalidCastException)
+            {
+                stderr.WriteLine($"error: cannot read '{path}' as an OpsLvp database: {ex.Message.ReplaceLineEndings(" ")}");
+                return 1;
+            }
         }
 
         var buffer = new ArrayBufferWriter<byte>();
@@ -66,23 +83,25 @@ public sealed class AuditVerifyCommand : ICliCommand
         return result.Ok ? 0 : ChainBrokenExitCode;
     }
 
-    private static string ParseDb(IReadOnlyList<string> args)
+    private static (string Option, string Path) ParseDb(IReadOnlyList<string> args)
     {
+        string? option = null;
         string? path = null;
         for (var i = 0; i < args.Count; i++)
         {
-            if (args[i] == "--db" && i + 1 < args.Count && path is null)
+            if (args[i] is "--db" or "--export" && i + 1 < args.Count && path is null)
             {
+                option = args[i];
                 path = args[++i];
             }
             else
             {
-                throw new CliUsageException($"unexpected argument '{args[i]}'; usage: opslvp audit verify --db <file>");
+                throw new CliUsageException($"unexpected argument '{args[i]}'; usage: opslvp audit verify --db <file> | --export <episode.json>");
             }
         }
         return string.IsNullOrWhiteSpace(path)
-            ? throw new CliUsageException("missing --db <file>; usage: opslvp audit verify --db <file>")
-            : path;
+            ? throw new CliUsageException("missing --db <file> or --export <episode.json>; usage: opslvp audit verify --db <file> | --export <episode.json>")
+            : (option!, path);
     }
 
     private static async Task<AuditVerification> VerifyAsync(string path)

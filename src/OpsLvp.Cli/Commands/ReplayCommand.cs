@@ -1,17 +1,20 @@
 using OpsLvp.Core.Engine.Replay;
 using OpsLvp.Core.Profile;
+using OpsLvp.Core.Review;
 
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
 /// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]` (DESIGN §4.1): runs the
 /// engine over the files and writes one JSON line per event. Formats: docs/replay.md.
+/// `opslvp replay --episode E.json [--profile other.json]` replays an episode export (docs/review.md) with its own
+/// profile or another one (what-if).
 /// </summary>
 public sealed class ReplayCommand : ICliCommand
 {
     public IReadOnlyList<string> Path { get; } = ["replay"];
 
-    public string Usage => "opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]";
+    public string Usage => "opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME] | opslvp replay --episode E.json [--profile P.json]";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
@@ -19,7 +22,7 @@ public sealed class ReplayCommand : ICliCommand
         for (var i = 0; i < args.Count; i++)
         {
             var name = args[i];
-            if (name is not ("--profile" or "--readings" or "--actions" or "--until"))
+            if (name is not ("--profile" or "--readings" or "--actions" or "--until" or "--episode"))
             {
                 throw new CliUsageException($"unknown option '{name}'; usage: {Usage}");
             }
@@ -31,6 +34,10 @@ public sealed class ReplayCommand : ICliCommand
             {
                 throw new CliUsageException($"{name} given twice");
             }
+        }
+        if (options.TryGetValue("--episode", out var episodePath))
+        {
+            return RunEpisode(episodePath, options, stdout, stderr);
         }
         if (!options.TryGetValue("--profile", out var profilePath) || !options.TryGetValue("--readings", out var readingsPath))
         {
@@ -59,6 +66,47 @@ public sealed class ReplayCommand : ICliCommand
         }
         var result = ReplayRunner.Run(profile, readings, actions, until);
         foreach (var e in result.Events)
+        {
+            stdout.WriteLine(EventJson.ToLine(e));
+        }
+        return 0;
+    }
+
+    private int RunEpisode(string episodePath, Dictionary<string, string> options, TextWriter stdout, TextWriter stderr)
+    {
+        if (options.ContainsKey("--readings") || options.ContainsKey("--actions") || options.ContainsKey("--until"))
+        {
+            throw new CliUsageException($"--episode takes its readings, actions and end from the export; only --profile may be added; usage: {Usage}");
+        }
+        if (!File.Exists(episodePath))
+        {
+            stderr.WriteLine($"error: episode export '{episodePath}' not found");
+            return 1;
+        }
+        EpisodeExport export;
+        try
+        {
+            export = EpisodeExport.Parse(File.ReadAllText(episodePath));
+        }
+        catch (FormatException ex)
+        {
+            stderr.WriteLine($"error: {episodePath}: {ex.Message.ReplaceLineEndings(" ")}");
+            return 1;
+        }
+        AerodromeProfile? profile = null;
+        if (options.TryGetValue("--profile", out var profilePath))
+        {
+            try
+            {
+                profile = ProfileLoader.Load(profilePath);
+            }
+            catch (ProfileException ex)
+            {
+                stderr.WriteLine($"error: {profilePath}: {ex.Message.ReplaceLineEndings(" ")}");
+                return 1;
+            }
+        }
+        foreach (var e in export.Replay(profile).Events)
         {
             stdout.WriteLine(EventJson.ToLine(e));
         }
