@@ -36,7 +36,7 @@ public sealed class ResultsBook(BenchOptions options)
         foreach (var c in cases)
         {
             var baseline = cases.FirstOrDefault(b => b.Baseline && b.Params == c.Params);
-            var name = string.IsNullOrEmpty(c.Params) || c.Params == "Empty" ? c.Name : $"{c.Name} [{c.Params}]";
+            var name = string.IsNullOrEmpty(c.Params) || c.Params == "Empty" ? c.Name : $"{c.Name} {c.Params}";
             _rows.Add(new ResultRow(
                 section,
                 name,
@@ -50,8 +50,9 @@ public sealed class ResultsBook(BenchOptions options)
     }
 
     /// <summary>Mean time in nanoseconds of a case, for derived ratios (e.g. FULL/NORMAL).</summary>
-    public static double? Mean(Summary summary, string method, string parameters) =>
-        summary.Reports.FirstOrDefault(r => r.BenchmarkCase.Descriptor.WorkloadMethod.Name == method && r.BenchmarkCase.Parameters.DisplayInfo == parameters)?.ResultStatistics?.Mean;
+    public static double? Mean(Summary summary, string method, params (string Name, object Value)[] parameters) =>
+        summary.Reports.FirstOrDefault(r => r.BenchmarkCase.Descriptor.WorkloadMethod.Name == method
+            && parameters.All(p => Equals(r.BenchmarkCase.Parameters[p.Name], p.Value)))?.ResultStatistics?.Mean;
 
     public string ToMarkdown()
     {
@@ -95,7 +96,8 @@ public sealed class ResultsBook(BenchOptions options)
     public string Write()
     {
         Directory.CreateDirectory(options.OutFolder);
-        var path = Path.Combine(options.OutFolder, options.Quick ? "opslvp-results-quick.md" : "opslvp-results-full.md");
+        var suites = string.Join("-", BenchOptions.Suites.Where(options.Runs));
+        var path = Path.Combine(options.OutFolder, $"opslvp-results-{(options.Quick ? "quick" : "full")}-{suites}.md");
         File.WriteAllText(path, ToMarkdown());
         return path;
     }
