@@ -76,7 +76,8 @@ public sealed class BenchServer : IAsyncDisposable
     {
         protected override void ConfigureWebHost(IWebHostBuilder builder)
         {
-            builder.UseEnvironment("Production");
+            // Development, as the web tests use: static web assets (blazor.web.js, MudBlazor) are served from the build output.
+            builder.UseEnvironment("Development");
             builder.UseContentRoot(Path.Combine(Engine.BenchData.RepoRoot(), "src", "OpsLvp.Web"));
             builder.ConfigureAppConfiguration(config => config.AddInMemoryCollection(settings));
             builder.ConfigureServices(services => services.AddSingleton<CircuitHandler>(circuits));
