@@ -20,4 +20,19 @@ public static class OpsLvpDataServiceCollectionExtensions
         services.AddSingleton<FeedHealthStore>();
         return services;
     }
+
+    /// <summary>
+    /// As above, with the default connection string worked out when the first context is made (e.g. from a data
+    /// folder that is only known once configuration is complete).
+    /// </summary>
+    public static IServiceCollection AddOpsLvpData(this IServiceCollection services, IConfiguration configuration, Func<IServiceProvider, string?> defaultConnectionString)
+    {
+        ArgumentNullException.ThrowIfNull(configuration);
+        ArgumentNullException.ThrowIfNull(defaultConnectionString);
+        services.AddDbContextFactory<OpsLvpDbContext>((sp, b) => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString(sp)));
+        services.AddSingleton<ReadingStore>();
+        services.AddSingleton<AuditStore>();
+        services.AddSingleton<FeedHealthStore>();
+        return services;
+    }
 }
