@@ -15,10 +15,10 @@ namespace OpsLvp.Benchmarks;
 /// </summary>
 public static class BenchConfig
 {
-    public static IConfig Create(BenchOptions options)
+    public static IConfig Create(BenchOptions options, int warmups = 1, int iterations = 3)
     {
         var job = options.Quick
-            ? Job.Default.WithId("quick").WithWarmupCount(1).WithIterationCount(3).WithIterationTime(TimeInterval.FromMilliseconds(100))
+            ? Job.Default.WithId("quick").WithWarmupCount(warmups).WithIterationCount(iterations).WithIterationTime(TimeInterval.FromMilliseconds(100))
             : Job.Default.WithId("full").WithWarmupCount(3).WithIterationCount(15).WithIterationTime(TimeInterval.FromMilliseconds(250));
         return ManualConfig.CreateEmpty()
             .AddJob(job.WithToolchain(InProcessEmitToolchain.Instance))

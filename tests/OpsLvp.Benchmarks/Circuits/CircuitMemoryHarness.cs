@@ -21,7 +21,7 @@ public static class CircuitMemoryHarness
 
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
     {
-        int[] counts = options.Quick ? [5, 20] : [50, 200];
+        int[] counts = options.Quick ? [5, 15] : [50, 200];
         const string section = "Blazor circuit memory (server, per connected circuit)";
         var page = await PickPageAsync();
         if (page != "/wall")

@@ -46,6 +46,7 @@ public sealed class BenchServer : IAsyncDisposable
             ["Logging:LogLevel:Default"] = "Warning",
             ["Feeds:Push:ApiKeys:0:Name"] = "bench",
             ["Feeds:Push:ApiKeys:0:Key"] = PushKey,
+            ["Engine:ProfilePath"] = Path.Combine(Engine.BenchData.RepoRoot(), "seed-demo", "profile.json"),
         };
         foreach (var (key, value) in extra ?? new Dictionary<string, string?>())
         {

@@ -17,6 +17,9 @@ namespace OpsLvp.Benchmarks.Live;
 /// </summary>
 public static class PushLatencyHarness
 {
+    /// <summary>An RVR system sensor of the demo profile (reports RVR directly) at 07R end, a governing position.</summary>
+    public const string Sensor = "rvr-07r-end";
+
     private static readonly TimeSpan RoundTimeout = TimeSpan.FromSeconds(10);
 
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
@@ -38,10 +41,10 @@ public static class PushLatencyHarness
             string? failure = null;
             try
             {
-                (ours, payloadChars) = await MeasureAsync(new Uri(server.BaseAddress, "/hubs/lvp"), n, rounds, async () =>
+                (ours, payloadChars) = await MeasureAsync(new Uri(server.BaseAddress, "/hubs/lvp"), n, rounds, () => string.Create(CultureInfo.InvariantCulture, $":{NextValue(value)}"), async () =>
                 {
-                    value += 10;
-                    var body = new { readings = new[] { new { time = TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture), sensor = "rvr-07l-tdz", kind = "rvr", value, status = "ok" } } };
+                    value = NextValue(value);
+                    var body = new { readings = new[] { new { time = TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture), sensor = Sensor, kind = "rvr", value, status = "ok" } } };
                     using var request = new HttpRequestMessage(HttpMethod.Post, new Uri(server.BaseAddress, "/api/readings")) { Content = JsonContent.Create(body) };
                     request.Headers.Add("X-Api-Key", BenchServer.PushKey);
                     using var response = await http.SendAsync(request);
@@ -53,7 +56,7 @@ public static class PushLatencyHarness
                 failure = ex.Message.ReplaceLineEndings(" ");
             }
             BareServer.PayloadChars = payloadChars > 0 ? payloadChars : 4096;
-            var (bareLatencies, _) = await MeasureAsync(new Uri(bare.BaseAddress, "/hubs/bare"), n, rounds, async () =>
+            var (bareLatencies, _) = await MeasureAsync(new Uri(bare.BaseAddress, "/hubs/bare"), n, rounds, () => null, async () =>
             {
                 using var response = await http.PostAsync(new Uri(bare.BaseAddress, "/bare"), null);
                 response.EnsureSuccessStatusCode();
@@ -79,7 +82,8 @@ public static class PushLatencyHarness
     }
 
     /// <summary>Connects <paramref name="n"/> clients, runs <paramref name="rounds"/> posts and returns every client's latency of every round.</summary>
-    private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, int n, int rounds, Func<Task> post)
+    /// <param name="marker">Text the awaited message must contain (the posted value), so a heartbeat snapshot is not taken for the answer; null: any message.</param>
+    private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, int n, int rounds, Func<string?> marker, Func<Task> post)
     {
         var clients = new List<Client>(n);
         try
@@ -108,9 +112,10 @@ public static class PushLatencyHarness
             for (var round = -1; round < rounds; round++)
             {
                 await Task.Delay(150);
+                var expected = marker();
                 foreach (var c in clients)
                 {
-                    c.Arm();
+                    c.Arm(expected);
                 }
                 var t0 = Stopwatch.GetTimestamp();
                 await post();
@@ -169,13 +174,17 @@ public static class PushLatencyHarness
         }
     }
 
+    /// <summary>1500, 1510, … 1890, 1500, …: above the preparation threshold (phase stays normal), never twice in a row.</summary>
+    private static int NextValue(int value) => value >= 1890 ? 1500 : value + 10;
+
     private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
 
-    /// <summary>One SignalR client that records when the first <c>state</c> after <see cref="Arm"/> arrives.</summary>
+    /// <summary>One SignalR client that records when the first <c>state</c> after <see cref="Arm"/> carrying the marker arrives.</summary>
     private sealed class Client : IAsyncDisposable
     {
         private readonly HubConnection _connection;
         private TaskCompletionSource<long> _received = NewSource();
+        private volatile string? _marker;
 
         public Client(Uri hub)
         {
@@ -183,8 +192,12 @@ public static class PushLatencyHarness
             _connection.On<JsonElement>("state", payload =>
             {
                 var now = Stopwatch.GetTimestamp();
-                LastPayloadChars = payload.GetRawText().Length;
-                Volatile.Read(ref _received).TrySetResult(now);
+                var text = payload.GetRawText();
+                LastPayloadChars = text.Length;
+                if (_marker is not { } marker || text.Contains(marker, StringComparison.Ordinal))
+                {
+                    Volatile.Read(ref _received).TrySetResult(now);
+                }
             });
         }
 
@@ -194,7 +207,11 @@ public static class PushLatencyHarness
 
         public Task StartAsync() => _connection.StartAsync();
 
-        public void Arm() => Volatile.Write(ref _received, NewSource());
+        public void Arm(string? marker)
+        {
+            _marker = marker;
+            Volatile.Write(ref _received, NewSource());
+        }
 
         public ValueTask DisposeAsync() => _connection.DisposeAsync();
 
