@@ -44,6 +44,8 @@ public sealed class LiveEngineHost(
 {
     private const int MaxCarriedReadings = 10_000;
 
+    private const int MaxBatchesPerEvaluation = 64;
+
     private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
 
     private readonly SemaphoreSlim _gate = new(1, 1);
@@ -135,13 +137,13 @@ public sealed class LiveEngineHost(
             stateEvaluatedAt = restored ? _state.EvaluatedAt : (DateTimeOffset?)null,
         });
         logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
-        await EvaluateAsync(null, null, [started], cancellationToken);
+        await EvaluateAsync([], null, [started], cancellationToken);
         await base.StartAsync(cancellationToken);
     }
 
     /// <summary>Evaluates one command through the single evaluation path (used by the command service).</summary>
     public Task<EvaluationOutcome> ExecuteAsync(EngineCommand command, CancellationToken cancellationToken = default) =>
-        EvaluateAsync(null, command, [], cancellationToken);
+        EvaluateAsync([], command, [], cancellationToken);
 
     protected override Task ExecuteAsync(CancellationToken stoppingToken) =>
         Task.WhenAll(ConsumeReadingsAsync(stoppingToken), TickAsync(stoppingToken));
@@ -153,7 +155,13 @@ public sealed class LiveEngineHost(
         {
             await foreach (var batch in pipeline.ReadAllAsync(stoppingToken))
             {
-                await EvaluateGuardedAsync(batch, stoppingToken);
+                // batches queued meanwhile are taken in the same evaluation (same order, one commit)
+                var batches = new List<ReadingBatch> { batch };
+                while (batches.Count < MaxBatchesPerEvaluation && pipeline.TryRead(out var more) && more is not null)
+                {
+                    batches.Add(more);
+                }
+                await EvaluateGuardedAsync(batches, stoppingToken);
             }
         }
         catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
@@ -173,7 +181,7 @@ public sealed class LiveEngineHost(
         {
             while (await timer.WaitForNextTickAsync(stoppingToken))
             {
-                await EvaluateGuardedAsync(null, stoppingToken);
+                await EvaluateGuardedAsync([], stoppingToken);
             }
         }
         catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
@@ -181,11 +189,11 @@ public sealed class LiveEngineHost(
         }
     }
 
-    private async Task EvaluateGuardedAsync(ReadingBatch? batch, CancellationToken stoppingToken)
+    private async Task EvaluateGuardedAsync(IReadOnlyList<ReadingBatch> batches, CancellationToken stoppingToken)
     {
         try
         {
-            await EvaluateAsync(batch, null, [], stoppingToken);
+            await EvaluateAsync(batches, null, [], stoppingToken);
         }
         catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
         {
@@ -198,7 +206,7 @@ public sealed class LiveEngineHost(
         }
     }
 
-    private async Task<EvaluationOutcome> EvaluateAsync(ReadingBatch? batch, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    private async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
     {
         if (_engine is null || _state is null)
         {
@@ -207,7 +215,7 @@ public sealed class LiveEngineHost(
         await _gate.WaitAsync(cancellationToken);
         try
         {
-            return await EvaluateLockedAsync(batch, command, hostEntries, cancellationToken);
+            return await EvaluateLockedAsync(batches, command, hostEntries, cancellationToken);
         }
         finally
         {
@@ -215,7 +223,7 @@ public sealed class LiveEngineHost(
         }
     }
 
-    private async Task<EvaluationOutcome> EvaluateLockedAsync(ReadingBatch? batch, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    private async Task<EvaluationOutcome> EvaluateLockedAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
     {
         var engine = _engine!;
         var old = _state!;
@@ -224,12 +232,14 @@ public sealed class LiveEngineHost(
 
         var inputs = new List<EngineInput>();
         var fresh = new List<(Reading Reading, string Source)>();
+        var perBatch = new List<(ReadingBatch Batch, int From, int To)>();
         foreach (var r in _carried)
         {
             inputs.Add(new ReadingInput(r));
         }
-        if (batch is not null)
+        foreach (var batch in batches)
         {
+            var from = fresh.Count;
             foreach (var r in batch.Readings)
             {
                 if (r is null)
@@ -244,6 +254,7 @@ public sealed class LiveEngineHost(
                     fresh.Add((d, batch.Source + ":derived"));
                 }
             }
+            perBatch.Add((batch, from, fresh.Count));
         }
         if (command is not null)
         {
@@ -260,9 +271,9 @@ public sealed class LiveEngineHost(
             }
         }
 
-        if (batch is not null)
+        if (perBatch.Count > 0)
         {
-            await StoreReadingsAsync(batch, fresh, rejected, cancellationToken);
+            await StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
         }
 
         var entries = new List<NewAuditEntry>();
@@ -377,18 +388,22 @@ public sealed class LiveEngineHost(
         return changes;
     }
 
-    private async Task StoreReadingsAsync(ReadingBatch batch, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)
+    private async Task StoreReadingsAsync(List<(ReadingBatch Batch, int From, int To)> batches, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)
     {
-        var rows = new List<ReceivedReading>(fresh.Count + batch.Rejections.Count);
-        foreach (var j in batch.Rejections)
+        var rows = new List<ReceivedReading>(fresh.Count);
+        foreach (var (batch, from, to) in batches)
         {
-            rows.Add(new ReceivedReading(batch.ReceivedAt, batch.Source, j.SensorId ?? "", "unparsed", null, null, null, false, j.Reason, $"item {j.Index}: {j.Detail}"));
-        }
-        foreach (var (reading, source) in fresh)
-        {
-            rows.Add(rejected.TryGetValue(reading, out var why)
-                ? ReceivedReading.Reject(reading, batch.ReceivedAt, source, why.Reason, why.Detail)
-                : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
+            foreach (var j in batch.Rejections)
+            {
+                rows.Add(new ReceivedReading(batch.ReceivedAt, batch.Source, j.SensorId ?? "", "unparsed", null, null, null, false, j.Reason, $"item {j.Index}: {j.Detail}"));
+            }
+            for (var i = from; i < to; i++)
+            {
+                var (reading, source) = fresh[i];
+                rows.Add(rejected.TryGetValue(reading, out var why)
+                    ? ReceivedReading.Reject(reading, batch.ReceivedAt, source, why.Reason, why.Detail)
+                    : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
+            }
         }
         try
         {
@@ -396,7 +411,7 @@ public sealed class LiveEngineHost(
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
-            logger.LogError(ex, "Readings from {Source} could not be stored", batch.Source);
+            logger.LogError(ex, "Readings from {Count} batch(es) could not be stored", batches.Count);
         }
     }
 

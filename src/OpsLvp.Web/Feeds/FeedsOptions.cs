@@ -8,6 +8,9 @@ public sealed class FeedsOptions
     /// <summary>Polled HTTP JSON feeds, each under <c>Feeds:Http:{i}</c>.</summary>
     public List<HttpFeedOptions> Http { get; set; } = [];
 
+    /// <summary>METAR/SPECI text feeds, each under <c>Feeds:Metar:{i}</c>.</summary>
+    public List<MetarFeedOptions> Metar { get; set; } = [];
+
     public PushIngestOptions Push { get; set; } = new();
 
     /// <summary>Batches the reading pipeline holds before feeds have to wait for the consumer.</summary>

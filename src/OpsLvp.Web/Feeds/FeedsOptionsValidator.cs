@@ -73,6 +73,37 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             }
         }
 
+        var metarNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        for (var i = 0; i < options.Metar.Count; i++)
+        {
+            var feed = options.Metar[i];
+            var at = Msg($"Feeds:Metar:{i}");
+            if (string.IsNullOrWhiteSpace(feed.Name))
+            {
+                errors.Add($"{at}:Name must be set.");
+            }
+            else if (!metarNames.Add(feed.Name))
+            {
+                errors.Add($"{at}:Name '{feed.Name}' is used by another METAR feed.");
+            }
+            if (string.IsNullOrWhiteSpace(feed.Source))
+            {
+                errors.Add($"{at}:Source must be an http(s) URL or a file path.");
+            }
+            if (feed.PollInterval < TimeSpan.FromMilliseconds(100) || feed.PollInterval > TimeSpan.FromHours(1))
+            {
+                errors.Add($"{at}:PollInterval must be between 00:00:00.1 and 01:00:00.");
+            }
+            if (feed.Timeout < TimeSpan.FromMilliseconds(10) || feed.Timeout > TimeSpan.FromMinutes(5))
+            {
+                errors.Add($"{at}:Timeout must be between 00:00:00.01 and 00:05:00.");
+            }
+            if (feed.Retries is < 0 or > 10)
+            {
+                errors.Add(Msg($"{at}:Retries must be between 0 and 10 (got {feed.Retries})."));
+            }
+        }
+
         var keyNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < options.Push.ApiKeys.Count; i++)
         {

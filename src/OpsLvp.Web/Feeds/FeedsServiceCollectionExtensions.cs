@@ -23,6 +23,7 @@ public static class FeedsServiceCollectionExtensions
         services.AddHttpClient(HttpFeedPoller.HttpClientName);
         services.AddHostedService<PushHealthRegistration>();
         services.AddHostedService<HttpFeedPoller>();
+        services.AddHostedService<MetarFeedPoller>();
         services.AddHostedService<DemoSimulator>();
         return services;
     }

@@ -52,7 +52,7 @@ public static class TimeServiceCollectionExtensions
         {
             SimulatorMode.On => true,
             SimulatorMode.Off => false,
-            _ => feeds.Http.Count == 0 && feeds.Push.ApiKeys.Count == 0,
+            _ => feeds.Http.Count == 0 && feeds.Metar.Count == 0 && feeds.Push.ApiKeys.Count == 0,
         };
         return new DemoMode(enabled, demo.Speed);
     }

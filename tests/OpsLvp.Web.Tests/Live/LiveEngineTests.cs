@@ -123,15 +123,16 @@ public sealed class LiveEngineTests
     [Fact]
     public async Task Restart_RestoresState_AndADwellRunningAtShutdownCompletesAtItsOriginalInstant()
     {
-        const int dwell = 4; // active enter dwell, invented
+        const int dwell = 6; // active enter dwell, invented
         var folder = OpsLvpApp.NewDataFolder();
         try
         {
             var settings = LiveTestProfile.Settings(LiveTestProfile.Write(folder, activeEnterDwellSeconds: dwell));
-            var pushedAt = DateTimeOffset.UtcNow;
+            DateTimeOffset pushedAt;
             await using (var first = OpsLvpApp.Start(settings, folder))
             {
-                // 500 m: preparation at once (dwell 0), active after the 4 s dwell
+                pushedAt = DateTimeOffset.UtcNow;
+                // 500 m: preparation at once (dwell 0), active after the 6 s dwell
                 await LiveClient.PushAsync(first, LiveClient.Item(pushedAt, LiveTestProfile.Tdz, "rvr", 500));
                 await LiveClient.WaitForPhaseAsync(first, "preparation");
             }

@@ -1,47 +1,66 @@
-// Set up event handlers
-const reconnectModal = document.getElementById("components-reconnect-modal");
-reconnectModal.addEventListener("components-reconnect-state-changed", handleReconnectStateChanged);
+// OpsLvp connection banner: shown (non-modal, so the page stays visible under it) while the live connection
+// is lost; an unattended wall keeps retrying on its own after Blazor's attempts run out.
+const banner = document.getElementById("components-reconnect-modal");
+banner.addEventListener("components-reconnect-state-changed", handleReconnectStateChanged);
 
-const retryButton = document.getElementById("components-reconnect-button");
-retryButton.addEventListener("click", retry);
+document.getElementById("components-reconnect-button").addEventListener("click", retry);
+document.getElementById("components-resume-button").addEventListener("click", resume);
 
-const resumeButton = document.getElementById("components-resume-button");
-resumeButton.addEventListener("click", resume);
+const retryEveryMs = 10000;
+let retryTimer = null;
 
 function handleReconnectStateChanged(event) {
-    if (event.detail.state === "show") {
-        reconnectModal.showModal();
-    } else if (event.detail.state === "hide") {
-        reconnectModal.close();
-    } else if (event.detail.state === "failed") {
-        document.addEventListener("visibilitychange", retryWhenDocumentBecomesVisible);
-    } else if (event.detail.state === "rejected") {
+    const state = event.detail.state;
+    if (state === "show" || state === "retrying" || state === "failed" || state === "paused") {
+        if (!banner.open) {
+            banner.show();
+        }
+        document.documentElement.classList.add("opslvp-disconnected");
+    }
+    if (state === "hide") {
+        stopRetrying();
+        banner.close();
+        document.documentElement.classList.remove("opslvp-disconnected");
+    } else if (state === "failed") {
+        startRetrying();
+    } else if (state === "rejected") {
         location.reload();
     }
 }
 
-async function retry() {
-    document.removeEventListener("visibilitychange", retryWhenDocumentBecomesVisible);
+function startRetrying() {
+    document.addEventListener("visibilitychange", retryWhenDocumentBecomesVisible);
+    if (retryTimer === null) {
+        retryTimer = setInterval(retry, retryEveryMs);
+    }
+}
 
+function stopRetrying() {
+    document.removeEventListener("visibilitychange", retryWhenDocumentBecomesVisible);
+    if (retryTimer !== null) {
+        clearInterval(retryTimer);
+        retryTimer = null;
+    }
+}
+
+async function retry() {
     try {
-        // Reconnect will asynchronously return:
-        // - true to mean success
-        // - false to mean we reached the server, but it rejected the connection (e.g., unknown circuit ID)
-        // - exception to mean we didn't reach the server (this can be sync or async)
+        // true: reconnected; false: the server answered but no longer knows this circuit; throws: unreachable.
         const successful = await Blazor.reconnect();
-        if (!successful) {
-            // We have been able to reach the server, but the circuit is no longer available.
-            // We'll reload the page so the user can continue using the app as quickly as possible.
-            const resumeSuccessful = await Blazor.resumeCircuit();
-            if (!resumeSuccessful) {
-                location.reload();
-            } else {
-                reconnectModal.close();
-            }
+        if (successful) {
+            stopRetrying();
+            return;
+        }
+        const resumed = await Blazor.resumeCircuit();
+        if (!resumed) {
+            location.reload();
+        } else {
+            stopRetrying();
+            banner.close();
+            document.documentElement.classList.remove("opslvp-disconnected");
         }
     } catch (err) {
-        // We got an exception, server is currently unavailable
-        document.addEventListener("visibilitychange", retryWhenDocumentBecomesVisible);
+        startRetrying();
     }
 }
 
@@ -52,7 +71,7 @@ async function resume() {
             location.reload();
         }
     } catch {
-        reconnectModal.classList.replace("components-reconnect-paused", "components-reconnect-resume-failed");
+        banner.classList.replace("components-reconnect-paused", "components-reconnect-resume-failed");
     }
 }
 

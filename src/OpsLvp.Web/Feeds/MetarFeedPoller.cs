@@ -1,0 +1,144 @@
+using System.Globalization;
+using Microsoft.Extensions.Http.Resilience;
+using Microsoft.Extensions.Options;
+using OpsLvp.Core.Metar;
+using OpsLvp.Core.Readings;
+using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Time;
+using Polly;
+using Polly.Timeout;
+
+namespace OpsLvp.Web.Feeds;
+
+/// <summary>
+/// Polls every <c>Feeds:Metar</c> entry: fetch the text (HTTP with timeout and back-off retries, or a file), decode
+/// each line with <see cref="MetarDecoder"/>, turn it into readings with <see cref="MetarReport.ToReadings"/> at the
+/// observation time resolved near the app clock, and hand them to the <see cref="ReadingPipeline"/>. A line that does
+/// not decode is a <see cref="RejectReason.Malformed"/> rejection; a report already sent gives duplicates that the
+/// engine rejects. A failing feed only changes its own health.
+/// </summary>
+public sealed class MetarFeedPoller(
+    IOptions<FeedsOptions> options,
+    IHttpClientFactory httpClientFactory,
+    ContentPaths paths,
+    ReadingPipeline pipeline,
+    FeedHealthRegistry health,
+    DemoMode demoMode,
+    TimeProvider appClock,
+    [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider networkClock,
+    ILogger<MetarFeedPoller> logger) : BackgroundService
+{
+    public static string SourceName(MetarFeedOptions feed) => "metar:" + feed.Name;
+
+    protected override Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        var feeds = options.Value.Metar;
+        foreach (var feed in feeds)
+        {
+            var stale = feed.StaleAfter ?? feed.PollInterval * 3;
+            health.Register(SourceName(feed), "metar", demoMode.Enabled ? stale * demoMode.Speed : stale);
+        }
+        return Task.WhenAll(feeds.Select(feed => RunFeedAsync(feed, stoppingToken)));
+    }
+
+    /// <summary>The batch for one fetched text (public for tests): readings of every decoded line, a rejection per bad line.</summary>
+    public static ReadingBatch ToBatch(string text, MetarFeedOptions feed, DateTimeOffset now)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        var map = new MetarSensorMap(feed.RvrSensorByRunway, feed.VisibilitySensorId, feed.CloudBaseSensorId, feed.VerticalVisibilitySensorId, feed.NoCeilingCloudBaseFeet);
+        var readings = new List<Reading>();
+        var rejections = new List<ReadingRejection>();
+        var index = 0;
+        foreach (var raw in text.Split('\n'))
+        {
+            var line = raw.Trim().TrimEnd('=');
+            if (line.Length == 0 || line.StartsWith('#'))
+            {
+                continue;
+            }
+            if (MetarDecoder.TryDecode(line, out var report, out var error) && report is not null)
+            {
+                readings.AddRange(report.ToReadings(report.Time.ResolveNear(now), map));
+            }
+            else
+            {
+                rejections.Add(new ReadingRejection(index, RejectReason.Malformed, $"METAR not decoded: {error}"));
+            }
+            index++;
+        }
+        return new ReadingBatch(SourceName(feed), now, readings, rejections);
+    }
+
+    private async Task RunFeedAsync(MetarFeedOptions feed, CancellationToken stoppingToken)
+    {
+        await Task.Yield();
+        var source = SourceName(feed);
+        var isHttp = Uri.TryCreate(feed.Source, UriKind.Absolute, out var url) && (url.Scheme == Uri.UriSchemeHttp || url.Scheme == Uri.UriSchemeHttps);
+        var resilience = BuildResilience(feed);
+        using var client = httpClientFactory.CreateClient(HttpFeedPoller.HttpClientName);
+        client.Timeout = System.Threading.Timeout.InfiniteTimeSpan;
+        while (!stoppingToken.IsCancellationRequested)
+        {
+            try
+            {
+                var text = isHttp
+                    ? await FetchAsync(client, url!, resilience, stoppingToken)
+                    : await File.ReadAllTextAsync(paths.Resolve(feed.Source), stoppingToken);
+                var batch = ToBatch(text, feed, appClock.GetUtcNow());
+                await pipeline.SubmitAsync(batch, stoppingToken);
+                health.RecordSuccess(source, batch.Readings.Count, batch.Rejections.Count);
+            }
+            catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+            {
+                return;
+            }
+            catch (Exception ex)
+            {
+                var error = ex switch
+                {
+                    TimeoutRejectedException => string.Create(CultureInfo.InvariantCulture, $"timed out after {feed.Timeout.TotalSeconds:0.###} s"),
+                    HttpRequestException h => "request failed: " + h.Message,
+                    IOException or UnauthorizedAccessException => "file not readable: " + ex.Message,
+                    _ => ex.GetType().Name + ": " + ex.Message,
+                };
+                health.RecordFailure(source, error);
+                logger.LogWarning("METAR feed {Feed} poll failed: {Error}", source, error);
+            }
+            try
+            {
+                await Task.Delay(feed.PollInterval, networkClock, stoppingToken);
+            }
+            catch (OperationCanceledException)
+            {
+                return;
+            }
+        }
+    }
+
+    private static async Task<string> FetchAsync(HttpClient client, Uri url, ResiliencePipeline<HttpResponseMessage> resilience, CancellationToken stoppingToken)
+    {
+        using var response = await resilience.ExecuteAsync(async token => await client.GetAsync(url, HttpCompletionOption.ResponseContentRead, token), stoppingToken);
+        if (!response.IsSuccessStatusCode)
+        {
+            throw new HttpRequestException(string.Create(CultureInfo.InvariantCulture, $"HTTP {(int)response.StatusCode} {response.ReasonPhrase}"), null, response.StatusCode);
+        }
+        return await response.Content.ReadAsStringAsync(stoppingToken);
+    }
+
+    private ResiliencePipeline<HttpResponseMessage> BuildResilience(MetarFeedOptions feed)
+    {
+        var builder = new ResiliencePipelineBuilder<HttpResponseMessage> { TimeProvider = networkClock };
+        if (feed.Retries > 0)
+        {
+            builder.AddRetry(new HttpRetryStrategyOptions
+            {
+                MaxRetryAttempts = feed.Retries,
+                Delay = feed.RetryDelay,
+                BackoffType = DelayBackoffType.Exponential,
+                UseJitter = true,
+            });
+        }
+        builder.AddTimeout(feed.Timeout);
+        return builder.Build();
+    }
+}

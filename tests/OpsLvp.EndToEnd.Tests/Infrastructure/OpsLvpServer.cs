@@ -1,0 +1,197 @@
+using System.Collections.Concurrent;
+using System.Diagnostics;
+using System.Globalization;
+using System.Net.Http.Json;
+using System.Text.RegularExpressions;
+
+namespace OpsLvp.EndToEnd.Tests.Infrastructure;
+
+/// <summary>
+/// The real OpsLvp web app as a separate process (the built OpsLvp.Web.dll) on Kestrel at 127.0.0.1:{random port},
+/// with a temporary data folder, the invented <see cref="TestProfile"/>, push ingest under <see cref="ApiKey"/> and
+/// the demo simulator off. A separate process so a test can take the server away as a crash would.
+/// </summary>
+public sealed partial class OpsLvpServer : IAsyncDisposable
+{
+    /// <summary>Invented test key.</summary>
+    public const string ApiKey = "e2e-key-0123456789abcdef";
+
+    /// <summary>The configuration key naming the aerodrome profile file (the engine host's setting).</summary>
+    public const string ProfileSetting = "Engine__ProfilePath";
+
+    private static readonly TimeSpan s_startTimeout = TimeSpan.FromSeconds(60);
+
+    private readonly Process _process;
+    private readonly ConcurrentQueue<string> _output;
+
+    private OpsLvpServer(Process process, ConcurrentQueue<string> output, Uri baseAddress, string dataFolder)
+    {
+        _process = process;
+        _output = output;
+        BaseAddress = baseAddress;
+        DataFolder = dataFolder;
+        Client = new HttpClient { BaseAddress = baseAddress, Timeout = TimeSpan.FromSeconds(20) };
+    }
+
+    public Uri BaseAddress { get; }
+
+    public string DataFolder { get; }
+
+    public HttpClient Client { get; }
+
+    /// <summary>What the server wrote so far, for failure messages.</summary>
+    public string Output => string.Join(Environment.NewLine, _output);
+
+    public static async Task<OpsLvpServer> StartAsync()
+    {
+        var dll = WebAppDll();
+        var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-e2e", Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(dataFolder);
+        var profile = Path.Combine(dataFolder, "profile.json");
+        await File.WriteAllTextAsync(profile, TestProfile.Json);
+
+        var start = new ProcessStartInfo("dotnet")
+        {
+            WorkingDirectory = Path.GetDirectoryName(dll)!,
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
+            UseShellExecute = false,
+        };
+        start.ArgumentList.Add(dll);
+        start.ArgumentList.Add("--urls");
+        start.ArgumentList.Add("http://127.0.0.1:0");
+        start.Environment["ASPNETCORE_ENVIRONMENT"] = "Development";
+        start.Environment["Storage__DataFolder"] = dataFolder;
+        start.Environment[ProfileSetting] = profile;
+        start.Environment["Engine__TickInterval"] = "00:00:00.200";
+        start.Environment["Demo__Simulator"] = "Off";
+        start.Environment["Feeds__Push__ApiKeys__0__Name"] = "e2e";
+        start.Environment["Feeds__Push__ApiKeys__0__Key"] = ApiKey;
+        start.Environment["Logging__LogLevel__Default"] = "Warning";
+        start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
+
+        var output = new ConcurrentQueue<string>();
+        var listening = new TaskCompletionSource<Uri>(TaskCreationOptions.RunContinuationsAsynchronously);
+        var process = new Process { StartInfo = start, EnableRaisingEvents = true };
+        process.OutputDataReceived += (_, e) => OnLine(e.Data);
+        process.ErrorDataReceived += (_, e) => OnLine(e.Data);
+        process.Exited += (_, _) => listening.TrySetException(new InvalidOperationException("the web app exited during start"));
+        process.Start();
+        process.BeginOutputReadLine();
+        process.BeginErrorReadLine();
+
+        try
+        {
+            var address = await listening.Task.WaitAsync(s_startTimeout);
+            return new OpsLvpServer(process, output, address, dataFolder);
+        }
+        catch (Exception ex) when (ex is TimeoutException or InvalidOperationException)
+        {
+            Stop(process);
+            process.Dispose();
+            TryDelete(dataFolder);
+            throw new InvalidOperationException($"OpsLvp.Web did not start ({ex.Message}); its output:{Environment.NewLine}{string.Join(Environment.NewLine, output)}", ex);
+        }
+
+        void OnLine(string? line)
+        {
+            if (line is null)
+            {
+                return;
+            }
+            output.Enqueue(line);
+            if (ListeningLine().Match(line) is { Success: true } m)
+            {
+                listening.TrySetResult(new Uri(m.Groups[1].Value));
+            }
+        }
+    }
+
+    /// <summary>POSTs readings stamped <paramref name="time"/> to /api/readings and checks they were all accepted.</summary>
+    public async Task PushAsync(DateTimeOffset time, params (string Sensor, string Kind, double Value)[] readings)
+    {
+        var body = new
+        {
+            readings = readings.Select(r => new
+            {
+                time = time.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss.fff'Z'", CultureInfo.InvariantCulture),
+                sensor = r.Sensor,
+                kind = r.Kind,
+                value = r.Value,
+                status = "ok",
+            }),
+        };
+        using var request = new HttpRequestMessage(HttpMethod.Post, new Uri("/api/readings", UriKind.Relative))
+        {
+            Content = JsonContent.Create(body),
+        };
+        request.Headers.Add("X-Api-Key", ApiKey);
+        using var response = await Client.SendAsync(request);
+        var text = await response.Content.ReadAsStringAsync();
+        Assert.True(response.IsSuccessStatusCode, $"POST /api/readings answered {(int)response.StatusCode}: {text}");
+        Assert.Contains($"\"accepted\":{readings.Length}", text.Replace(" ", "", StringComparison.Ordinal), StringComparison.Ordinal);
+    }
+
+    /// <summary>Takes the server away at once, as a crash or a pulled cable would (the process is killed).</summary>
+    public void Kill() => Stop(_process);
+
+    public async ValueTask DisposeAsync()
+    {
+        Client.Dispose();
+        Stop(_process);
+        await _process.WaitForExitAsync().WaitAsync(TimeSpan.FromSeconds(10)).ConfigureAwait(false);
+        _process.Dispose();
+        TryDelete(DataFolder);
+    }
+
+    /// <summary>src/OpsLvp.Web/bin/{same configuration as this test build}/net10.0/OpsLvp.Web.dll.</summary>
+    private static string WebAppDll()
+    {
+        var here = new DirectoryInfo(AppContext.BaseDirectory);
+        var framework = here.Name;
+        var configuration = here.Parent!.Name;
+        for (var dir = here; dir is not null; dir = dir.Parent)
+        {
+            if (File.Exists(Path.Combine(dir.FullName, "OpsLvp.sln")))
+            {
+                var dll = Path.Combine(dir.FullName, "src", "OpsLvp.Web", "bin", configuration, framework, "OpsLvp.Web.dll");
+                return File.Exists(dll)
+                    ? dll
+                    : throw new InvalidOperationException($"{dll} is missing: build src/OpsLvp.Web in {configuration} first");
+            }
+        }
+        throw new InvalidOperationException($"no OpsLvp.sln above {AppContext.BaseDirectory}");
+    }
+
+    private static void Stop(Process process)
+    {
+        try
+        {
+            if (!process.HasExited)
+            {
+                process.Kill(entireProcessTree: true);
+            }
+        }
+        catch (InvalidOperationException)
+        {
+            // Already gone.
+        }
+    }
+
+    private static void TryDelete(string folder)
+    {
+        try
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+        catch (IOException)
+        {
+        }
+        catch (UnauthorizedAccessException)
+        {
+        }
+    }
+
+    [GeneratedRegex(@"Now listening on:\s*(http://\S+)")]
+    private static partial Regex ListeningLine();
+}

@@ -1,0 +1,48 @@
+namespace OpsLvp.EndToEnd.Tests.Infrastructure;
+
+/// <summary>
+/// A small invented aerodrome profile for end-to-end runs: one LVP runway with three direct-RVR sensors, a
+/// ceilometer, two teams and short dwells (escalation at once, recovery after 60 s). Values are invented and
+/// illustrative, not any aerodrome's approved values.
+/// </summary>
+public static class TestProfile
+{
+    public const string Tdz = "rvr-09-tdz";
+    public const string Mid = "rvr-09-mid";
+    public const string End = "rvr-09-end";
+    public const string Ceilometer = "ceilo-test";
+
+    public const string Json = """
+        {
+          "version": "e2e-1 (invented)",
+          "aerodrome": { "id": "XTST", "name": "Test Field (invented)", "timeZone": "Europe/Lisbon", "illustrative": true },
+          "runways": [ { "id": "09/27", "directions": ["09", "27"], "lvp": true, "directionInUse": "09" } ],
+          "sensors": [
+            { "id": "rvr-09-tdz", "type": "rvrSystem", "runway": "09/27", "sites": { "09": "tdz", "27": "end" } },
+            { "id": "rvr-09-mid", "type": "rvrSystem", "runway": "09/27", "sites": { "09": "mid", "27": "mid" } },
+            { "id": "rvr-09-end", "type": "rvrSystem", "runway": "09/27", "sites": { "09": "end", "27": "tdz" } },
+            { "id": "ceilo-test", "type": "ceilometer" }
+          ],
+          "teams": [ { "id": "apron", "name": "Apron desk (invented)" }, { "id": "lights", "name": "Lighting crew (invented)" } ],
+          "maxAgeSeconds": { "rvr": 120, "cloudBase": 180, "verticalVisibility": 180, "visibility": 180 },
+          "governingPositions": ["tdz", "mid", "end"],
+          "thresholds": {
+            "preparation": { "rvrBelowM": 1000, "rvrRecoverM": 1200, "ceilingBelowFt": 300, "ceilingRecoverFt": 400, "enterDwellSeconds": 0, "recoverDwellSeconds": 60 },
+            "active": { "rvrBelowM": 550, "rvrRecoverM": 650, "ceilingBelowFt": 200, "ceilingRecoverFt": 250, "enterDwellSeconds": 0, "recoverDwellSeconds": 60 }
+          },
+          "confirm": [],
+          "checklists": {
+            "preparation": [
+              { "id": "prep-works", "text": "Stop airside works (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 20 },
+              { "id": "prep-lights", "text": "Check stop bars (invented)", "team": "lights", "mandatory": true, "dueWithinMinutes": 15 }
+            ],
+            "active": [
+              { "id": "act-areas", "text": "Keep ILS critical areas clear (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 10 }
+            ],
+            "cancellation": [
+              { "id": "can-release", "text": "Release the ILS areas (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 10 }
+            ]
+          }
+        }
+        """;
+}
