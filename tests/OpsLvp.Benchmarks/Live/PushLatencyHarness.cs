@@ -1,0 +1,220 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.Net.Http.Json;
+using System.Text.Json;
+using Microsoft.AspNetCore.SignalR.Client;
+using OpsLvp.Benchmarks.Reporting;
+using OpsLvp.Data;
+using OpsLvp.Data.Stores;
+
+namespace OpsLvp.Benchmarks.Live;
+
+/// <summary>
+/// Reading accepted → <c>state</c> received, per SignalR .NET client on <c>/hubs/lvp</c> of the real server
+/// (in-process Kestrel on 127.0.0.1), beside a bare hub broadcasting a payload of the same size to the same number
+/// of clients in the same run. t0 is taken just before POST /api/readings (or POST /bare) is sent, so both sides
+/// include the HTTP request. Bounded: fixed rounds, 10 s timeout per round, loopback only.
+/// </summary>
+public static class PushLatencyHarness
+{
+    /// <summary>An RVR system sensor of the demo profile (reports RVR directly) at 07R end, a governing position.</summary>
+    public const string Sensor = "rvr-07r-end";
+
+    private static readonly TimeSpan RoundTimeout = TimeSpan.FromSeconds(10);
+
+    public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
+    {
+        int[] counts = options.Quick ? [1, 20, 50] : [1, 100, 500];
+        var rounds = options.Quick ? 5 : 20;
+        const string section = "Live push latency (reading posted → state received, per client)";
+        var commit = await MeasureAuditCommitAsync(options.Quick ? 10 : 30);
+        book.Add(new ResultRow(section, "one audit commit (AuditStore.AppendAsync, 1 entry + engine state, FULL; median)", Ms(commit), null, null, null, null, command));
+
+        await using var server = BenchServer.Start();
+        await using var bare = await BareServer.StartAsync();
+        using var http = new HttpClient { Timeout = TimeSpan.FromSeconds(20) };
+        var payloadChars = 0;
+        var value = 1500;
+        foreach (var n in counts)
+        {
+            Latencies? ours = null;
+            string? failure = null;
+            try
+            {
+                (ours, payloadChars) = await MeasureAsync(new Uri(server.BaseAddress, "/hubs/lvp"), n, rounds, () => string.Create(CultureInfo.InvariantCulture, $":{NextValue(value)}"), async () =>
+                {
+                    value = NextValue(value);
+                    var body = new { readings = new[] { new { time = TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture), sensor = Sensor, kind = "rvr", value, status = "ok" } } };
+                    using var request = new HttpRequestMessage(HttpMethod.Post, new Uri(server.BaseAddress, "/api/readings")) { Content = JsonContent.Create(body) };
+                    request.Headers.Add("X-Api-Key", BenchServer.PushKey);
+                    using var response = await http.SendAsync(request);
+                    response.EnsureSuccessStatusCode();
+                });
+            }
+            catch (Exception ex) when (ex is HttpRequestException or TimeoutException or InvalidOperationException)
+            {
+                failure = ex.Message.ReplaceLineEndings(" ");
+            }
+            BareServer.PayloadChars = payloadChars > 0 ? payloadChars : 4096;
+            var (bareLatencies, _) = await MeasureAsync(new Uri(bare.BaseAddress, "/hubs/bare"), n, rounds, () => null, async () =>
+            {
+                using var response = await http.PostAsync(new Uri(bare.BaseAddress, "/bare"), null);
+                response.EnsureSuccessStatusCode();
+            });
+            if (ours is null)
+            {
+                book.Add(new ResultRow(section, $"ours, {n} clients", "not measured", null, null, null, $"/hubs/lvp or POST /api/readings failed on this build: {failure}", command));
+            }
+            else
+            {
+                var budget = bareLatencies.P99 + commit + 5;
+                book.Add(new ResultRow(section, $"ours, {n} clients: {ours}", Ms(ours.P99), ours.P99 / bareLatencies.P99, "bare p99", null,
+                    n == counts[^1] ? $"{(ours.P99 <= budget ? "met" : "MISSED")}: p99 ≤ bare p99 + commit + 5 ms = {budget:0.00} ms" : null, command));
+            }
+            book.Add(new ResultRow(section, $"bare hub, {n} clients: {bareLatencies}", Ms(bareLatencies.P99), null, null, null, null, command));
+            if (ours is not null)
+            {
+                book.Add(new ResultRow(section, $"ours − bare, {n} clients (p50 / p99 / max)",
+                    string.Create(CultureInfo.InvariantCulture, $"{ours.P50 - bareLatencies.P50:0.00} / {ours.P99 - bareLatencies.P99:0.00} / {ours.Max - bareLatencies.Max:0.00} ms"), null, null, null, null, command));
+            }
+        }
+        book.Note(string.Create(CultureInfo.InvariantCulture, $"Push latency: {rounds} rounds per client count, state payload {payloadChars} characters (bare payload {BareServer.PayloadChars}), clients and server in one process on loopback."));
+    }
+
+    /// <summary>Connects <paramref name="n"/> clients, runs <paramref name="rounds"/> posts and returns every client's latency of every round.</summary>
+    /// <param name="marker">Text the awaited message must contain (the posted value), so a heartbeat snapshot is not taken for the answer; null: any message.</param>
+    private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, int n, int rounds, Func<string?> marker, Func<Task> post)
+    {
+        var clients = new List<Client>(n);
+        try
+        {
+            using var throttle = new SemaphoreSlim(50);
+            var connecting = Enumerable.Range(0, n).Select(async _ =>
+            {
+                await throttle.WaitAsync();
+                try
+                {
+                    var client = new Client(hub);
+                    lock (clients)
+                    {
+                        clients.Add(client);
+                    }
+                    await client.StartAsync();
+                }
+                finally
+                {
+                    throttle.Release();
+                }
+            });
+            await Task.WhenAll(connecting);
+            // One unmeasured round warms up both paths.
+            var samples = new List<double>(n * rounds);
+            for (var round = -1; round < rounds; round++)
+            {
+                await Task.Delay(150);
+                var expected = marker();
+                foreach (var c in clients)
+                {
+                    c.Arm(expected);
+                }
+                var t0 = Stopwatch.GetTimestamp();
+                await post();
+                var all = Task.WhenAll(clients.Select(c => c.Received));
+                if (await Task.WhenAny(all, Task.Delay(RoundTimeout)) != all)
+                {
+                    throw new TimeoutException($"not every client received 'state' within {RoundTimeout.TotalSeconds} s ({clients.Count(c => c.Received.IsCompleted)}/{n})");
+                }
+                if (round >= 0)
+                {
+                    samples.AddRange(clients.Select(c => Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds));
+                }
+            }
+            return (new Latencies(samples), clients.Max(c => c.LastPayloadChars));
+        }
+        finally
+        {
+            await Task.WhenAll(clients.Select(c => c.DisposeAsync().AsTask()));
+        }
+    }
+
+    private static async Task<double> MeasureAuditCommitAsync(int appends)
+    {
+        var folder = Path.Combine(Path.GetTempPath(), "opslvp-bench", Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(folder);
+        try
+        {
+            var factory = new OpsLvpDbContextFactory(OpsLvpDatabase.SqliteOptions($"Data Source={Path.Combine(folder, "commit.db")}"));
+            await DatabaseStartup.MigrateAndCheckAsync(factory);
+            using var store = new AuditStore(factory);
+            var state = JsonSerializer.Serialize(new { phase = "normal", note = new string('s', 4000) });
+            var times = new List<double>(appends);
+            var at = new DateTimeOffset(2026, 1, 15, 0, 0, 0, TimeSpan.Zero);
+            for (var i = -3; i < appends; i++)
+            {
+                var start = Stopwatch.GetTimestamp();
+                await store.AppendAsync([new NewAuditEntry("system", "reading_applied", Audit.AuditAppendBenchmarks.Payload, at.AddSeconds(i + 3))], new EngineStateWrite(state, "bench", at));
+                if (i >= 0)
+                {
+                    times.Add(Stopwatch.GetElapsedTime(start).TotalMilliseconds);
+                }
+            }
+            return new Latencies(times).P50;
+        }
+        finally
+        {
+            Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
+            try
+            {
+                Directory.Delete(folder, recursive: true);
+            }
+            catch (IOException)
+            {
+                // A leftover temporary folder is harmless.
+            }
+        }
+    }
+
+    /// <summary>1500, 1510, … 1890, 1500, …: above the preparation threshold (phase stays normal), never twice in a row.</summary>
+    private static int NextValue(int value) => value >= 1890 ? 1500 : value + 10;
+
+    private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
+
+    /// <summary>One SignalR client that records when the first <c>state</c> after <see cref="Arm"/> carrying the marker arrives.</summary>
+    private sealed class Client : IAsyncDisposable
+    {
+        private readonly HubConnection _connection;
+        private TaskCompletionSource<long> _received = NewSource();
+        private volatile string? _marker;
+
+        public Client(Uri hub)
+        {
+            _connection = new HubConnectionBuilder().WithUrl(hub).Build();
+            _connection.On<JsonElement>("state", payload =>
+            {
+                var now = Stopwatch.GetTimestamp();
+                var text = payload.GetRawText();
+                LastPayloadChars = text.Length;
+                if (_marker is not { } marker || text.Contains(marker, StringComparison.Ordinal))
+                {
+                    Volatile.Read(ref _received).TrySetResult(now);
+                }
+            });
+        }
+
+        public int LastPayloadChars { get; private set; }
+
+        public Task<long> Received => Volatile.Read(ref _received).Task;
+
+        public Task StartAsync() => _connection.StartAsync();
+
+        public void Arm(string? marker)
+        {
+            _marker = marker;
+            Volatile.Write(ref _received, NewSource());
+        }
+
+        public ValueTask DisposeAsync() => _connection.DisposeAsync();
+
+        private static TaskCompletionSource<long> NewSource() => new(TaskCreationOptions.RunContinuationsAsynchronously);
+    }
+}
