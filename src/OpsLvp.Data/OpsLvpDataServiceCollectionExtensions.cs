@@ -14,10 +14,23 @@ public static class OpsLvpDataServiceCollectionExtensions
     public static IServiceCollection AddOpsLvpData(this IServiceCollection services, IConfiguration configuration, string? defaultConnectionString = null)
     {
         ArgumentNullException.ThrowIfNull(configuration);
-        services.AddDbContextFactory<OpsLvpDbContext>(b => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString));
+        return services.AddOpsLvpData(_ => configuration, _ => defaultConnectionString);
+    }
+
+    /// <summary>
+    /// The same, with the configuration and the default connection string taken from the built service provider
+    /// (a web host's test overrides are only visible there).
+    /// </summary>
+    public static IServiceCollection AddOpsLvpData(this IServiceCollection services, Func<IServiceProvider, IConfiguration> configuration, Func<IServiceProvider, string?> defaultConnectionString)
+    {
+        ArgumentNullException.ThrowIfNull(configuration);
+        ArgumentNullException.ThrowIfNull(defaultConnectionString);
+        services.AddDbContextFactory<OpsLvpDbContext>((sp, b) => OpsLvpDatabase.Configure(b, configuration(sp), defaultConnectionString(sp)));
         services.AddSingleton<ReadingStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();
+        services.AddSingleton<DisplayTokenStore>();
+        services.AddSingleton<ApiKeyStore>();
         return services;
     }
 }

@@ -1,4 +1,5 @@
 using MudBlazor.Services;
+using OpsLvp.Web.Access;
 using OpsLvp.Web.Components;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
@@ -11,23 +12,24 @@ builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
+builder.Services.AddAccess(builder.Configuration);
 
 var app = builder.Build();
 
 if (!app.Environment.IsDevelopment())
 {
     app.UseExceptionHandler("/Error", createScopeForErrors: true);
-    app.UseHsts();
 }
 
 app.UseStatusCodePagesWithReExecute("/not-found", createScopeForStatusCodePages: true);
-app.UseHttpsRedirection();
 app.UseAppAssets();
+app.UseAccess();
 app.UseAntiforgery();
 
 app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
+app.MapAccessEndpoints();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 app.Run();
