@@ -130,6 +130,7 @@ public static class AccessServiceCollectionExtensions
         services.AddSingleton<SetupGate>();
         services.AddSingleton<DemoAccounts>();
         services.AddScoped<UserAdmin>();
+        services.AddSingleton<CredentialAdmin>();
         services.AddSingleton<HubConnectionMonitor>();
         services.AddHostedService(sp => sp.GetRequiredService<HubConnectionMonitor>());
         services.AddHostedService<AccessStartup>();
