@@ -10,8 +10,7 @@ COPY --from=build /app/publish .
 COPY seed-demo /app/seed-demo
 COPY wwwroot-assets /app/wwwroot-assets
 ENV ASPNETCORE_URLS=http://+:8080 \
-    OpsLvp__DataFolder=/data \
-    OpsLvp__ContentRoot=/app
+    Storage__DataFolder=/data
 VOLUME ["/data"]
 EXPOSE 8080
 HEALTHCHECK --interval=30s --timeout=5s --start-period=30s --retries=3 \

@@ -14,18 +14,24 @@ public static class OpsLvpDataServiceCollectionExtensions
     public static IServiceCollection AddOpsLvpData(this IServiceCollection services, IConfiguration configuration, string? defaultConnectionString = null)
     {
         ArgumentNullException.ThrowIfNull(configuration);
-        return services.AddOpsLvpData(_ => configuration, _ => defaultConnectionString);
+        services.AddDbContextFactory<OpsLvpDbContext>(b => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString));
+        services.AddSingleton<ReadingStore>();
+        services.AddSingleton<AuditStore>();
+        services.AddSingleton<FeedHealthStore>();
+        services.AddSingleton<DisplayTokenStore>();
+        services.AddSingleton<ApiKeyStore>();
+        return services;
     }
 
     /// <summary>
-    /// The same, with the configuration and the default connection string taken from the built service provider
-    /// (a web host's test overrides are only visible there).
+    /// As above, with the default connection string worked out when the first context is made (e.g. from a data
+    /// folder that is only known once configuration is complete).
     /// </summary>
-    public static IServiceCollection AddOpsLvpData(this IServiceCollection services, Func<IServiceProvider, IConfiguration> configuration, Func<IServiceProvider, string?> defaultConnectionString)
+    public static IServiceCollection AddOpsLvpData(this IServiceCollection services, IConfiguration configuration, Func<IServiceProvider, string?> defaultConnectionString)
     {
         ArgumentNullException.ThrowIfNull(configuration);
         ArgumentNullException.ThrowIfNull(defaultConnectionString);
-        services.AddDbContextFactory<OpsLvpDbContext>((sp, b) => OpsLvpDatabase.Configure(b, configuration(sp), defaultConnectionString(sp)));
+        services.AddDbContextFactory<OpsLvpDbContext>((sp, b) => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString(sp)));
         services.AddSingleton<ReadingStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();

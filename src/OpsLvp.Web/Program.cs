@@ -1,9 +1,16 @@
 using MudBlazor.Services;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Components;
+using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Live;
 using OpsLvp.Web.Time;
+
+if (HealthCheckMode.Requested(args))
+{
+    return await HealthCheckMode.RunAsync(args);
+}
 
 var builder = WebApplication.CreateBuilder(args);
 
@@ -12,6 +19,7 @@ builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
+builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddAccess(builder.Configuration);
 
 var app = builder.Build();
@@ -29,7 +37,9 @@ app.UseAntiforgery();
 app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
+app.MapLiveApi();
 app.MapAccessEndpoints();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
-app.Run();
+await app.RunAsync();
+return 0;

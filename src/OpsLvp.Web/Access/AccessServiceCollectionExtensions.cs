@@ -7,10 +7,10 @@ using Microsoft.AspNetCore.Identity;
 using Microsoft.AspNetCore.SignalR;
 using Microsoft.Extensions.Options;
 using OpsLvp.Data;
+using OpsLvp.Web.Live;
 using OpsLvp.Data.Entities;
 using OpsLvp.Data.Stores;
 using OpsLvp.Web.Commands;
-using OpsLvp.Web.Hosting;
 
 namespace OpsLvp.Web.Access;
 
@@ -25,13 +25,10 @@ public static class AccessServiceCollectionExtensions
     /// <summary>How long a locked account stays locked (common practice).</summary>
     public static readonly TimeSpan LockoutDuration = TimeSpan.FromMinutes(15);
 
-    /// <summary>SQLite file in <c>Storage:DataFolder</c> when <c>OpsLvp:Database:ConnectionString</c> is not set.</summary>
-    public const string DatabaseFileName = "opslvp.db";
-
     /// <summary>
     /// Registers accounts (Identity on <see cref="OpsLvpDbContext"/>), the sign-in, display and API key schemes, the
-    /// policies, circuit and hub revalidation, the access stores and the first-start/demo account setup. Registers
-    /// the data layer too when nothing has yet (database file <c>opslvp.db</c> in <c>Storage:DataFolder</c>).
+    /// policies, circuit and hub revalidation and the first-start/demo account setup. Needs the data layer
+    /// (<c>AddLiveEngine</c> registers it).
     /// </summary>
     public static IServiceCollection AddAccess(this IServiceCollection services, IConfiguration configuration)
     {
@@ -49,12 +46,8 @@ public static class AccessServiceCollectionExtensions
                 "Access:HubMaxMessageBytes must be between 1024 and 1048576.")
             .ValidateOnStart();
 
-        if (!services.Any(d => d.ServiceType == typeof(AuditStore)))
-        {
-            services.AddOpsLvpData(
-                sp => sp.GetRequiredService<IConfiguration>(),
-                sp => $"Data Source={Path.Combine(sp.GetRequiredService<AppPaths>().DataFolder, DatabaseFileName)}");
-        }
+        // Live state (hub and GET /api/state) needs a role, a display token or a hub-read key.
+        LiveApi.HubPolicy = AccessPolicies.HubRead;
 
         services.AddIdentityCore<OpsLvpUser>(o =>
             {

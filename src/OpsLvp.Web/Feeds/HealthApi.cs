@@ -1,9 +1,10 @@
 using Microsoft.AspNetCore.Http.HttpResults;
+using OpsLvp.Web.Engine;
 using OpsLvp.Web.Time;
 
 namespace OpsLvp.Web.Feeds;
 
-/// <summary><c>GET /health</c>: liveness plus per-feed health (docs/feeds.md, "Health"). Always 200 while the server runs.</summary>
+/// <summary><c>GET /health</c>: liveness, per-feed health and the engine host's health (docs/feeds.md, "Health"). Always 200 while the server runs.</summary>
 public static class HealthApi
 {
     public static IEndpointRouteBuilder MapHealthApi(this IEndpointRouteBuilder endpoints)
@@ -12,7 +13,7 @@ public static class HealthApi
         return endpoints;
     }
 
-    private static Ok<HealthResponse> GetHealth(FeedHealthRegistry registry, DemoMode demo, TimeProvider clock)
+    private static Ok<HealthResponse> GetHealth(FeedHealthRegistry registry, DemoMode demo, TimeProvider clock, LiveEngineHost engine)
     {
         var feeds = registry.Snapshot();
         var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
@@ -22,6 +23,7 @@ public static class HealthApi
             demo.Enabled,
             demo.Enabled ? demo.Speed : null,
             FeedHealthDto.StatusText(worst),
-            feeds.Select(FeedHealthDto.From).ToList()));
+            feeds.Select(FeedHealthDto.From).ToList(),
+            engine.Health));
     }
 }

@@ -2,6 +2,7 @@ namespace OpsLvp.Web.Feeds;
 
 /// <summary>
 /// Body of <c>GET /health</c>. <c>status</c> is the server's liveness ("ok" whenever it answers);
-/// <c>feedsStatus</c> is the worst feed status ("ok" when there are no feeds).
+/// <c>feedsStatus</c> is the worst feed status ("ok" when there are no feeds); <c>engine</c> is the engine host's
+/// last evaluation and whether audit storage works.
 /// </summary>
-public sealed record HealthResponse(string Status, DateTimeOffset Time, bool Demo, double? DemoSpeed, string FeedsStatus, IReadOnlyList<FeedHealthDto> Feeds);
+public sealed record HealthResponse(string Status, DateTimeOffset Time, bool Demo, double? DemoSpeed, string FeedsStatus, IReadOnlyList<FeedHealthDto> Feeds, OpsLvp.Web.Engine.EngineHealth? Engine = null);

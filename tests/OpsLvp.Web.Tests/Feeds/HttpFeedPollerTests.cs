@@ -17,6 +17,8 @@ public sealed class HttpFeedPollerTests
         [$"Feeds:Http:{index}:Timeout"] = timeout,
         [$"Feeds:Http:{index}:Retries"] = "1",
         [$"Feeds:Http:{index}:RetryDelay"] = "00:00:00.050",
+        // these tests read the reading pipeline themselves, so the engine host must not consume it
+        ["Engine:Enabled"] = "false",
     };
 
     [Fact]

@@ -19,8 +19,11 @@ public sealed class OpsLvpApp : IAsyncDisposable
 {
     private readonly Factory _factory;
 
-    private OpsLvpApp(Factory factory, Uri baseAddress, string dataFolder)
+    private readonly bool _ownsDataFolder;
+
+    private OpsLvpApp(Factory factory, Uri baseAddress, string dataFolder, bool ownsDataFolder)
     {
+        _ownsDataFolder = ownsDataFolder;
         _factory = factory;
         BaseAddress = baseAddress;
         DataFolder = dataFolder;
@@ -40,9 +43,14 @@ public sealed class OpsLvpApp : IAsyncDisposable
 
     public FeedHealthRegistry Health => Services.GetRequiredService<FeedHealthRegistry>();
 
-    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null)
+    /// <summary>A fresh temporary data folder (deleted by the caller when it passes it to <see cref="Start"/>).</summary>
+    public static string NewDataFolder() => Path.Combine(Path.GetTempPath(), "opslvp-tests", Guid.NewGuid().ToString("N"));
+
+    /// <summary>Starts the app; with <paramref name="dataFolder"/> it uses (and keeps) that folder, e.g. to restart on the same database.</summary>
+    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null, string? dataFolder = null)
     {
-        var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-tests", Guid.NewGuid().ToString("N"));
+        var owns = dataFolder is null;
+        dataFolder ??= NewDataFolder();
         Directory.CreateDirectory(dataFolder);
         var all = new Dictionary<string, string?>
         {
@@ -64,12 +72,15 @@ public sealed class OpsLvpApp : IAsyncDisposable
         catch
         {
             factory.Dispose();
-            TryDelete(dataFolder);
+            if (owns)
+            {
+                TryDelete(dataFolder);
+            }
             throw;
         }
 
         var address = factory.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses.Single();
-        return new OpsLvpApp(factory, new Uri(address), dataFolder);
+        return new OpsLvpApp(factory, new Uri(address), dataFolder, owns);
     }
 
     /// <summary>GET /health, asserting the server answers 200 (it must stay healthy whatever the feeds do).</summary>
@@ -112,10 +123,13 @@ public sealed class OpsLvpApp : IAsyncDisposable
     {
         Client.Dispose();
         await _factory.DisposeAsync();
-        TryDelete(DataFolder);
+        if (_ownsDataFolder)
+        {
+            TryDelete(DataFolder);
+        }
     }
 
-    private static void TryDelete(string folder)
+    public static void TryDelete(string folder)
     {
         try
         {

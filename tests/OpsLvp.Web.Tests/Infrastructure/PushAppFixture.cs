@@ -16,6 +16,7 @@ public sealed class PushAppFixture : IAsyncLifetime
         {
             ["Feeds:Push:ApiKeys:0:Name"] = "station-a",
             ["Feeds:Push:ApiKeys:0:Key"] = Key,
+            ["Engine:Enabled"] = "false", // the push tests read the pipeline themselves
             ["Feeds:Push:MaxBodyBytes"] = MaxBodyBytes.ToString(System.Globalization.CultureInfo.InvariantCulture),
         });
         return Task.CompletedTask;

@@ -57,6 +57,7 @@ public sealed class ShellTests
                 ["Demo:Start"] = "2026-01-15T02:00:00Z",
                 ["Demo:ScenarioPath"] = scenario,
                 ["Demo:ActionsPath"] = "",
+                ["Engine:Enabled"] = "false", // the test reads the pipeline itself
             });
 
             var html = WebUtility.HtmlDecode(await app.Client.GetStringAsync(new Uri("/", UriKind.Relative)));

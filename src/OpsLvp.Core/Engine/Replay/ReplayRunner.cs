@@ -1,3 +1,4 @@
+using OpsLvp.Core.Optics;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 
@@ -8,7 +9,9 @@ namespace OpsLvp.Core.Engine.Replay;
 /// (the CLI's `opslvp replay` and the server's review and what-if use this):
 /// readings in the given (file) order, each evaluated at now = max(its time, previous now), so an
 /// out-of-order reading is ignored for state as it would be live (DESIGN R2); actions merged by time, a
-/// reading first when times are equal. The engine starts at the first input's instant.
+/// reading first when times are equal. The engine starts at the first input's instant. Raw extinction and
+/// transmittance readings are turned into RVR by <see cref="RvrDerivation"/> and the derived RVR reading is
+/// evaluated with its raw reading, as the live host does.
 /// </summary>
 public static class ReplayRunner
 {
@@ -23,6 +26,7 @@ public static class ReplayRunner
         ArgumentNullException.ThrowIfNull(readings);
         ArgumentNullException.ThrowIfNull(actions);
         var engine = new LvpEngine(profile);
+        var derivation = new RvrDerivation(profile);
         var ordered = actions.Select((a, i) => (a, i)).OrderBy(x => x.a.Time).ThenBy(x => x.i).Select(x => x.a).ToList();
         var firsts = new List<DateTimeOffset>();
         if (readings.Count > 0)
@@ -45,18 +49,19 @@ public static class ReplayRunner
         while (r < readings.Count || a < ordered.Count)
         {
             var readingNow = r < readings.Count ? Max(readings[r].Time, now) : (DateTimeOffset?)null;
-            EngineInput input;
+            List<EngineInput> inputs;
             if (a < ordered.Count && (readingNow is null || ordered[a].Time < readingNow))
             {
                 now = Max(ordered[a].Time, now);
-                input = ordered[a++].Command;
+                inputs = [ordered[a++].Command];
             }
             else
             {
                 now = readingNow!.Value;
-                input = new ReadingInput(readings[r++]);
+                var reading = readings[r++];
+                inputs = [new ReadingInput(reading), .. derivation.Observe(reading).Select(d => new ReadingInput(d))];
             }
-            var result = engine.Evaluate(state, [input], now);
+            var result = engine.Evaluate(state, inputs, now);
             state = result.State;
             events.AddRange(result.Events);
         }

@@ -1,0 +1,38 @@
+using System.Text.Json;
+using OpsLvp.Core.Engine;
+using OpsLvp.Core.Engine.Replay;
+using OpsLvp.Data.Stores;
+
+namespace OpsLvp.Web.Engine;
+
+/// <summary>
+/// Which engine events become audit entries (DESIGN R12) and how: kind = the replay event name
+/// (<see cref="EventJson.Name"/>), payload = its JSON line, actor = the person for commands and manual
+/// actions, <see cref="EngineActor"/> otherwise. Accepted and rejected readings are not audited one by one:
+/// they are kept in the readings table with their reject reason.
+/// </summary>
+public static class AuditEvents
+{
+    /// <summary>Actor of entries the engine or the host made on its own.</summary>
+    public const string EngineActor = "engine";
+
+    public static bool IsAudited(EngineEvent e) => e is not ReadingRejected;
+
+    public static string ActorOf(EngineEvent e) => e switch
+    {
+        PhaseTransition { Actor: { } a } => a,
+        TransitionConfirmed c => c.Actor,
+        ItemTicked t => t.Tick.User,
+        ItemUnticked u => u.Actor,
+        AlarmAcknowledged a => a.Actor,
+        ManualActionApplied m => m.Actor,
+        CommandRefused c => c.Command.Actor,
+        _ => EngineActor,
+    };
+
+    public static NewAuditEntry ToEntry(EngineEvent e) => new(ActorOf(e), EventJson.Name(e), EventJson.ToLine(e), e.At);
+
+    /// <summary>An entry the host itself records (feed lost/restored, audit storage recovered).</summary>
+    public static NewAuditEntry HostEntry(string kind, DateTimeOffset at, object payload) =>
+        new(EngineActor, kind, JsonSerializer.Serialize(payload, JsonSerializerOptions.Web), at);
+}

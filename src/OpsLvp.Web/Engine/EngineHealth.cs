@@ -1,0 +1,9 @@
+namespace OpsLvp.Web.Engine;
+
+/// <summary>The engine host's part of <c>/health</c>: <c>audit</c> is <c>ok</c> or <c>failing</c>.</summary>
+/// <param name="Running">The host has loaded the profile and state and is evaluating.</param>
+/// <param name="LastEvaluationAt">App-clock instant of the last committed evaluation.</param>
+/// <param name="Audit">"ok" or "failing".</param>
+/// <param name="AuditError">The last commit error while failing.</param>
+/// <param name="ProfileVersion">The profile in use.</param>
+public sealed record EngineHealth(bool Running, DateTimeOffset? LastEvaluationAt, string Audit, string? AuditError, string? ProfileVersion);

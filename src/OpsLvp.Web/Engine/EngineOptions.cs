@@ -1,0 +1,22 @@
+namespace OpsLvp.Web.Engine;
+
+/// <summary>Configuration section <c>Engine</c>: the live engine host (docs/feeds.md, "Engine host").</summary>
+public sealed class EngineOptions
+{
+    public const string SectionName = "Engine";
+
+    /// <summary>Runs the engine host. Off only for tests that read the reading pipeline themselves.</summary>
+    public bool Enabled { get; set; } = true;
+
+    /// <summary>Aerodrome profile JSON; relative paths are looked up from the content root upwards.</summary>
+    public string ProfilePath { get; set; } = "seed-demo/profile.json";
+
+    /// <summary>Real time between evaluations when no reading arrives (at most 1 s, DESIGN R7 "live within 1 s").</summary>
+    public TimeSpan TickInterval { get; set; } = TimeSpan.FromMilliseconds(500);
+
+    /// <summary>
+    /// Real time after which the state is written even when only the latest readings changed. Any change of phase,
+    /// dwell timers, pending, hold, items, alarms, forecast or service marks is written at once, with its audit entries.
+    /// </summary>
+    public TimeSpan StateFlushInterval { get; set; } = TimeSpan.FromSeconds(10);
+}

@@ -1,0 +1,38 @@
+using OpsLvp.Data;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Live;
+
+namespace OpsLvp.Web.Engine;
+
+public static class EngineServiceCollectionExtensions
+{
+    /// <summary>File name of the SQLite database in the data folder when no connection string is configured.</summary>
+    public const string DatabaseFileName = "opslvp.db";
+
+    /// <summary>
+    /// Registers the database (default: SQLite file in <c>Storage:DataFolder</c>), <see cref="EngineOptions"/>, the
+    /// <see cref="LiveEngineHost"/>, <see cref="LiveState"/>, the hub and its broadcaster, the command service and the
+    /// demo action runner. Needs <c>AddAppPaths</c>, <c>AddAppClock</c> and <c>AddFeeds</c>.
+    /// </summary>
+    public static IServiceCollection AddLiveEngine(this IServiceCollection services, IConfiguration configuration)
+    {
+        // resolved when first needed: configuration is complete only once the app is built
+        services.AddOpsLvpData(configuration, sp => $"Data Source={Path.Combine(sp.GetRequiredService<AppPaths>().DataFolder, DatabaseFileName)}");
+        services.AddOptions<EngineOptions>()
+            .Bind(configuration.GetSection(EngineOptions.SectionName))
+            .Validate(o => !string.IsNullOrWhiteSpace(o.ProfilePath), "Engine:ProfilePath must be set.")
+            .Validate(o => o.TickInterval > TimeSpan.Zero && o.TickInterval <= TimeSpan.FromSeconds(1), "Engine:TickInterval must be between 00:00:00.001 and 00:00:01.")
+            .Validate(o => o.StateFlushInterval > TimeSpan.Zero && o.StateFlushInterval <= TimeSpan.FromMinutes(5), "Engine:StateFlushInterval must be between 00:00:00.001 and 00:05:00.")
+            .ValidateOnStart();
+        services.AddSingleton<LiveState>();
+        services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
+        services.AddSingleton<LiveEngineHost>();
+        services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
+        services.AddSingleton<ILvpCommandService, LvpCommandService>();
+        services.AddHostedService<DemoActionRunner>();
+        services.AddSignalR().AddJsonProtocol(o => LiveJson.Configure(o.PayloadSerializerOptions));
+        services.AddHostedService<HubBroadcaster>();
+        return services;
+    }
+}

@@ -1,0 +1,427 @@
+using Microsoft.EntityFrameworkCore;
+using Microsoft.Extensions.Options;
+using OpsLvp.Core.Engine;
+using OpsLvp.Core.Optics;
+using OpsLvp.Core.Profile;
+using OpsLvp.Core.Readings;
+using OpsLvp.Data;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Hosting;
+using OpsLvp.Web.Live;
+using OpsLvp.Web.Time;
+
+namespace OpsLvp.Web.Engine;
+
+/// <summary>
+/// The live heart of the server (DESIGN §2, R7, R12). At start: migrate and check the database, load the validated
+/// profile, restore the persisted engine state (restart recovery: phase, episode, holds, pending, items and running
+/// dwells, which are start instants), and evaluate at "now" so dwells that completed while the server was down fire
+/// at their exact instants. Then it evaluates on every reading batch and on a tick, one evaluation at a time.
+/// <para>Each evaluation stores the batch's readings (with reject reasons), then commits one audit entry per
+/// meaningful event together with the new state in ONE <see cref="AuditStore.AppendAsync"/>; only after that
+/// commit does the state become current and get published. A failed commit keeps the old state, raises the
+/// audit-storage-failing alarm and retries on the next evaluation (readings are carried over).</para>
+/// <para>State write rule: the state row is written with every evaluation that has audit entries, whenever any part
+/// other than the latest readings and the evaluation instant changed (dwell start instants in HoldingSince, phase,
+/// pending, hold, items, alarms, forecast, service marks, escalation measure), and otherwise at most every
+/// <see cref="EngineOptions.StateFlushInterval"/>. So a running dwell's start instant is durable before the
+/// evaluation that started it returns; after a kill only up to one flush interval of latest readings is lost.</para>
+/// </summary>
+public sealed class LiveEngineHost(
+    IOptions<EngineOptions> options,
+    ContentPaths paths,
+    IDbContextFactory<OpsLvpDbContext> dbFactory,
+    AuditStore audit,
+    ReadingStore readingStore,
+    ReadingPipeline pipeline,
+    FeedHealthRegistry feeds,
+    LiveState live,
+    DemoMode demo,
+    TimeProvider clock,
+    [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
+    ILogger<LiveEngineHost> logger) : BackgroundService
+{
+    private const int MaxCarriedReadings = 10_000;
+
+    private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
+
+    private readonly SemaphoreSlim _gate = new(1, 1);
+    private readonly Dictionary<string, FeedStatus> _feedStatus = new(StringComparer.Ordinal);
+    private readonly List<Reading> _carried = [];
+    private LvpEngine? _engine;
+    private RvrDerivation? _derivation;
+    private RvrTrends? _trends;
+    private EngineState? _state;
+    private EngineState? _written;
+    private DateTimeOffset _lastWriteReal;
+    private DateTimeOffset _lastPublishReal;
+    private EngineState? _published;
+    private long _version;
+    private string? _auditError;
+    private DateTimeOffset? _auditFailingSince;
+    private DateTimeOffset? _lastEvaluationAt;
+
+    /// <summary>The profile in use; null before start or when the host is disabled.</summary>
+    public AerodromeProfile? Profile => _engine?.Profile;
+
+    /// <summary>The current (committed) state; null before start.</summary>
+    public EngineState? State => _state;
+
+    public EngineHealth Health => new(
+        _engine is not null,
+        _lastEvaluationAt,
+        _auditError is null ? "ok" : "failing",
+        _auditError,
+        _engine?.Profile.Version);
+
+    public override async Task StartAsync(CancellationToken cancellationToken)
+    {
+        var o = options.Value;
+        if (!o.Enabled)
+        {
+            logger.LogWarning("Engine host disabled (Engine:Enabled=false): no evaluation, no live state");
+            return;
+        }
+        try
+        {
+            await DatabaseStartup.MigrateAndCheckAsync(dbFactory, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogCritical(ex, "OpsLvp cannot start: the database could not be migrated or is not durable: {Error}", ex.Message);
+            throw new InvalidOperationException($"OpsLvp cannot start: the database could not be migrated or is not durable (WAL + synchronous=FULL): {ex.Message}", ex);
+        }
+        var path = paths.Resolve(o.ProfilePath);
+        AerodromeProfile profile;
+        try
+        {
+            profile = ProfileValidator.LoadValidated(path);
+        }
+        catch (Exception ex) when (ex is ProfileException or IOException or UnauthorizedAccessException)
+        {
+            logger.LogCritical("OpsLvp cannot start: Engine:ProfilePath '{Path}': {Error}", path, ex.Message);
+            throw new InvalidOperationException($"OpsLvp cannot start: Engine:ProfilePath '{path}': {ex.Message}", ex);
+        }
+        _engine = new LvpEngine(profile);
+        _derivation = new RvrDerivation(profile);
+        _trends = new RvrTrends(profile);
+        var now = clock.GetUtcNow();
+        var persisted = await audit.GetLatestStateAsync(cancellationToken);
+        var restored = false;
+        if (persisted is not null)
+        {
+            try
+            {
+                _state = EngineStateJson.Deserialize(persisted.StateJson);
+                restored = true;
+                if (persisted.ProfileVersion != profile.Version)
+                {
+                    logger.LogWarning("Restored state was saved with profile {Old}; now running {New}", persisted.ProfileVersion, profile.Version);
+                }
+            }
+            catch (System.Text.Json.JsonException ex)
+            {
+                logger.LogError(ex, "The stored engine state could not be read; starting from the initial state");
+            }
+        }
+        _state ??= _engine.Initial(now);
+        _written = restored ? _state : null;
+        var started = AuditEvents.HostEntry("engine_started", now, new
+        {
+            profile = profile.Version,
+            restored,
+            restoredPhase = restored ? _state.Phase.ToString() : null,
+            stateEvaluatedAt = restored ? _state.EvaluatedAt : (DateTimeOffset?)null,
+        });
+        logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
+        await EvaluateAsync(null, null, [started], cancellationToken);
+        await base.StartAsync(cancellationToken);
+    }
+
+    /// <summary>Evaluates one command through the single evaluation path (used by the command service).</summary>
+    public Task<EvaluationOutcome> ExecuteAsync(EngineCommand command, CancellationToken cancellationToken = default) =>
+        EvaluateAsync(null, command, [], cancellationToken);
+
+    protected override Task ExecuteAsync(CancellationToken stoppingToken) =>
+        Task.WhenAll(ConsumeReadingsAsync(stoppingToken), TickAsync(stoppingToken));
+
+    private async Task ConsumeReadingsAsync(CancellationToken stoppingToken)
+    {
+        await Task.Yield();
+        try
+        {
+            await foreach (var batch in pipeline.ReadAllAsync(stoppingToken))
+            {
+                await EvaluateGuardedAsync(batch, stoppingToken);
+            }
+        }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+        }
+    }
+
+    private async Task TickAsync(CancellationToken stoppingToken)
+    {
+        var interval = options.Value.TickInterval;
+        if (interval <= TimeSpan.Zero || interval > TimeSpan.FromSeconds(1))
+        {
+            interval = TimeSpan.FromSeconds(1);
+        }
+        using var timer = new PeriodicTimer(interval, realClock);
+        try
+        {
+            while (await timer.WaitForNextTickAsync(stoppingToken))
+            {
+                await EvaluateGuardedAsync(null, stoppingToken);
+            }
+        }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+        }
+    }
+
+    private async Task EvaluateGuardedAsync(ReadingBatch? batch, CancellationToken stoppingToken)
+    {
+        try
+        {
+            await EvaluateAsync(batch, null, [], stoppingToken);
+        }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+            throw;
+        }
+        catch (Exception ex)
+        {
+            // Nothing a feed sends may stop the engine loop.
+            logger.LogError(ex, "Evaluation failed");
+        }
+    }
+
+    private async Task<EvaluationOutcome> EvaluateAsync(ReadingBatch? batch, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    {
+        if (_engine is null || _state is null)
+        {
+            return new EvaluationOutcome(false, [], [], "the engine host is not running");
+        }
+        await _gate.WaitAsync(cancellationToken);
+        try
+        {
+            return await EvaluateLockedAsync(batch, command, hostEntries, cancellationToken);
+        }
+        finally
+        {
+            _gate.Release();
+        }
+    }
+
+    private async Task<EvaluationOutcome> EvaluateLockedAsync(ReadingBatch? batch, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    {
+        var engine = _engine!;
+        var old = _state!;
+        var now = clock.GetUtcNow();
+        var realNow = realClock.GetUtcNow();
+
+        var inputs = new List<EngineInput>();
+        var fresh = new List<(Reading Reading, string Source)>();
+        foreach (var r in _carried)
+        {
+            inputs.Add(new ReadingInput(r));
+        }
+        if (batch is not null)
+        {
+            foreach (var r in batch.Readings)
+            {
+                if (r is null)
+                {
+                    continue;
+                }
+                inputs.Add(new ReadingInput(r));
+                fresh.Add((r, batch.Source));
+                foreach (var d in _derivation!.Observe(r))
+                {
+                    inputs.Add(new ReadingInput(d));
+                    fresh.Add((d, batch.Source + ":derived"));
+                }
+            }
+        }
+        if (command is not null)
+        {
+            inputs.Add(command);
+        }
+
+        var result = engine.Evaluate(old, inputs, now);
+        var rejected = new Dictionary<Reading, ReadingRejected>(ReferenceEqualityComparer.Instance);
+        foreach (var e in result.Events)
+        {
+            if (e is ReadingRejected rr)
+            {
+                rejected.TryAdd(rr.Reading, rr);
+            }
+        }
+
+        if (batch is not null)
+        {
+            await StoreReadingsAsync(batch, fresh, rejected, cancellationToken);
+        }
+
+        var entries = new List<NewAuditEntry>();
+        if (_auditError is not null)
+        {
+            entries.Add(AuditEvents.HostEntry("audit_storage_recovered", now, new { failingSince = _auditFailingSince, lastError = _auditError }));
+        }
+        entries.AddRange(hostEntries);
+        entries.AddRange(result.Events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry));
+        var feedSnapshot = feeds.Snapshot();
+        var feedChanges = FeedChanges(feedSnapshot, now);
+        entries.AddRange(feedChanges.Select(c => c.Entry));
+
+        var state = result.State;
+        var mustWrite = entries.Count > 0
+            || _written is null
+            || !Structural(state).Equals(Structural(_written))
+            || realNow - _lastWriteReal >= options.Value.StateFlushInterval;
+        IReadOnlyList<OpsLvp.Core.Audit.AuditEntry> committed = [];
+        if (mustWrite)
+        {
+            try
+            {
+                committed = await audit.AppendAsync(
+                    entries,
+                    new EngineStateWrite(EngineStateJson.Serialize(state), engine.Profile.Version, now),
+                    cancellationToken);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+            {
+                var error = ex is AuditCommitException ? ex.Message : $"{ex.GetType().Name}: {ex.Message}";
+                if (_auditError is null)
+                {
+                    _auditFailingSince = now;
+                }
+                _auditError = error;
+                logger.LogError(ex, "Audit storage failing; state not applied: {Error}", error);
+                CarryOver(fresh, rejected);
+                Publish(old, now, realNow, force: true);
+                return new EvaluationOutcome(false, result.Events, [], error);
+            }
+            _written = state;
+            _lastWriteReal = realNow;
+        }
+        _auditError = null;
+        _auditFailingSince = null;
+        _carried.Clear();
+        foreach (var (name, status) in feedChanges.Select(c => (c.Name, c.Status)))
+        {
+            _feedStatus[name] = status;
+        }
+        foreach (var (reading, _) in fresh)
+        {
+            if (!rejected.ContainsKey(reading))
+            {
+                _trends!.Add(reading);
+            }
+        }
+        _state = state;
+        _lastEvaluationAt = now;
+        Publish(state, now, realNow, force: result.Events.Count > 0 || entries.Count > 0);
+        return new EvaluationOutcome(true, result.Events, committed, null);
+    }
+
+    /// <summary>The state without the parts that change with every reading (they are flushed on the interval).</summary>
+    private static EngineState Structural(EngineState s) => s with
+    {
+        EvaluatedAt = default,
+        Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty,
+    };
+
+    private void CarryOver(List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected)
+    {
+        foreach (var (reading, _) in fresh)
+        {
+            if (!rejected.ContainsKey(reading) && _carried.Count < MaxCarriedReadings)
+            {
+                _carried.Add(reading);
+            }
+        }
+    }
+
+    private List<(string Name, FeedStatus Status, NewAuditEntry Entry)> FeedChanges(IReadOnlyList<OpsLvp.Web.Feeds.FeedHealth> snapshot, DateTimeOffset now)
+    {
+        var changes = new List<(string, FeedStatus, NewAuditEntry)>();
+        foreach (var f in snapshot)
+        {
+            if (!_feedStatus.TryGetValue(f.Name, out var before))
+            {
+                _feedStatus[f.Name] = f.Status;
+                continue;
+            }
+            if (before == f.Status)
+            {
+                continue;
+            }
+            var kind = f.Status switch
+            {
+                FeedStatus.Ok => "feed_restored",
+                FeedStatus.Down => "feed_lost",
+                _ => "feed_degraded",
+            };
+            changes.Add((f.Name, f.Status, AuditEvents.HostEntry(kind, now, new
+            {
+                feed = f.Name,
+                from = FeedHealthDto.StatusText(before),
+                to = FeedHealthDto.StatusText(f.Status),
+                detail = f.StatusDetail,
+                lastError = f.LastError,
+            })));
+        }
+        return changes;
+    }
+
+    private async Task StoreReadingsAsync(ReadingBatch batch, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)
+    {
+        var rows = new List<ReceivedReading>(fresh.Count + batch.Rejections.Count);
+        foreach (var j in batch.Rejections)
+        {
+            rows.Add(new ReceivedReading(batch.ReceivedAt, batch.Source, j.SensorId ?? "", "unparsed", null, null, null, false, j.Reason, $"item {j.Index}: {j.Detail}"));
+        }
+        foreach (var (reading, source) in fresh)
+        {
+            rows.Add(rejected.TryGetValue(reading, out var why)
+                ? ReceivedReading.Reject(reading, batch.ReceivedAt, source, why.Reason, why.Detail)
+                : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
+        }
+        try
+        {
+            await readingStore.InsertAsync(rows, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogError(ex, "Readings from {Source} could not be stored", batch.Source);
+        }
+    }
+
+    private void Publish(EngineState state, DateTimeOffset now, DateTimeOffset realNow, bool force)
+    {
+        var changed = _published is null || !(state with { EvaluatedAt = default }).Equals(_published with { EvaluatedAt = default });
+        if (!force && !changed && realNow - _lastPublishReal < s_heartbeat)
+        {
+            return;
+        }
+        _version = Math.Max(_version + 1, realNow.ToUnixTimeMilliseconds());
+        Alarm? hostAlarm = _auditError is null
+            ? null
+            : new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"audit storage failing: {_auditError}; actions are not applied", _auditFailingSince ?? now);
+        var snapshot = SnapshotBuilder.Build(
+            _version, _engine!, state, now, feeds.Snapshot(), _trends!.At(now),
+            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarm);
+        _published = state;
+        _lastPublishReal = realNow;
+        live.Publish(snapshot);
+    }
+
+    public override void Dispose()
+    {
+        _gate.Dispose();
+        base.Dispose();
+    }
+}

@@ -1,0 +1,29 @@
+using Microsoft.AspNetCore.Http.HttpResults;
+
+namespace OpsLvp.Web.Live;
+
+/// <summary><c>GET /api/state</c> and the hub <c>/hubs/lvp</c>.</summary>
+public static class LiveApi
+{
+    /// <summary>The one place that decides who may read live state (hub and API); null = open. The access work sets it.</summary>
+    public static string? HubPolicy { get; set; }
+
+    public const string HubPath = "/hubs/lvp";
+
+    public static IEndpointRouteBuilder MapLiveApi(this IEndpointRouteBuilder endpoints)
+    {
+        var hub = endpoints.MapHub<LvpHub>(HubPath);
+        var state = endpoints.MapGet("/api/state", GetState);
+        if (HubPolicy is { } policy)
+        {
+            hub.RequireAuthorization(policy);
+            state.RequireAuthorization(policy);
+        }
+        return endpoints;
+    }
+
+    private static Results<JsonHttpResult<LiveSnapshot>, ProblemHttpResult> GetState(ILiveState live) =>
+        live.Current is { } snapshot
+            ? TypedResults.Json(snapshot, LiveJson.Options)
+            : TypedResults.Problem("the engine has not published a state yet", statusCode: StatusCodes.Status503ServiceUnavailable);
+}

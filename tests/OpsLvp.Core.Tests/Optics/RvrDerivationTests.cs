@@ -1,0 +1,105 @@
+using OpsLvp.Core.Optics;
+using OpsLvp.Core.Profile;
+using OpsLvp.Core.Readings;
+using OpsLvp.Core.Units;
+
+namespace OpsLvp.Core.Tests.Optics;
+
+/// <summary>Raw sensor readings to RVR. Sensor ids, times and values are invented.</summary>
+public sealed class RvrDerivationTests
+{
+    private static readonly DateTimeOffset T0 = new(2026, 1, 15, 4, 0, 0, TimeSpan.Zero);
+
+    private static AerodromeProfile Profile() => new()
+    {
+        Version = "test",
+        Aerodrome = new AerodromeInfo("XTST", "Test Field (invented)"),
+        Runways = [new RunwayConfig("09/27", ["09", "27"])],
+        Sensors =
+        [
+            new SensorConfig("fs1", SensorType.ForwardScatter, "09/27", new Dictionary<string, RvrPosition> { ["09"] = RvrPosition.Tdz }),
+            new SensorConfig("tm1", SensorType.Transmissometer, "09/27", new Dictionary<string, RvrPosition> { ["09"] = RvrPosition.Mid }, BaselineM: 75),
+            new SensorConfig("lum", SensorType.Luminance),
+        ],
+        Lights = new LightsConfig { IntensityCdByStep = new Dictionary<int, double> { [5] = 10_000 }, StepInUse = 5 },
+        Thresholds = new ThresholdSet(new PhaseThresholds(), new PhaseThresholds()),
+    };
+
+    private static double Expected(double perKm, double luminance) =>
+        RvrCalculator.Calculate(new RvrInputs
+        {
+            Extinction = ExtinctionCoefficient.FromPerKm(perKm),
+            LightIntensity = new Candela(10_000),
+            BackgroundLuminance = new CandelaPerSquareMetre(luminance),
+        }).Report.Reported.Value;
+
+    [Fact]
+    public void Extinction_WithNightLuminance_GivesTheCalculatorsReportedRvr()
+    {
+        var d = new RvrDerivation(Profile());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(10), "fs1", ReadingKind.Extinction, 10)));
+        Assert.Equal(ReadingKind.Rvr, derived.Kind);
+        Assert.Equal("fs1", derived.SensorId);
+        Assert.Equal(T0.AddSeconds(10), derived.Time);
+        // σ = 10/km → MOR ≈ 300 m; with I = 10 000 cd at night the lights range ≈ 954 m (DOMAIN.md worked check,
+        // Annex 3 Att. D — from memory), reported rounded down on the 100 m step above 800 m: 900 m (ICAO Annex 3, App 3, §4.3.6)
+        Assert.Equal(900, derived.Value);
+        Assert.Equal(Expected(10, 1.5), derived.Value);
+    }
+
+    [Fact]
+    public void NoFreshLuminance_UsesTheDayBand_WhichGivesALowerRvr()
+    {
+        var d = new RvrDerivation(Profile());
+        var derived = Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10)));
+        Assert.Equal(Expected(10, 5_000), derived.Value);
+        Assert.True(derived.Value < 950);
+    }
+
+    [Fact]
+    public void Derived_IsTheOneMinuteMean_OfTheSensorsAssessedSamples()
+    {
+        var d = new RvrDerivation(Profile());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        d.Observe(new Reading(T0.AddSeconds(1), "fs1", ReadingKind.Extinction, 10));
+        var second = Assert.Single(d.Observe(new Reading(T0.AddSeconds(31), "fs1", ReadingKind.Extinction, 5)));
+        var a = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(10), LightIntensity = new(10_000), BackgroundLuminance = new(1.5) }).Rvr;
+        var b = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(5), LightIntensity = new(10_000), BackgroundLuminance = new(1.5) }).Rvr;
+        // 1-minute mean of unrounded values, rounded after (ICAO Annex 3, App 3, §4.3.5 — from memory)
+        Assert.Equal(OpsLvp.Core.Reporting.RvrReporting.Report(new Metres((a.Value + b.Value) / 2)).Reported.Value, second.Value);
+        // a sample a minute or more old has left the window
+        var third = Assert.Single(d.Observe(new Reading(T0.AddSeconds(91), "fs1", ReadingKind.Extinction, 5)));
+        Assert.Equal(OpsLvp.Core.Reporting.RvrReporting.Report(b).Reported.Value, third.Value);
+    }
+
+    [Fact]
+    public void Transmittance_UsesTheSensorsBaseline()
+    {
+        var d = new RvrDerivation(Profile());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        // T = exp(−σ·b) with σ = 10/km, b = 75 m (WMO-No. 8): the same atmosphere as the forward-scatter case
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(5), "tm1", ReadingKind.Transmittance, Math.Exp(-0.010 * 75))));
+        Assert.Equal(900, derived.Value);
+    }
+
+    [Theory]
+    [InlineData("fs1", ReadingKind.Extinction, 10, ReadingStatus.Failed)]
+    [InlineData("fs1", ReadingKind.Extinction, -1, ReadingStatus.Ok)]
+    [InlineData("fs1", ReadingKind.Transmittance, 0.5, ReadingStatus.Ok)]
+    [InlineData("nope", ReadingKind.Extinction, 10, ReadingStatus.Ok)]
+    [InlineData("tm1", ReadingKind.Transmittance, 1.0, ReadingStatus.Ok)]
+    public void BadRawReadings_DeriveNothing(string sensor, ReadingKind kind, double value, ReadingStatus status)
+    {
+        var d = new RvrDerivation(Profile());
+        Assert.Empty(d.Observe(new Reading(T0, sensor, kind, value, status)));
+    }
+
+    [Fact]
+    public void OutOfOrderRawReading_DerivesNothing()
+    {
+        var d = new RvrDerivation(Profile());
+        Assert.Single(d.Observe(new Reading(T0.AddSeconds(30), "fs1", ReadingKind.Extinction, 10)));
+        Assert.Empty(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10)));
+    }
+}
