@@ -2,6 +2,7 @@ using System.Security.Claims;
 using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Authentication.Cookies;
 using Microsoft.AspNetCore.Components.Authorization;
+using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Http.Features;
 using Microsoft.AspNetCore.Identity;
 using Microsoft.AspNetCore.SignalR;
@@ -199,6 +200,11 @@ public static class AccessServiceCollectionExtensions
         if (path.StartsWithSegments("/api") || path.StartsWithSegments("/hubs") || path.StartsWithSegments("/health"))
         {
             context.Response.StatusCode = status;
+            // Machine clients get the bare status, not the not-found page re-executed in its place.
+            if (context.HttpContext.Features.Get<IStatusCodePagesFeature>() is { } pages)
+            {
+                pages.Enabled = false;
+            }
             return Task.CompletedTask;
         }
         context.Response.Redirect(context.RedirectUri);
