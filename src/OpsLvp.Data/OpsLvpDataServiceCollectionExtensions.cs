@@ -18,6 +18,8 @@ public static class OpsLvpDataServiceCollectionExtensions
         services.AddSingleton<ReadingStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();
+        services.AddSingleton<DisplayTokenStore>();
+        services.AddSingleton<ApiKeyStore>();
         return services;
     }
 
@@ -33,6 +35,8 @@ public static class OpsLvpDataServiceCollectionExtensions
         services.AddSingleton<ReadingStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();
+        services.AddSingleton<DisplayTokenStore>();
+        services.AddSingleton<ApiKeyStore>();
         return services;
     }
 }

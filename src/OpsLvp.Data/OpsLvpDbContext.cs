@@ -1,13 +1,17 @@
+using System.Text;
+using Microsoft.AspNetCore.Identity;
+using Microsoft.AspNetCore.Identity.EntityFrameworkCore;
 using Microsoft.EntityFrameworkCore;
 using OpsLvp.Data.Entities;
 
 namespace OpsLvp.Data;
 
 /// <summary>
-/// The OpsLvp database: readings, the audit chain, the engine state row and feed health. Tables and columns are
-/// snake_case. Configure with <see cref="OpsLvpDatabase"/>; migrations live in this assembly.
+/// The OpsLvp database: readings, the audit chain, the engine state row, feed health, and access control (the
+/// ASP.NET Core Identity tables, display tokens, API keys). Tables and columns are snake_case. Configure with
+/// <see cref="OpsLvpDatabase"/>; migrations live in this assembly.
 /// </summary>
-public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) : DbContext(options)
+public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) : IdentityDbContext<OpsLvpUser>(options)
 {
     public DbSet<ReadingRow> Readings => Set<ReadingRow>();
 
@@ -17,6 +21,10 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
 
     public DbSet<FeedHealthRow> FeedHealth => Set<FeedHealthRow>();
 
+    public DbSet<DisplayTokenRow> DisplayTokens => Set<DisplayTokenRow>();
+
+    public DbSet<ApiKeyRow> ApiKeys => Set<ApiKeyRow>();
+
     protected override void ConfigureConventions(ModelConfigurationBuilder configurationBuilder)
     {
         configurationBuilder.Properties<DateTimeOffset>().HaveConversion<UtcTextConverter>();
@@ -24,6 +32,8 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
 
     protected override void OnModelCreating(ModelBuilder modelBuilder)
     {
+        base.OnModelCreating(modelBuilder);
+        MapIdentityTables(modelBuilder);
         modelBuilder.Entity<ReadingRow>(e =>
         {
             e.ToTable("readings");
@@ -78,5 +88,72 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(f => f.LastError).HasColumnName("last_error");
             e.Property(f => f.LastErrorAt).HasColumnName("last_error_at");
         });
+
+        modelBuilder.Entity<DisplayTokenRow>(e =>
+        {
+            e.ToTable("display_tokens");
+            e.HasKey(t => t.Id);
+            e.Property(t => t.Id).HasColumnName("id");
+            e.Property(t => t.Name).HasColumnName("name");
+            e.Property(t => t.TokenHash).HasColumnName("token_hash");
+            e.Property(t => t.CreatedBy).HasColumnName("created_by");
+            e.Property(t => t.CreatedAt).HasColumnName("created_at");
+            e.Property(t => t.RevokedAt).HasColumnName("revoked_at");
+            e.Property(t => t.LastUsedAt).HasColumnName("last_used_at");
+            e.HasIndex(t => t.TokenHash).IsUnique().HasDatabaseName("ix_display_tokens_token_hash");
+        });
+
+        modelBuilder.Entity<ApiKeyRow>(e =>
+        {
+            e.ToTable("api_keys");
+            e.HasKey(k => k.Id);
+            e.Property(k => k.Id).HasColumnName("id");
+            e.Property(k => k.Name).HasColumnName("name");
+            e.Property(k => k.KeyHash).HasColumnName("key_hash");
+            e.Property(k => k.Scopes).HasColumnName("scopes");
+            e.Property(k => k.CreatedBy).HasColumnName("created_by");
+            e.Property(k => k.CreatedAt).HasColumnName("created_at");
+            e.Property(k => k.RevokedAt).HasColumnName("revoked_at");
+            e.Property(k => k.LastUsedAt).HasColumnName("last_used_at");
+            e.HasIndex(k => k.KeyHash).IsUnique().HasDatabaseName("ix_api_keys_key_hash");
+        });
+    }
+
+    /// <summary>Identity's tables and columns in the database's snake_case style (users, roles, user_roles, ...).</summary>
+    private static void MapIdentityTables(ModelBuilder modelBuilder)
+    {
+        var tables = new Dictionary<Type, string>
+        {
+            [typeof(OpsLvpUser)] = "users",
+            [typeof(IdentityRole)] = "roles",
+            [typeof(IdentityUserRole<string>)] = "user_roles",
+            [typeof(IdentityUserClaim<string>)] = "user_claims",
+            [typeof(IdentityRoleClaim<string>)] = "role_claims",
+            [typeof(IdentityUserLogin<string>)] = "user_logins",
+            [typeof(IdentityUserToken<string>)] = "user_tokens",
+        };
+        foreach (var (type, table) in tables)
+        {
+            var entity = modelBuilder.Entity(type);
+            entity.ToTable(table);
+            foreach (var property in entity.Metadata.GetProperties())
+            {
+                entity.Property(property.Name).HasColumnName(SnakeCase(property.Name));
+            }
+        }
+    }
+
+    private static string SnakeCase(string name)
+    {
+        var text = new StringBuilder(name.Length + 8);
+        for (var i = 0; i < name.Length; i++)
+        {
+            if (char.IsUpper(name[i]) && i > 0)
+            {
+                text.Append('_');
+            }
+            text.Append(char.ToLowerInvariant(name[i]));
+        }
+        return text.ToString();
     }
 }

@@ -1,4 +1,5 @@
 using MudBlazor.Services;
+using OpsLvp.Web.Access;
 using OpsLvp.Web.Components;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
@@ -21,18 +22,18 @@ builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddReview();
+builder.Services.AddAccess(builder.Configuration);
 
 var app = builder.Build();
 
 if (!app.Environment.IsDevelopment())
 {
     app.UseExceptionHandler("/Error", createScopeForErrors: true);
-    app.UseHsts();
 }
 
 app.UseStatusCodePagesWithReExecute("/not-found", createScopeForStatusCodePages: true);
-app.UseHttpsRedirection();
 app.UseAppAssets();
+app.UseAccess();
 app.UseAntiforgery();
 
 app.MapStaticAssets();
@@ -40,6 +41,7 @@ app.MapHealthApi();
 app.MapReadingsApi();
 app.MapLiveApi();
 app.MapReviewApi();
+app.MapAccessEndpoints();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 await app.RunAsync();

@@ -1,10 +1,16 @@
 using Microsoft.AspNetCore.Http.Features;
 using Microsoft.AspNetCore.Http.HttpResults;
+using Microsoft.AspNetCore.Authentication;
 using Microsoft.Extensions.Options;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Access;
 
 namespace OpsLvp.Web.Feeds;
 
-/// <summary>Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md).</summary>
+/// <summary>
+/// Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md): a key
+/// with the ingest scope issued on /admin/keys, or a bootstrap key from <c>Feeds:Push:ApiKeys</c> (docs/access.md).
+/// </summary>
 public static class ReadingsApi
 {
     public const string ApiKeyHeader = "X-Api-Key";
@@ -20,27 +26,30 @@ public static class ReadingsApi
         IOptions<FeedsOptions> options,
         ReadingPipeline pipeline,
         FeedHealthRegistry health,
+        ApiKeyStore keys,
         TimeProvider clock,
         ILoggerFactory loggers)
     {
         var push = options.Value.Push;
-        if (push.ApiKeys.Count == 0)
+        var auth = await context.AuthenticateAsync(AccessSchemes.ApiKey);
+        if (!auth.Succeeded)
         {
-            return Unauthorized(context, "push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys");
+            if (push.ApiKeys.Count == 0 && !await keys.AnyActiveAsync(ApiKeyStore.IngestScope, context.RequestAborted))
+            {
+                return Unauthorized(context, "push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys or issued on /admin/keys");
+            }
+
+            return context.Request.Headers[ApiKeyHeader].ToString().Length == 0
+                ? Unauthorized(context, $"missing {ApiKeyHeader} header")
+                : Unauthorized(context, $"the {ApiKeyHeader} header does not match any configured key");
         }
 
-        var presented = context.Request.Headers[ApiKeyHeader].ToString();
-        if (presented.Length == 0)
+        if (!auth.Principal.HasClaim(AccessClaims.Scope, ApiKeyStore.IngestScope))
         {
-            return Unauthorized(context, $"missing {ApiKeyHeader} header");
+            return Error(StatusCodes.Status403Forbidden, "this API key does not have the ingest scope");
         }
 
-        var keyName = PushKeys.Match(push.ApiKeys, presented);
-        if (keyName is null)
-        {
-            return Unauthorized(context, $"the {ApiKeyHeader} header does not match any configured key");
-        }
-
+        var keyName = (auth.Principal.Identity?.Name ?? "key:unknown")["key:".Length..];
         var source = "push:" + keyName;
         var body = await ReadBodyAsync(context, push.MaxBodyBytes);
         if (body is null)

@@ -23,7 +23,7 @@ public sealed class PushIngestDisabledTests
 
         Assert.Equal(HttpStatusCode.Unauthorized, response.StatusCode);
         var body = await response.Content.ReadFromJsonAsync<JsonElement>();
-        Assert.Equal("push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys", body.GetProperty("error").GetString());
+        Assert.Equal("push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys or issued on /admin/keys", body.GetProperty("error").GetString());
         Assert.Equal("ApiKey header=\"X-Api-Key\"", response.Headers.WwwAuthenticate.ToString());
     }
 }

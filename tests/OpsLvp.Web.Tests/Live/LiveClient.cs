@@ -31,7 +31,9 @@ public static class LiveClient
 
     public static async Task<JsonElement> StateAsync(OpsLvpApp app)
     {
-        using var response = await app.Client.GetAsync(new Uri("/api/state", UriKind.Relative));
+        using var request = new HttpRequestMessage(HttpMethod.Get, new Uri("/api/state", UriKind.Relative));
+        request.Headers.Add(OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header, await ReaderKeyAsync(app));
+        using var response = await app.Client.SendAsync(request);
         Assert.Equal(HttpStatusCode.OK, response.StatusCode);
         return await response.Content.ReadFromJsonAsync<JsonElement>();
     }
@@ -56,6 +58,14 @@ public static class LiveClient
             await Task.Delay(50);
         }
     }
+
+    private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<OpsLvpApp, Task<string>> ReaderKeys = new();
+
+    /// <summary>A hub-read API key for this app (live state needs a role, a display link or such a key).</summary>
+    public static Task<string> ReaderKeyAsync(OpsLvpApp app) => ReaderKeys.GetValue(app, a => IssueReaderAsync(a));
+
+    private static async Task<string> IssueReaderAsync(OpsLvpApp app) =>
+        (await app.Services.GetRequiredService<OpsLvp.Web.Access.CredentialAdmin>().IssueKeyAsync("test", "live tests (invented)", [OpsLvp.Data.Stores.ApiKeyStore.HubReadScope])).Secret;
 
     public static AuditStore Audit(OpsLvpApp app) => app.Services.GetRequiredService<AuditStore>();
 

@@ -19,7 +19,8 @@ public sealed class LiveEngineTests
         {
             await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(LiveTestProfile.Write(folder)), folder);
             var states = Channel.CreateUnbounded<JsonElement>();
-            await using var hub = new HubConnectionBuilder().WithUrl(new Uri(app.BaseAddress, "/hubs/lvp")).Build();
+            var readerKey = await LiveClient.ReaderKeyAsync(app);
+            await using var hub = new HubConnectionBuilder().WithUrl(new Uri(app.BaseAddress, "/hubs/lvp"), o => o.Headers[OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header] = readerKey).Build();
             hub.On<JsonElement>("state", s => states.Writer.TryWrite(s));
             await hub.StartAsync();
 

@@ -1,0 +1,23 @@
+namespace OpsLvp.Web.Access;
+
+/// <summary>Authorisation policy names used on pages, endpoints and the hub.</summary>
+public static class AccessPolicies
+{
+    /// <summary>Duty manager console.</summary>
+    public const string Console = "console";
+
+    /// <summary>Checklist tablets: ground staff or duty manager.</summary>
+    public const string Actions = "actions";
+
+    /// <summary>Administration pages: administrator.</summary>
+    public const string Admin = "admin";
+
+    /// <summary>The wall: any role, or a display token.</summary>
+    public const string Wall = "wall";
+
+    /// <summary>Hub and read APIs: any role, a display token, or an API key with the hub-read scope.</summary>
+    public const string HubRead = "hub-read";
+
+    /// <summary>Push ingest: an API key with the ingest scope.</summary>
+    public const string Ingest = "ingest";
+}

@@ -1,0 +1,75 @@
+using Microsoft.AspNetCore.SignalR;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Options;
+using OpsLvp.Web.Access;
+
+namespace OpsLvp.Web.Tests.Access;
+
+/// <summary>Security headers, cookie flags and request limits as served.</summary>
+public sealed class HardeningTests
+{
+    [Fact]
+    public async Task Pages_CarryTheSecurityHeaders()
+    {
+        await using var app = AccessApp.Start();
+
+        using var response = await app.Client.GetAsync(new Uri("/signin", UriKind.Relative));
+
+        Assert.Equal(SecurityHeaders.ContentSecurityPolicy, response.Headers.GetValues("Content-Security-Policy").Single());
+        Assert.Contains("frame-ancestors 'none'", SecurityHeaders.ContentSecurityPolicy, StringComparison.Ordinal);
+        Assert.Contains("script-src 'self'", SecurityHeaders.ContentSecurityPolicy, StringComparison.Ordinal);
+        Assert.Equal("nosniff", response.Headers.GetValues("X-Content-Type-Options").Single());
+        Assert.Equal("DENY", response.Headers.GetValues("X-Frame-Options").Single());
+        Assert.Equal("no-referrer", response.Headers.GetValues("Referrer-Policy").Single());
+    }
+
+    [Fact]
+    public async Task AntiforgeryCookie_IsHttpOnlyAndStrict()
+    {
+        await using var app = AccessApp.Start();
+
+        using var response = await app.Client.GetAsync(new Uri("/signin", UriKind.Relative));
+
+        var cookie = response.Headers.GetValues("Set-Cookie").Single(c => c.StartsWith(".OpsLvp.Antiforgery=", StringComparison.Ordinal));
+        Assert.Contains("httponly", cookie, StringComparison.OrdinalIgnoreCase);
+        Assert.Contains("samesite=strict", cookie, StringComparison.OrdinalIgnoreCase);
+    }
+
+    [Fact]
+    public async Task SignInPost_WithoutAntiforgeryToken_IsRefused()
+    {
+        await using var app = AccessApp.Start();
+        await app.CreateUserAsync("r.test", Web.Commands.Roles.DutyManager);
+        using var form = new FormUrlEncodedContent(new Dictionary<string, string>
+        {
+            ["_handler"] = "signin",
+            ["Input.UserName"] = "r.test",
+            ["Input.Password"] = AccessApp.Password,
+        });
+
+        using var response = await app.Client.PostAsync(new Uri("/signin", UriKind.Relative), form);
+
+        Assert.Equal(System.Net.HttpStatusCode.BadRequest, response.StatusCode);
+    }
+
+    [Fact]
+    public async Task HubMessages_AreLimitedTo32KiB()
+    {
+        await using var app = AccessApp.Start();
+
+        var options = app.Services.GetRequiredService<IOptions<HubOptions>>().Value;
+
+        Assert.Equal(32 * 1024, options.MaximumReceiveMessageSize);
+    }
+
+    [Fact]
+    public async Task NoHttpsRedirection_UnlessConfigured()
+    {
+        await using var app = AccessApp.Start();
+
+        using var response = await app.Client.GetAsync(new Uri("/", UriKind.Relative));
+
+        Assert.Equal(System.Net.HttpStatusCode.OK, response.StatusCode);
+        Assert.False(response.Headers.Contains("Strict-Transport-Security"));
+    }
+}
