@@ -206,7 +206,8 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
     {
         var roles = await users.GetRolesAsync(user);
         var teams = (await users.GetClaimsAsync(user)).Where(c => c.Type == CommandCaller.TeamClaimType).Select(c => c.Value).Order(StringComparer.Ordinal).ToList();
-        var lockedUntil = user.LockoutEnd is { } end && end > DateTimeOffset.UtcNow ? end : (DateTimeOffset?)null;
+        // Identity decides lockout on its own clock; asking it keeps the system clock out of product code.
+        var lockedUntil = await users.IsLockedOutAsync(user) ? user.LockoutEnd : null;
         return new UserSummary(user.Id, user.UserName ?? "", user.DisplayName, roles.Order(StringComparer.Ordinal).ToList(), teams, user.Disabled, user.IsDemo, lockedUntil);
     }
 
