@@ -43,14 +43,8 @@ public sealed class ReplayCommand : ICliCommand
         {
             throw new CliUsageException($"--profile and --readings are required; usage: {Usage}");
         }
-        AerodromeProfile profile;
-        try
+        if (LoadProfile(profilePath, stderr) is not { } profile)
         {
-            profile = ProfileLoader.Load(profilePath);
-        }
-        catch (ProfileException ex)
-        {
-            stderr.WriteLine($"error: {profilePath}: {ex.Message.ReplaceLineEndings(" ")}");
             return 1;
         }
         var readings = ReadingsCsv.Parse(File.ReadAllText(readingsPath), readingsPath);
@@ -96,13 +90,9 @@ public sealed class ReplayCommand : ICliCommand
         AerodromeProfile? profile = null;
         if (options.TryGetValue("--profile", out var profilePath))
         {
-            try
+            profile = LoadProfile(profilePath, stderr);
+            if (profile is null)
             {
-                profile = ProfileLoader.Load(profilePath);
-            }
-            catch (ProfileException ex)
-            {
-                stderr.WriteLine($"error: {profilePath}: {ex.Message.ReplaceLineEndings(" ")}");
                 return 1;
             }
         }
@@ -111,5 +101,38 @@ public sealed class ReplayCommand : ICliCommand
             stdout.WriteLine(EventJson.ToLine(e));
         }
         return 0;
+    }
+
+    /// <summary>
+    /// Loads and validates a profile (DESIGN R6, the same checks the server applies). On a problem writes one line
+    /// to stderr naming the file and the first field at fault, with a count of the others, and returns null.
+    /// </summary>
+    private static AerodromeProfile? LoadProfile(string path, TextWriter stderr)
+    {
+        AerodromeProfile profile;
+        try
+        {
+            profile = ProfileLoader.Load(path);
+        }
+        catch (ProfileException ex)
+        {
+            stderr.WriteLine($"error: {path}: {ex.Message.ReplaceLineEndings(" ")}");
+            return null;
+        }
+        var result = ProfileValidator.Validate(profile);
+        if (result.IsValid)
+        {
+            return profile;
+        }
+        var first = result.Problems[0];
+        var more = result.Problems.Count - 1;
+        var tail = more switch
+        {
+            0 => "",
+            1 => " (and 1 more problem)",
+            _ => $" (and {more} more problems)",
+        };
+        stderr.WriteLine($"error: {path}: invalid profile: {first.Field}: {first.Message.ReplaceLineEndings(" ")}{tail}");
+        return null;
     }
 }

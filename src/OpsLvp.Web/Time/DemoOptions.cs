@@ -8,7 +8,7 @@ public sealed class DemoOptions
     public SimulatorMode Simulator { get; set; } = SimulatorMode.Auto;
 
     /// <summary>Simulated seconds per real second while in demo mode, 1 to <see cref="AcceleratedTimeProvider.MaxSpeed"/>.</summary>
-    public double Speed { get; set; } = 30;
+    public double Speed { get; set; } = 60;
 
     /// <summary>Simulated UTC at app start; unset = the real time at start.</summary>
     public DateTimeOffset? Start { get; set; }

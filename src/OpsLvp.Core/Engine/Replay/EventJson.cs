@@ -7,7 +7,8 @@ namespace OpsLvp.Core.Engine.Replay;
 /// <summary>
 /// One JSON object per event (JSON Lines, docs/replay.md): always <c>event</c> and <c>time</c> first;
 /// transitions are <c>{"event":"transition","time":…,"from":…,"to":…,"by":"auto"|"manual","reason":…}</c>
-/// followed by actor, proposed_at and the condition snapshot. Names snake_case, times UTC with Z.
+/// followed by actor, proposed_at and the condition snapshot (values, sensors and, last, the thresholds in effect
+/// for both graded phases, DESIGN R12). Names snake_case, times UTC with Z.
 /// </summary>
 public static class EventJson
 {
@@ -157,6 +158,23 @@ public static class EventJson
         Optional(w, "ceiling_sensor", s.CeilingSensor, writeNull: true);
         w.WriteBoolean("forecast", s.DeteriorationForecast);
         w.WriteBoolean("recovery_inputs_complete", s.RecoveryInputsComplete);
+        w.WriteStartObject("thresholds");
+        Thresholds(w, "preparation", s.Thresholds.Preparation);
+        Thresholds(w, "active", s.Thresholds.Active);
+        w.WriteEndObject();
+    }
+
+    /// <summary>The thresholds in effect for one phase (DESIGN R12 "thresholds"); null where the phase leaves an input out.</summary>
+    private static void Thresholds(Utf8JsonWriter w, string name, Profile.PhaseThresholds p)
+    {
+        w.WriteStartObject(name);
+        NullableNumber(w, "rvr_below_m", p.RvrBelowM);
+        NullableNumber(w, "rvr_recover_m", p.RvrRecoverM);
+        NullableNumber(w, "ceiling_below_ft", p.CeilingBelowFt);
+        NullableNumber(w, "ceiling_recover_ft", p.CeilingRecoverFt);
+        w.WriteNumber("enter_dwell_seconds", p.EnterDwellSeconds);
+        w.WriteNumber("recover_dwell_seconds", p.RecoverDwellSeconds);
+        w.WriteEndObject();
     }
 
     private static void Optional(Utf8JsonWriter w, string name, string? value, bool writeNull = false)

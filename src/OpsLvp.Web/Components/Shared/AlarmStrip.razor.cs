@@ -1,6 +1,5 @@
 using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
-using Microsoft.JSInterop;
 using MudBlazor;
 using OpsLvp.Core.Engine;
 using OpsLvp.Web.Commands;
@@ -10,26 +9,20 @@ namespace OpsLvp.Web.Components.Shared;
 
 /// <summary>
 /// Raised alarms from <see cref="LiveSnapshot.Status"/>: unacknowledged first, an acknowledge button for duty
-/// managers (the command service decides), and on screens that ask for it (<see cref="Audible"/>) a chime for
-/// every newly raised unacknowledged alarm, mutable per screen.
+/// managers (the command service decides), and on screens that ask for it (<see cref="Audible"/>) the
+/// <see cref="AlarmCue"/>: a chime for every newly raised unacknowledged alarm, mutable per screen.
 /// </summary>
 public partial class AlarmStrip
 {
-    private readonly HashSet<string> _heard = new(StringComparer.Ordinal);
     private readonly HashSet<string> _sending = new(StringComparer.Ordinal);
     private ILiveState? _live;
     private ILvpCommandService? _commands;
     private IReadOnlyList<Alarm> _alarms = [];
     private IDisposable? _subscription;
-    private IJSObjectReference? _module;
     private CommandCaller _caller = CommandCaller.Anonymous;
-    private bool _muted;
 
     [Inject]
     private IServiceProvider Services { get; set; } = default!;
-
-    [Inject]
-    private IJSRuntime Js { get; set; } = default!;
 
     [Inject]
     private ISnackbar Snackbar { get; set; } = default!;
@@ -52,9 +45,6 @@ public partial class AlarmStrip
     /// <summary>Unacknowledged alarms shown right now.</summary>
     internal int UnacknowledgedCount => _alarms.Count(a => !a.Acknowledged);
 
-    /// <summary>How many chimes this strip has asked the browser for (for tests and diagnostics).</summary>
-    internal int ChimeCount { get; private set; }
-
     private bool CanAcknowledge => _commands is not null && _caller.IsInRole(Roles.DutyManager);
 
     private string StripClass => $"{(UnacknowledgedCount > 0 ? "has-unacked" : "")} {Class}".Trim();
@@ -70,60 +60,30 @@ public partial class AlarmStrip
         _alarms = AlarmLabels.Ordered(_live?.Current?.Status.Alarms);
     }
 
-    protected override async Task OnAfterRenderAsync(bool firstRender)
+    protected override void OnAfterRender(bool firstRender)
     {
         if (!firstRender)
         {
             return;
-        }
-        if (Audible)
-        {
-            _module = await Js.InvokeAsync<IJSObjectReference>("import", "/assets/alarm-sound.js");
-            _muted = await _module.InvokeAsync<bool>("isMuted", ScreenKey);
         }
         if (_live is not null)
         {
             _subscription = _live.Subscribe(OnSnapshotAsync);
             if (_live.Current is { } current)
             {
-                await ShowAsync(current);
+                Show(current);
             }
         }
         StateHasChanged();
     }
 
-    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
+    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(() =>
     {
-        try
-        {
-            await ShowAsync(snapshot);
-            StateHasChanged();
-        }
-        catch (Exception ex)
-        {
-            await DispatchExceptionAsync(ex);
-        }
+        Show(snapshot);
+        StateHasChanged();
     });
 
-    private async Task ShowAsync(LiveSnapshot snapshot)
-    {
-        _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
-        var fresh = _alarms.Where(a => !a.Acknowledged).Select(AlarmLabels.Identity).Where(_heard.Add).ToList();
-        if (fresh.Count > 0 && Audible && !_muted && _module is not null)
-        {
-            ChimeCount++;
-            await _module.InvokeAsync<bool>("chime");
-        }
-    }
-
-    private async Task ToggleMuteAsync()
-    {
-        _muted = !_muted;
-        if (_module is not null)
-        {
-            await _module.InvokeVoidAsync("setMuted", ScreenKey, _muted);
-        }
-    }
+    private void Show(LiveSnapshot snapshot) => _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
 
     private async Task AcknowledgeAsync(Alarm alarm)
     {
@@ -145,20 +105,10 @@ public partial class AlarmStrip
         }
     }
 
-    public async ValueTask DisposeAsync()
+    public ValueTask DisposeAsync()
     {
         _subscription?.Dispose();
-        if (_module is not null)
-        {
-            try
-            {
-                await _module.DisposeAsync();
-            }
-            catch (JSDisconnectedException)
-            {
-                // the circuit is gone: nothing to release in the browser
-            }
-        }
         GC.SuppressFinalize(this);
+        return ValueTask.CompletedTask;
     }
 }

@@ -1,5 +1,6 @@
 using System.Text.Json;
 using OpsLvp.Cli;
+using OpsLvp.Core.Profile;
 using OpsLvp.Core.Tests.Engine.Replay;
 
 namespace OpsLvp.Core.Tests.Cli.Commands;
@@ -73,5 +74,84 @@ public class ReplayCommandTests
         Assert.Equal(0, code);
         Assert.DoesNotContain("feed-silent:RVR25T", without);
         Assert.Contains("\"key\":\"feed-silent:RVR25T\"", with);
+    }
+
+    /// <summary>A copy of the invented scenario profile with <paramref name="edit"/> applied to its text, written to a temp file.</summary>
+    private static string EditedProfile(Func<string, string> edit)
+    {
+        var original = File.ReadAllText(ReplayScenarioTests.Scenario("xdmo-profile.json"));
+        var edited = edit(original);
+        Assert.NotEqual(original, edited);
+        var file = Path.Combine(Path.GetTempPath(), $"opslvp-profile-{Guid.NewGuid():N}.json");
+        File.WriteAllText(file, edited);
+        return file;
+    }
+
+    private static string ZeroActiveRecoverDwell(string json) =>
+        json.Replace("\"enterDwellSeconds\": 30, \"recoverDwellSeconds\": 600", "\"enterDwellSeconds\": 30, \"recoverDwellSeconds\": 0", StringComparison.Ordinal);
+
+    [Fact]
+    public void Replay_InvalidProfile_FailsWithOneLineNamingTheFirstFieldAndCountingTheRest()
+    {
+        // Two problems: a lower-case location indicator and a zero recovery dwell (DESIGN R6, R7; docs/profile.md rules)
+        var file = EditedProfile(j => ZeroActiveRecoverDwell(j.Replace("\"id\": \"XDMO\"", "\"id\": \"xdmo\"", StringComparison.Ordinal)));
+        try
+        {
+            var (code, output, err) = Run("replay", "--profile", file, "--readings", ReplayScenarioTests.Scenario("r7-dwell.readings.csv"));
+            Assert.Equal(1, code);
+            Assert.Equal("", output);
+            var line = Assert.Single(err.TrimEnd().Split('\n'));
+            Assert.Equal($"error: {file}: invalid profile: aerodrome.id: 'xdmo' is not a location indicator; expected four capital letters A–Z (and 1 more problem)", line);
+        }
+        finally
+        {
+            File.Delete(file);
+        }
+    }
+
+    [Fact]
+    public void Replay_ProfileWithOneProblem_NamesItsFieldWithoutACount()
+    {
+        var file = EditedProfile(ZeroActiveRecoverDwell);
+        try
+        {
+            var (code, output, err) = Run("replay", "--profile", file, "--readings", ReplayScenarioTests.Scenario("r7-dwell.readings.csv"));
+            Assert.Equal((1, ""), (code, output));
+            var line = Assert.Single(err.TrimEnd().Split('\n'));
+            Assert.StartsWith($"error: {file}: invalid profile: thresholds.active.recoverDwellSeconds: is 0; expected more than 0 seconds", line, StringComparison.Ordinal);
+            Assert.DoesNotContain("more problem", line, StringComparison.Ordinal);
+        }
+        finally
+        {
+            File.Delete(file);
+        }
+    }
+
+    [Fact]
+    public void ReplayEpisode_WithAnInvalidWhatIfProfile_FailsNamingTheField()
+    {
+        var file = EditedProfile(ZeroActiveRecoverDwell);
+        var export = Path.Combine(Path.GetTempPath(), $"opslvp-episode-{Guid.NewGuid():N}.json");
+        File.WriteAllText(export, OpsLvp.Core.Tests.Review.ReviewFixtures.DemoNight.Export().ToJson());
+        try
+        {
+            var (code, output, err) = Run("replay", "--episode", export, "--profile", file);
+            Assert.Equal((1, ""), (code, output));
+            Assert.Contains("thresholds.active.recoverDwellSeconds", Assert.Single(err.TrimEnd().Split('\n')), StringComparison.Ordinal);
+        }
+        finally
+        {
+            File.Delete(file);
+            File.Delete(export);
+        }
+    }
+
+    [Theory]
+    [InlineData("xdmo-profile.json")]
+    [InlineData("xdmo-confirm-profile.json")]
+    public void ScenarioProfiles_PassTheValidatorReplayApplies(string profile)
+    {
+        var result = ProfileValidator.Validate(ProfileLoader.Load(ReplayScenarioTests.Scenario(profile)));
+        Assert.True(result.IsValid, result.ToString());
     }
 }
