@@ -113,6 +113,7 @@ public static class AccessServiceCollectionExtensions
             .AddPolicy(AccessPolicies.Actions, p => p.RequireRole(Roles.GroundStaff, Roles.DutyManager))
             .AddPolicy(AccessPolicies.Admin, p => p.RequireRole(Roles.Administrator))
             .AddPolicy(AccessPolicies.Wall, p => p.RequireAssertion(c => HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken)))
+            .AddPolicy(AccessPolicies.Review, p => p.RequireAssertion(c => HasAnyRole(c.User)))
             .AddPolicy(AccessPolicies.HubRead, p => p.RequireAssertion(c =>
                 HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken) || c.User.HasClaim(AccessClaims.Scope, ApiKeyStore.HubReadScope)))
             .AddPolicy(AccessPolicies.Ingest, p => p.RequireClaim(AccessClaims.Scope, ApiKeyStore.IngestScope));
