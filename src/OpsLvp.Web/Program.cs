@@ -40,7 +40,7 @@ app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
 app.MapLiveApi();
-app.MapReviewApi();
+app.MapReviewApi().RequireAuthorization(AccessPolicies.Review);
 app.MapAccessEndpoints();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 

@@ -15,6 +15,12 @@ public static class AccessPolicies
     /// <summary>The wall: any role, or a display token.</summary>
     public const string Wall = "wall";
 
+    /// <summary>
+    /// Post-event review pages and <c>/api/episodes</c>: any signed-in account (the safety/review team uses viewer
+    /// accounts); not a display link and not an API key.
+    /// </summary>
+    public const string Review = "review";
+
     /// <summary>Hub and read APIs: any role, a display token, or an API key with the hub-read scope.</summary>
     public const string HubRead = "hub-read";
 

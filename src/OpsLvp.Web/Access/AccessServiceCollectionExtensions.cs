@@ -113,6 +113,7 @@ public static class AccessServiceCollectionExtensions
             .AddPolicy(AccessPolicies.Actions, p => p.RequireRole(Roles.GroundStaff, Roles.DutyManager))
             .AddPolicy(AccessPolicies.Admin, p => p.RequireRole(Roles.Administrator))
             .AddPolicy(AccessPolicies.Wall, p => p.RequireAssertion(c => HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken)))
+            .AddPolicy(AccessPolicies.Review, p => p.RequireAssertion(c => HasAnyRole(c.User)))
             .AddPolicy(AccessPolicies.HubRead, p => p.RequireAssertion(c =>
                 HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken) || c.User.HasClaim(AccessClaims.Scope, ApiKeyStore.HubReadScope)))
             .AddPolicy(AccessPolicies.Ingest, p => p.RequireClaim(AccessClaims.Scope, ApiKeyStore.IngestScope));
@@ -129,7 +130,9 @@ public static class AccessServiceCollectionExtensions
         services.AddHostedService(sp => sp.GetRequiredService<HubConnectionMonitor>());
         services.AddHostedService<AccessStartup>();
 
-        services.Configure<HubOptions>(o => o.AddFilter<HubAccessFilter>());
+        // The app's own hub only: Blazor's circuit hub has its own access (the circuit's principal, revalidated) and
+        // must not be refused its framework methods (StartCircuit, ...).
+        services.Configure<HubOptions<LvpHub>>(o => o.AddFilter<HubAccessFilter>());
         services.AddSingleton<HubAccessFilter>();
         services.AddOptions<HubOptions>().Configure<IOptions<AccessOptions>>((o, access) => o.MaximumReceiveMessageSize = access.Value.HubMaxMessageBytes);
         services.Configure<FormOptions>(o =>

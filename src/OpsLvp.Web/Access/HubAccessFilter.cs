@@ -4,7 +4,7 @@ using Microsoft.AspNetCore.SignalR;
 namespace OpsLvp.Web.Access;
 
 /// <summary>
-/// Applied to every hub: a connection must satisfy <see cref="AccessPolicies.HubRead"/> (whatever attributes the
+/// Applied to the app's hub (<see cref="OpsLvp.Web.Live.LvpHub"/>, not Blazor's circuit hub): a connection must satisfy <see cref="AccessPolicies.HubRead"/> (whatever attributes the
 /// hub class has), is watched by <see cref="HubConnectionMonitor"/>, and each client-to-server call must satisfy the
 /// policy <see cref="HubMethodPolicies"/> gives that method; a method missing from the table is refused.
 /// </summary>

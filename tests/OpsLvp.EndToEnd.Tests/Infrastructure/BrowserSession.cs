@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using Microsoft.Playwright;
 
 namespace OpsLvp.EndToEnd.Tests.Infrastructure;
@@ -12,6 +13,8 @@ public sealed class BrowserSession : IAsyncDisposable
     ];
 
     private readonly IPlaywright _playwright;
+    private readonly ConcurrentQueue<string> _errors = new();
+    private readonly ConcurrentQueue<string> _problems = new();
 
     private BrowserSession(IPlaywright playwright, IBrowser browser)
     {
@@ -43,14 +46,45 @@ public sealed class BrowserSession : IAsyncDisposable
     }
 
     /// <summary>A fresh page at the wall's design size, 1920×1080.</summary>
-    public async Task<IPage> NewWallPageAsync()
+    public Task<IPage> NewWallPageAsync() => NewPageAsync(1920, 1080);
+
+    /// <summary>
+    /// A fresh page in its own browser context (its own cookies: one person or one screen) at width×height. Its
+    /// console errors and uncaught errors are collected for <see cref="AssertNoCspViolationOrUncaughtError"/>.
+    /// </summary>
+    public async Task<IPage> NewPageAsync(int width, int height, bool touch = false)
     {
         var context = await Browser.NewContextAsync(new BrowserNewContextOptions
         {
-            ViewportSize = new ViewportSize { Width = 1920, Height = 1080 },
+            ViewportSize = new ViewportSize { Width = width, Height = height },
             Locale = "en-GB",
+            HasTouch = touch,
         });
-        return await context.NewPageAsync();
+        var page = await context.NewPageAsync();
+        page.Console += (_, message) =>
+        {
+            if (message.Type == "error")
+            {
+                var text = $"{page.Url}: {message.Text}";
+                _errors.Enqueue(text);
+                if (message.Text.Contains("Content Security Policy", StringComparison.OrdinalIgnoreCase))
+                {
+                    _problems.Enqueue("CSP violation at " + text);
+                }
+            }
+        };
+        page.PageError += (_, error) => _problems.Enqueue($"uncaught error at {page.Url}: {error}");
+        return page;
+    }
+
+    /// <summary>Every console error seen so far on this session's pages.</summary>
+    public IReadOnlyList<string> ConsoleErrors => [.. _errors];
+
+    /// <summary>Fails when any page of this session reported a Content Security Policy violation or an uncaught error.</summary>
+    public void AssertNoCspViolationOrUncaughtError()
+    {
+        var problems = _problems.ToArray();
+        Assert.True(problems.Length == 0, string.Join(Environment.NewLine, problems));
     }
 
     public async ValueTask DisposeAsync()

@@ -24,8 +24,9 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     private readonly Process _process;
     private readonly ConcurrentQueue<string> _output;
 
-    private OpsLvpServer(Process process, ConcurrentQueue<string> output, Uri baseAddress, string dataFolder)
+    private OpsLvpServer(Process process, ConcurrentQueue<string> output, Uri baseAddress, string dataFolder, TestAccounts accounts)
     {
+        Accounts = accounts;
         _process = process;
         _output = output;
         BaseAddress = baseAddress;
@@ -39,16 +40,22 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
 
     public HttpClient Client { get; }
 
+    /// <summary>The invented accounts seeded before start (<see cref="TestAccounts"/>), and display links.</summary>
+    public TestAccounts Accounts { get; }
+
     /// <summary>What the server wrote so far, for failure messages.</summary>
     public string Output => string.Join(Environment.NewLine, _output);
 
-    public static async Task<OpsLvpServer> StartAsync()
+    /// <summary>Starts the app on <paramref name="profileJson"/> (default <see cref="TestProfile.Json"/>) with the standard accounts seeded.</summary>
+    public static async Task<OpsLvpServer> StartAsync(string? profileJson = null)
     {
         var dll = WebAppDll();
         var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-e2e", Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(dataFolder);
         var profile = Path.Combine(dataFolder, "profile.json");
-        await File.WriteAllTextAsync(profile, TestProfile.Json);
+        await File.WriteAllTextAsync(profile, profileJson ?? TestProfile.Json);
+        var accounts = TestAccounts.Open(dataFolder);
+        await accounts.SeedStandardAsync();
 
         var start = new ProcessStartInfo("dotnet")
         {
@@ -83,12 +90,13 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         try
         {
             var address = await listening.Task.WaitAsync(s_startTimeout);
-            return new OpsLvpServer(process, output, address, dataFolder);
+            return new OpsLvpServer(process, output, address, dataFolder, accounts);
         }
         catch (Exception ex) when (ex is TimeoutException or InvalidOperationException)
         {
             Stop(process);
             process.Dispose();
+            await accounts.DisposeAsync();
             TryDelete(dataFolder);
             throw new InvalidOperationException($"OpsLvp.Web did not start ({ex.Message}); its output:{Environment.NewLine}{string.Join(Environment.NewLine, output)}", ex);
         }
@@ -141,6 +149,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         Stop(_process);
         await _process.WaitForExitAsync().WaitAsync(TimeSpan.FromSeconds(10)).ConfigureAwait(false);
         _process.Dispose();
+        await Accounts.DisposeAsync();
         TryDelete(DataFolder);
     }
 

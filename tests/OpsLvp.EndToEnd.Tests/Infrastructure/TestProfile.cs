@@ -11,8 +11,26 @@ public static class TestProfile
     public const string Mid = "rvr-09-mid";
     public const string End = "rvr-09-end";
     public const string Ceilometer = "ceilo-test";
+    public const string ApronTeam = "apron";
+    public const string LightsTeam = "lights";
 
-    public const string Json = """
+    /// <summary>The default test profile: no confirmation, recovery dwells of 60 s, one cancellation item.</summary>
+    public static string Json { get; } = Variant();
+
+    /// <summary>
+    /// The test profile with preparation→active needing the duty manager's confirmation (<paramref name="confirmActive"/>),
+    /// other recovery dwells (<paramref name="recoverDwellSeconds"/>) and, when <paramref name="cancellationItem"/> is
+    /// false, no cancellation checklist (so an episode can run back to normal by readings alone).
+    /// </summary>
+    public static string Variant(bool confirmActive = false, int recoverDwellSeconds = 60, bool cancellationItem = true) =>
+        Template
+            .Replace("\"confirm\": []", confirmActive ? "\"confirm\": [ { \"from\": \"preparation\", \"to\": \"active\" }, { \"from\": \"normal\", \"to\": \"active\" } ]" : "\"confirm\": []", StringComparison.Ordinal)
+            .Replace("\"recoverDwellSeconds\": 60", $"\"recoverDwellSeconds\": {recoverDwellSeconds}", StringComparison.Ordinal)
+            .Replace(CancellationItem, cancellationItem ? CancellationItem : "", StringComparison.Ordinal);
+
+    private const string CancellationItem = """{ "id": "can-release", "text": "Release the ILS areas (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 10 }""";
+
+    private const string Template = """
         {
           "version": "e2e-1 (invented)",
           "aerodrome": { "id": "XTST", "name": "Test Field (invented)", "timeZone": "Europe/Lisbon", "illustrative": true },

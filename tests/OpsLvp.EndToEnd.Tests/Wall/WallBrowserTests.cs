@@ -38,6 +38,7 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
         Assert.True(await page.EvaluateAsync<bool>("() => window.__opslvpSamePage === true"), "the page was reloaded");
         await Expect(page.Locator("[data-testid=wall-pos][data-position=TDZ] [data-testid=wall-pos-value]")).ToHaveTextAsync("400");
         await Expect(page.Locator("[data-testid=wall-lowest]")).ToHaveCountAsync(1);
+        browser.AssertNoCspViolationOrUncaughtError();
     }
 
     [BrowserFact]
@@ -49,6 +50,7 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
         await OpenLiveWallAsync(page, server);
         var banner = page.Locator("[data-testid=connection-banner]");
         await Expect(banner).ToBeHiddenAsync();
+        browser.AssertNoCspViolationOrUncaughtError();
 
         server.Kill();
 
@@ -107,13 +109,22 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
         Assert.True(layout.GetProperty("phasePx").GetDouble() >= 0.08 * innerHeight, "phase text below 8vh");
         Assert.True(layout.GetProperty("smallestPx").GetDouble() >= 0.02 * innerHeight - 0.5, "some text below 2vh");
         Assert.Empty(layout.GetProperty("clipped").EnumerateArray().Select(e => e.GetString()));
+        browser.AssertNoCspViolationOrUncaughtError();
     }
 
-    /// <summary>Opens /wall and waits until the live connection runs (its clock ticks, which only the circuit does).</summary>
-    private static async Task OpenLiveWallAsync(IPage page, OpsLvpServer server)
+    /// <summary>
+    /// Opens /wall through a display link, as a kiosk does, and waits until the live connection runs (its clock
+    /// ticks, which only the circuit does).
+    /// </summary>
+    internal static async Task OpenLiveWallAsync(IPage page, OpsLvpServer server)
     {
-        var response = await page.GotoAsync(new Uri(server.BaseAddress, "/wall").ToString());
-        Assert.True(response is { Ok: true }, $"GET /wall answered {response?.Status}; server output:{Environment.NewLine}{server.Output}");
+        await BrowserAccess.OpenDisplayLinkAsync(page, server);
+        await WaitUntilLiveAsync(page);
+    }
+
+    /// <summary>Waits until the wall's clock ticks (the circuit is live).</summary>
+    internal static async Task WaitUntilLiveAsync(IPage page)
+    {
         const string clock = "[data-testid=wall-utc], .wall-nodata-clock";
         var first = await page.Locator(clock).First.TextContentAsync();
         await page.WaitForFunctionAsync(

@@ -45,6 +45,12 @@ public sealed class EndpointAccessTests
         ["/hubs/lvp"] = AccessPolicies.HubRead,
         ["/hubs/lvp/negotiate"] = AccessPolicies.HubRead,
         ["/api/state"] = AccessPolicies.HubRead,
+        ["/review"] = AccessPolicies.Review,
+        ["/review/{EpisodeId}"] = AccessPolicies.Review,
+        ["/api/episodes/"] = AccessPolicies.Review,
+        ["/api/episodes/{id}/readings.csv"] = AccessPolicies.Review,
+        ["/api/episodes/{id}/audit.csv"] = AccessPolicies.Review,
+        ["/api/episodes/{id}/export.json"] = AccessPolicies.Review,
         ["/_blazor"] = Framework,
         ["/_blazor/negotiate"] = Framework,
         ["/_blazor/initializers/"] = Framework,
@@ -84,6 +90,35 @@ public sealed class EndpointAccessTests
             data.Add(page, Roles.Viewer, HttpStatusCode.Redirect, "/access-denied");
             data.Add(page, null, HttpStatusCode.Redirect, "/signin");
         }
+        // Role → page, as docs/access.md decides it: the wall and review for any role, the console for the duty
+        // manager, the tablets for ground staff and the duty manager.
+        var allowed = new Dictionary<string, string[]>
+        {
+            ["/wall"] = [Roles.Administrator, Roles.DutyManager, Roles.GroundStaff, Roles.Viewer],
+            ["/review"] = [Roles.Administrator, Roles.DutyManager, Roles.GroundStaff, Roles.Viewer],
+            ["/console"] = [Roles.DutyManager],
+            ["/actions"] = [Roles.GroundStaff, Roles.DutyManager],
+        };
+        foreach (var (page, roles) in allowed)
+        {
+            foreach (var role in new[] { Roles.Administrator, Roles.DutyManager, Roles.GroundStaff, Roles.Viewer })
+            {
+                if (roles.Contains(role))
+                {
+                    data.Add(page, role, HttpStatusCode.OK, null);
+                }
+                else
+                {
+                    data.Add(page, role, HttpStatusCode.Redirect, "/access-denied");
+                }
+            }
+            data.Add(page, null, HttpStatusCode.Redirect, "/signin");
+        }
+        foreach (var role in new[] { Roles.Administrator, Roles.DutyManager, Roles.GroundStaff, Roles.Viewer })
+        {
+            data.Add("/api/episodes", role, HttpStatusCode.OK, null);
+        }
+        data.Add("/api/episodes", null, HttpStatusCode.Unauthorized, null);
         foreach (var page in new[] { "/", "/signin", "/health" })
         {
             data.Add(page, null, HttpStatusCode.OK, null);
@@ -106,6 +141,30 @@ public sealed class EndpointAccessTests
         }
 
         using var response = await client.GetAsync(path);
+
+        Assert.Equal(status, response.StatusCode);
+        if (redirectTo is not null)
+        {
+            Assert.Equal(redirectTo, new Uri(app.BaseAddress, response.Headers.Location!).AbsolutePath);
+        }
+    }
+
+    [Theory]
+    [InlineData("/wall", HttpStatusCode.OK, null)]
+    [InlineData("/review", HttpStatusCode.Redirect, "/access-denied")]
+    [InlineData("/console", HttpStatusCode.Redirect, "/access-denied")]
+    [InlineData("/actions", HttpStatusCode.Redirect, "/access-denied")]
+    [InlineData("/admin/users", HttpStatusCode.Redirect, "/access-denied")]
+    [InlineData("/api/episodes", HttpStatusCode.Forbidden, null)]
+    public async Task DisplayLink_ReachesOnlyTheWall(string path, HttpStatusCode status, string? redirectTo)
+    {
+        await using var app = AccessApp.Start();
+        var issued = await app.Services.GetRequiredService<CredentialAdmin>().IssueDisplayAsync("test-admin", "ops room centre (invented)");
+        using var kiosk = AccessClient.For(app);
+        using var opened = await kiosk.GetAsync("/display/" + issued.Secret);
+        Assert.Equal(HttpStatusCode.Redirect, opened.StatusCode);
+
+        using var response = await kiosk.GetAsync(path);
 
         Assert.Equal(status, response.StatusCode);
         if (redirectTo is not null)

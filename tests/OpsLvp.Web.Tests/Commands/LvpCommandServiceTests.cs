@@ -20,6 +20,8 @@ public sealed class LvpCommandServiceTests
     public async Task WithoutTheRole_OrSignedOut_CommandsAreRefused_AndNothingIsAudited()
     {
         await using var run = await Run.StartAsync();
+        // Issuing the hub-read key that reads the state is itself audited: issue it before counting.
+        await LiveClient.ReaderKeyAsync(run.App);
         var before = (await LiveClient.EntriesAsync(run.App)).Count;
         var declare = new DeclarePhase("x", Phase.Active, "fog (test)");
         var viewer = await run.Commands.ExecuteAsync(Caller("v.test", Roles.Viewer), declare);
@@ -76,6 +78,8 @@ public sealed class LvpCommandServiceTests
     {
         await using var run = await Run.StartAsync();
         Assert.Equal(CommandOutcomeKind.Applied, (await run.Commands.ExecuteAsync(Manager, new DeclarePhase("x", Phase.Active, "fog (test)"))).Kind);
+        // The hub-read key that reads the state is issued (an audit entry) before the audit is made to fail.
+        await LiveClient.ReaderKeyAsync(run.App);
         await run.SqlAsync("CREATE TRIGGER test_fail BEFORE INSERT ON audit_entries BEGIN SELECT RAISE(ABORT, 'test: audit storage failing'); END;");
 
         var outcome = await run.Commands.ExecuteAsync(Manager, new CancelLvp("x", "fog lifted (test)"));

@@ -1,5 +1,6 @@
 using System.Net;
 using System.Text.Json;
+using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Mvc.Testing;
 using Microsoft.AspNetCore.TestHost;
@@ -11,7 +12,7 @@ using OpsLvp.Web.Review;
 
 namespace OpsLvp.Web.Tests.Review;
 
-/// <summary>The /api/episodes group over the invented demo night (in-memory test server, record replaced).</summary>
+/// <summary>The /api/episodes group over the invented demo night (in-memory test server, record replaced, a viewer signed in).</summary>
 public sealed class ReviewApiTests : IAsyncLifetime
 {
     private readonly string _data = Path.Combine(Path.GetTempPath(), "opslvp-tests", Guid.NewGuid().ToString("N"));
@@ -91,7 +92,14 @@ public sealed class ReviewApiTests : IAsyncLifetime
                 ["Demo:Simulator"] = "Off",
                 ["Logging:LogLevel:Default"] = "Warning",
             }));
-            builder.ConfigureTestServices(s => s.AddSingleton<IEpisodeSource>(new DemoNightSource()));
+            builder.ConfigureTestServices(s =>
+            {
+                s.AddSingleton<IEpisodeSource>(new DemoNightSource());
+                // The review API needs a signed-in account (access is checked in EndpointAccessTests); here every
+                // request is an invented viewer so the tests read the API's content.
+                s.AddAuthentication().AddScheme<AuthenticationSchemeOptions, SignedInViewerHandler>(SignedInViewerHandler.SchemeName, _ => { });
+                s.PostConfigure<AuthenticationOptions>(o => o.DefaultScheme = SignedInViewerHandler.SchemeName);
+            });
         }
     }
 }
