@@ -94,13 +94,16 @@ public sealed class LvpEngine(AerodromeProfile profile)
         double? rvr = null;
         GoverningSensor? rvrSensor = null;
         var rvrMissing = new List<string>();
-        foreach (var g in model.Governing)
+        var governing = model.Governing;
+        var governingKeys = model.GoverningRvrKeys;
+        for (var gi = 0; gi < governing.Count; gi++)
         {
+            var g = governing[gi];
             if (state.OutOfService.Contains(g.SensorId))
             {
                 continue;
             }
-            if (state.Latest.TryGetValue(EngineState.SensorKey(g.SensorId, ReadingKind.Rvr), out var r) && model.IsFresh(r, t))
+            if (state.Latest.TryGetValue(governingKeys[gi], out var r) && model.IsFresh(r, t))
             {
                 if (rvr is null || r.Value < rvr)
                 {
@@ -116,16 +119,18 @@ public sealed class LvpEngine(AerodromeProfile profile)
         double? ceiling = null;
         string? ceilingSensor = null;
         var ceilingMissing = new List<string>();
-        foreach (var id in model.Ceilometers)
+        var ceilometers = model.Ceilometers;
+        for (var ci = 0; ci < ceilometers.Count; ci++)
         {
+            var id = ceilometers[ci];
             if (state.OutOfService.Contains(id))
             {
                 continue;
             }
             var any = false;
-            foreach (var kind in CeilingKinds(model))
+            foreach (var key in model.CeilometerKeys[ci])
             {
-                if (state.Latest.TryGetValue(EngineState.SensorKey(id, kind), out var r) && model.IsFresh(r, t))
+                if (state.Latest.TryGetValue(key, out var r) && model.IsFresh(r, t))
                 {
                     any = true;
                     if (ceiling is null || r.Value < ceiling)
@@ -156,8 +161,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             active, preparation, Recovered(thresholds.Active), !forecast && Recovered(thresholds.Preparation));
     }
 
-    internal static IEnumerable<ReadingKind> CeilingKinds(EngineModel model) =>
-        model.Profile.VerticalVisibilityIsCeiling ? [ReadingKind.CloudBase, ReadingKind.VerticalVisibility] : [ReadingKind.CloudBase];
+    internal static IEnumerable<ReadingKind> CeilingKinds(EngineModel model) => model.CeilingKinds;
 
     private static bool Below(double? value, double? threshold) => value is { } v && threshold is { } limit && v < limit;
 
@@ -189,11 +193,11 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 Consider(r.Time + _model.MaxAge(r.Kind));
             }
-            foreach (var sensor in _model.Sensors.Values)
+            foreach (var sensor in _model.SensorEntries)
             {
-                if (!HasReadings(sensor.Id))
+                if (!HasReadings(sensor))
                 {
-                    Consider(MonitoringSince + _model.MaxAge(ReadingScreen.PrimaryKind(sensor.Type)));
+                    Consider(MonitoringSince + sensor.PrimaryMaxAge);
                 }
             }
             foreach (var (kind, since) in State.HoldingSince)
@@ -212,8 +216,17 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         private DateTimeOffset MonitoringSince => State.MonitoringSince ?? State.PhaseSince;
 
-        private bool HasReadings(string sensorId) =>
-            Enum.GetValues<ReadingKind>().Any(k => State.Latest.ContainsKey(EngineState.SensorKey(sensorId, k)));
+        private bool HasReadings(EngineModel.SensorEntry sensor)
+        {
+            foreach (var key in sensor.AllKeys)
+            {
+                if (State.Latest.ContainsKey(key))
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
 
         /// <summary>Escalation dwells are measured from no earlier than the last manual relaxation (R9).</summary>
         private DateTimeOffset DwellStart(ConditionKind kind, DateTimeOffset since) =>
@@ -264,7 +277,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
         private void UpdateHolding(Situation sit, DateTimeOffset t)
         {
             var holding = State.HoldingSince;
-            foreach (var kind in Enum.GetValues<ConditionKind>())
+            foreach (var kind in EngineModel.AllConditions)
             {
                 var holds = sit.Holds(kind);
                 if (holds && !holding.ContainsKey(kind))
@@ -522,11 +535,11 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 wanted.Add((AlarmKeys.CeilingUnknown, AlarmKind.CeilingUnknown, "ceiling unknown: no fresh reading from any ceilometer"));
             }
-            foreach (var sensor in _model.Sensors.Values)
+            foreach (var sensor in _model.SensorEntries)
             {
-                if (!State.OutOfService.Contains(sensor.Id) && IsSilent(sensor, t))
+                if (!State.OutOfService.Contains(sensor.Sensor.Id) && IsSilent(sensor, t))
                 {
-                    wanted.Add((AlarmKeys.SensorSilent(sensor.Id), AlarmKind.SensorSilent, $"sensor {sensor.Id} silent past its maximum age"));
+                    wanted.Add((sensor.SilentAlarmKey, AlarmKind.SensorSilent, sensor.SilentAlarmMessage));
                 }
             }
             foreach (var item in State.Items)
@@ -569,12 +582,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
         }
 
-        private bool IsSilent(SensorConfig sensor, DateTimeOffset t)
+        private bool IsSilent(EngineModel.SensorEntry sensor, DateTimeOffset t)
         {
             var any = false;
-            foreach (var kind in ReadingScreen.KindsProduced(sensor.Type))
+            foreach (var key in sensor.ProducedKeys)
             {
-                if (State.Latest.TryGetValue(EngineState.SensorKey(sensor.Id, kind), out var r))
+                if (State.Latest.TryGetValue(key, out var r))
                 {
                     any = true;
                     if (_model.IsFresh(r, t))
@@ -583,7 +596,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
                     }
                 }
             }
-            return any || t >= MonitoringSince + _model.MaxAge(ReadingScreen.PrimaryKind(sensor.Type));
+            return any || t >= MonitoringSince + sensor.PrimaryMaxAge;
         }
 
         // ---------------------------------------------------------------- readings (R1, R2)
@@ -596,7 +609,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 Events.Add(new ReadingRejected(now, reading, rejection.Reason, rejection.Detail));
                 return false;
             }
-            State = State with { Latest = State.Latest.SetItem(EngineState.SensorKey(reading.SensorId, reading.Kind), reading) };
+            State = State with { Latest = State.Latest.SetItem(_model.Key(reading.SensorId, reading.Kind), reading) };
             return true;
         }
 
@@ -606,11 +619,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 return (RejectReason.Malformed, "no reading");
             }
-            if (reading.SensorId is null || !_model.Sensors.TryGetValue(reading.SensorId, out var sensor))
+            if (reading.SensorId is null || !_model.SensorsById.TryGetValue(reading.SensorId, out var entry))
             {
                 return (RejectReason.UnknownSensor, $"sensor '{reading.SensorId}' is not in the profile");
             }
-            if (!ReadingScreen.KindsProduced(sensor.Type).Contains(reading.Kind))
+            var sensor = entry.Sensor;
+            if (Array.IndexOf(entry.KindsProduced, reading.Kind) < 0)
             {
                 return (RejectReason.KindNotProduced, $"a {sensor.Type} sensor does not produce {reading.Kind}");
             }
@@ -623,12 +637,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 var (min, max) = ReadingScreen.Range(reading.Kind);
                 return (RejectReason.OutOfRange, $"{Fmt.N(reading.Value)} outside {Fmt.N(min)}..{Fmt.N(max)} for {reading.Kind}");
             }
-            var skew = TimeSpan.FromSeconds(Math.Max(0, _model.Profile.FutureSkewSeconds));
+            var skew = _model.FutureSkew;
             if (reading.Time > now + skew)
             {
                 return (RejectReason.FutureDated, $"time {Fmt.Time(reading.Time)} is more than {Fmt.N(skew.TotalSeconds)} s after {Fmt.Time(now)}");
             }
-            if (State.Latest.TryGetValue(EngineState.SensorKey(reading.SensorId, reading.Kind), out var latest))
+            if (State.Latest.TryGetValue(_model.Key(reading.SensorId, reading.Kind), out var latest))
             {
                 if (reading.Time == latest.Time)
                 {
