@@ -1,4 +1,5 @@
 using System.Collections.Immutable;
+using System.Runtime.CompilerServices;
 using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
@@ -28,6 +29,14 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
     private readonly EngineModel _model = new(profile);
 
+    /// <summary>
+    /// States an engine returned whose final step at their <see cref="EngineState.EvaluatedAt"/> changed nothing,
+    /// with the profile applied: a step is a pure function of (profile, state, instant), so stepping such a state
+    /// again at that instant with the same profile changes nothing either and is skipped. Keyed by reference
+    /// (states and profiles are immutable); entries go with their states.
+    /// </summary>
+    private static readonly ConditionalWeakTable<EngineState, Tuple<AerodromeProfile, DateTimeOffset>> Settled = new();
+
     /// <summary>The profile this engine applies.</summary>
     public AerodromeProfile Profile => _model.Profile;
 
@@ -45,6 +54,10 @@ public sealed class LvpEngine(AerodromeProfile profile)
         ArgumentNullException.ThrowIfNull(state);
         ArgumentNullException.ThrowIfNull(inputs);
         var run = new Run(_model, state);
+        if (Settled.TryGetValue(state, out var settled) && ReferenceEquals(settled.Item1, _model.Profile))
+        {
+            run.Settled(settled.Item2);
+        }
         var start = state.EvaluatedAt;
         if (now < start)
         {
@@ -80,7 +93,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
         }
         run.Step(now);
+        var isSettled = run.IsSettled(now);
         run.State = run.State with { EvaluatedAt = now };
+        if (isSettled)
+        {
+            Settled.AddOrUpdate(run.State, Tuple.Create(_model.Profile, now));
+        }
         return new EngineResult(run.State, run.Events);
     }
 
@@ -176,6 +194,20 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         private ThresholdSet Thresholds => _model.Profile.Thresholds;
 
+        // The last state a step left unchanged, and its instant: stepping it again there is a no-op.
+        private EngineState? _settledState;
+        private DateTimeOffset _settledAt;
+
+        /// <summary>Marks the current state as one a step at <paramref name="t"/> leaves unchanged.</summary>
+        public void Settled(DateTimeOffset t)
+        {
+            _settledState = State;
+            _settledAt = t;
+        }
+
+        /// <summary>Whether a step at <paramref name="t"/> is known to leave the current state unchanged.</summary>
+        public bool IsSettled(DateTimeOffset t) => ReferenceEquals(State, _settledState) && _settledAt == t;
+
         // ---------------------------------------------------------------- time
 
         /// <summary>The earliest instant in (after, until] at which something can change without an input.</summary>
@@ -239,6 +271,21 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         /// <summary>Brings conditions, transitions, pending and alarms up to date at <paramref name="t"/>; idempotent.</summary>
         public void Step(DateTimeOffset t)
+        {
+            if (IsSettled(t))
+            {
+                return;
+            }
+            var before = State;
+            StepOnce(t);
+            if (ReferenceEquals(State, before))
+            {
+                // nothing changed (every event comes with a state change): the state is a fixed point at t
+                Settled(t);
+            }
+        }
+
+        private void StepOnce(DateTimeOffset t)
         {
             for (var i = 0; i < MaxTransitionsPerInstant; i++)
             {
