@@ -192,6 +192,8 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         public List<EngineEvent> Events { get; } = [];
 
+        private static readonly ConditionalWeakTable<ChecklistItemState, Tuple<string, string>> OverdueTexts = new();
+
         private ThresholdSet Thresholds => _model.Profile.Thresholds;
 
         // The last state a step left unchanged, and its instant: stepping it again there is a no-op.
@@ -593,7 +595,8 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 if (item.IsOverdue(t))
                 {
-                    wanted.Add((AlarmKeys.ItemOverdue(item.ItemId), AlarmKind.ItemOverdue, $"item {item.ItemId} ({item.Team}) overdue since {Fmt.Time(item.DueAt)}"));
+                    var (key, message) = OverdueAlarm(item);
+                    wanted.Add((key, AlarmKind.ItemOverdue, message));
                 }
             }
             if (State.Pending is { } p)
@@ -608,7 +611,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             foreach (var old in State.Alarms)
             {
                 // a changed message is a new cause under the same key (e.g. a different pending transition): raise it afresh
-                if (!wanted.Any(w => w.Key == old.Key && w.Message == old.Message))
+                if (!IsWanted(wanted, old))
                 {
                     alarms = alarms.Remove(old);
                     Events.Add(new AlarmCleared(t, old.Key, old.Kind));
@@ -616,7 +619,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
             foreach (var (key, kind, message) in wanted)
             {
-                if (!alarms.Any(a => a.Key == key))
+                if (!HasKey(alarms, key))
                 {
                     var alarm = new Alarm(key, kind, message, t);
                     alarms = alarms.Add(alarm);
@@ -627,6 +630,38 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 State = State with { Alarms = alarms };
             }
+        }
+
+        private static bool IsWanted(List<(string Key, AlarmKind Kind, string Message)> wanted, Alarm alarm)
+        {
+            foreach (var w in wanted)
+            {
+                if (w.Key == alarm.Key && w.Message == alarm.Message)
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
+
+        private static bool HasKey(ImmutableList<Alarm> alarms, string key)
+        {
+            foreach (var a in alarms)
+            {
+                if (a.Key == key)
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
+
+        /// <summary>The overdue alarm's key and message of an item, formatted once per item instance (items are immutable).</summary>
+        private static (string Key, string Message) OverdueAlarm(ChecklistItemState item)
+        {
+            var texts = OverdueTexts.GetValue(item, static i => Tuple.Create(
+                AlarmKeys.ItemOverdue(i.ItemId), $"item {i.ItemId} ({i.Team}) overdue since {Fmt.Time(i.DueAt)}"));
+            return (texts.Item1, texts.Item2);
         }
 
         private bool IsSilent(EngineModel.SensorEntry sensor, DateTimeOffset t)
