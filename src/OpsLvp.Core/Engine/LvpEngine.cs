@@ -291,7 +291,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
         {
             for (var i = 0; i < MaxTransitionsPerInstant; i++)
             {
-                var sit = Situate(_model, State, t);
+                var sit = SituateNow(t);
                 UpdateHolding(sit, t);
                 var desired = Desired(sit, t);
                 if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
@@ -320,7 +320,28 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 }
                 Transition(d.To, TransitionBy.Auto, null, d.Reason, sit, null, t);
             }
-            ReconcileAlarms(Situate(_model, State, t), t);
+            ReconcileAlarms(SituateNow(t), t);
+        }
+
+        // The last situation computed in this run and what it was computed from (Situate reads only these).
+        private Situation? _sit;
+        private ImmutableDictionary<string, Reading>? _sitLatest;
+        private ImmutableHashSet<string>? _sitOutOfService;
+        private bool _sitForecast;
+
+        /// <summary><see cref="Situate"/> at <paramref name="t"/>, reusing the last result when its inputs are the same objects.</summary>
+        private Situation SituateNow(DateTimeOffset t)
+        {
+            if (_sit is { } last && last.At == t && ReferenceEquals(_sitLatest, State.Latest)
+                && ReferenceEquals(_sitOutOfService, State.OutOfService) && _sitForecast == State.DeteriorationForecast)
+            {
+                return last;
+            }
+            _sit = Situate(_model, State, t);
+            _sitLatest = State.Latest;
+            _sitOutOfService = State.OutOfService;
+            _sitForecast = State.DeteriorationForecast;
+            return _sit;
         }
 
         private void UpdateHolding(Situation sit, DateTimeOffset t)
