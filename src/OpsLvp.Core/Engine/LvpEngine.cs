@@ -65,7 +65,8 @@ public sealed class LvpEngine(AerodromeProfile profile)
         }
         run.Step(start);
         var t = start;
-        while (run.NextCriticalInstant(t, now) is { } next)
+        // NextCriticalInstant looks in (t, now]: empty once t reaches now, so it is not asked then
+        while (t < now && run.NextCriticalInstant(t, now) is { } next)
         {
             run.Step(next);
             t = next;
