@@ -44,7 +44,80 @@ internal sealed class EngineModel
         ItemConfigs = AllItems(profile.Checklists)
             .GroupBy(x => x.Item.Id, StringComparer.Ordinal)
             .ToDictionary(g => g.Key, g => g.First(), StringComparer.Ordinal);
+
+        // Hot-path lookups, derived once so an evaluation allocates no keys and runs no LINQ over the profile.
+        _maxAge = new TimeSpan[AllKinds.Length];
+        foreach (var kind in AllKinds)
+        {
+            _maxAge[(int)kind] = ComputeMaxAge(kind);
+        }
+        _keys = new Dictionary<string, string[]>(StringComparer.Ordinal);
+        foreach (var id in Sensors.Keys)
+        {
+            _keys[id] = AllKinds.Select(k => EngineState.SensorKey(id, k)).ToArray();
+        }
+        GoverningRvrKeys = Governing.Select(g => Key(g.SensorId, ReadingKind.Rvr)).ToArray();
+        CeilingKinds = profile.VerticalVisibilityIsCeiling ? [ReadingKind.CloudBase, ReadingKind.VerticalVisibility] : [ReadingKind.CloudBase];
+        CeilometerKeys = Ceilometers.Select(id => CeilingKinds.Select(k => Key(id, k)).ToArray()).ToArray();
+        SensorEntries = Sensors.Values.Select(s => new SensorEntry(
+            s,
+            ReadingScreen.KindsProduced(s.Type).ToArray(),
+            ReadingScreen.KindsProduced(s.Type).Select(k => Key(s.Id, k)).ToArray(),
+            _keys[s.Id],
+            MaxAge(ReadingScreen.PrimaryKind(s.Type)),
+            AlarmKeys.SensorSilent(s.Id),
+            $"sensor {s.Id} silent past its maximum age")).ToArray();
+        SensorsById = SensorEntries.ToDictionary(e => e.Sensor.Id, StringComparer.Ordinal);
+        _confirm = (profile.Confirm ?? []).Where(r => r is not null).Select(r => (r.From, r.To)).ToHashSet();
+        _dwell = new TimeSpan[4];
+        foreach (var kind in Enum.GetValues<ConditionKind>())
+        {
+            _dwell[(int)kind] = ComputeDwell(kind);
+        }
+        FutureSkew = TimeSpan.FromSeconds(Math.Max(0, profile.FutureSkewSeconds));
     }
+
+    /// <summary>Every defined reading kind, in declaration order.</summary>
+    public static readonly ReadingKind[] AllKinds = Enum.GetValues<ReadingKind>();
+
+    /// <summary>Every condition kind, in declaration order.</summary>
+    public static readonly ConditionKind[] AllConditions = Enum.GetValues<ConditionKind>();
+
+    private readonly TimeSpan[] _maxAge;
+    private readonly TimeSpan[] _dwell;
+    private readonly Dictionary<string, string[]> _keys;
+    private readonly HashSet<(Phase From, Phase To)> _confirm;
+
+    /// <summary>One profile sensor with its derived keys and limits.</summary>
+    internal sealed record SensorEntry(
+        SensorConfig Sensor,
+        ReadingKind[] KindsProduced,
+        string[] ProducedKeys,
+        string[] AllKeys,
+        TimeSpan PrimaryMaxAge,
+        string SilentAlarmKey,
+        string SilentAlarmMessage);
+
+    /// <summary>The <see cref="EngineState.Latest"/> key of each governing sensor's RVR, parallel to <see cref="Governing"/>.</summary>
+    public IReadOnlyList<string> GoverningRvrKeys { get; }
+
+    /// <summary>The kinds that count as ceiling (cloud base, and vertical visibility when the profile says so).</summary>
+    public ReadingKind[] CeilingKinds { get; }
+
+    /// <summary>The ceiling-kind keys of each ceilometer, parallel to <see cref="Ceilometers"/> and <see cref="CeilingKinds"/>.</summary>
+    public IReadOnlyList<string[]> CeilometerKeys { get; }
+
+    /// <summary>The profile's sensors in profile order, with derived keys.</summary>
+    public IReadOnlyList<SensorEntry> SensorEntries { get; }
+
+    public IReadOnlyDictionary<string, SensorEntry> SensorsById { get; }
+
+    /// <summary>The accepted future skew of reading times (negative profile values count as zero).</summary>
+    public TimeSpan FutureSkew { get; }
+
+    /// <summary>The <see cref="EngineState.Latest"/> key for a sensor and kind; cached for profile sensors.</summary>
+    public string Key(string sensorId, ReadingKind kind) =>
+        (uint)kind < (uint)AllKinds.Length && _keys.TryGetValue(sensorId, out var keys) ? keys[(int)kind] : EngineState.SensorKey(sensorId, kind);
 
     public AerodromeProfile Profile { get; }
 
@@ -66,6 +139,9 @@ internal sealed class EngineModel
         runway.DirectionInUse is { } d && runway.Directions.Contains(d) ? d : runway.Directions[0];
 
     public TimeSpan MaxAge(ReadingKind kind) =>
+        (uint)kind < (uint)_maxAge.Length ? _maxAge[(int)kind] : ComputeMaxAge(kind);
+
+    private TimeSpan ComputeMaxAge(ReadingKind kind) =>
         TimeSpan.FromSeconds(Profile.MaxAgeSeconds.TryGetValue(kind, out var s) && s > 0 ? s : DefaultMaxAgeSeconds);
 
     /// <summary>Fresh from the reading's time until (exclusive) time + the kind's maximum age (DESIGN R2).</summary>
@@ -80,7 +156,10 @@ internal sealed class EngineModel
     };
 
     /// <summary>The dwell of a condition (DESIGN R7); negative profile values count as zero.</summary>
-    public TimeSpan Dwell(ConditionKind kind)
+    public TimeSpan Dwell(ConditionKind kind) =>
+        (uint)kind < (uint)_dwell.Length ? _dwell[(int)kind] : ComputeDwell(kind);
+
+    private TimeSpan ComputeDwell(ConditionKind kind)
     {
         var t = Profile.Thresholds;
         var seconds = kind switch
@@ -93,7 +172,7 @@ internal sealed class EngineModel
         return TimeSpan.FromSeconds(Math.Max(0, seconds));
     }
 
-    public bool NeedsConfirmation(Phase from, Phase to) => Profile.Confirm.Any(r => r is not null && r.From == from && r.To == to);
+    public bool NeedsConfirmation(Phase from, Phase to) => _confirm.Contains((from, to));
 
     private static IEnumerable<(Phase Phase, ChecklistItemConfig Item)> AllItems(ChecklistSet set) =>
         set.Preparation.Select(i => (Phase: Phase.Preparation, Item: i))

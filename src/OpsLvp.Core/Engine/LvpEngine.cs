@@ -1,4 +1,5 @@
 using System.Collections.Immutable;
+using System.Runtime.CompilerServices;
 using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
@@ -28,6 +29,14 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
     private readonly EngineModel _model = new(profile);
 
+    /// <summary>
+    /// States an engine returned whose final step at their <see cref="EngineState.EvaluatedAt"/> changed nothing,
+    /// with the profile applied: a step is a pure function of (profile, state, instant), so stepping such a state
+    /// again at that instant with the same profile changes nothing either and is skipped. Keyed by reference
+    /// (states and profiles are immutable); entries go with their states.
+    /// </summary>
+    private static readonly ConditionalWeakTable<EngineState, Tuple<AerodromeProfile, DateTimeOffset>> Settled = new();
+
     /// <summary>The profile this engine applies.</summary>
     public AerodromeProfile Profile => _model.Profile;
 
@@ -45,6 +54,10 @@ public sealed class LvpEngine(AerodromeProfile profile)
         ArgumentNullException.ThrowIfNull(state);
         ArgumentNullException.ThrowIfNull(inputs);
         var run = new Run(_model, state);
+        if (Settled.TryGetValue(state, out var settled) && ReferenceEquals(settled.Item1, _model.Profile))
+        {
+            run.Settled(settled.Item2);
+        }
         var start = state.EvaluatedAt;
         if (now < start)
         {
@@ -52,7 +65,8 @@ public sealed class LvpEngine(AerodromeProfile profile)
         }
         run.Step(start);
         var t = start;
-        while (run.NextCriticalInstant(t, now) is { } next)
+        // NextCriticalInstant looks in (t, now]: empty once t reaches now, so it is not asked then
+        while (t < now && run.NextCriticalInstant(t, now) is { } next)
         {
             run.Step(next);
             t = next;
@@ -80,7 +94,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
         }
         run.Step(now);
+        var isSettled = run.IsSettled(now);
         run.State = run.State with { EvaluatedAt = now };
+        if (isSettled)
+        {
+            Settled.AddOrUpdate(run.State, Tuple.Create(_model.Profile, now));
+        }
         return new EngineResult(run.State, run.Events);
     }
 
@@ -94,13 +113,16 @@ public sealed class LvpEngine(AerodromeProfile profile)
         double? rvr = null;
         GoverningSensor? rvrSensor = null;
         var rvrMissing = new List<string>();
-        foreach (var g in model.Governing)
+        var governing = model.Governing;
+        var governingKeys = model.GoverningRvrKeys;
+        for (var gi = 0; gi < governing.Count; gi++)
         {
+            var g = governing[gi];
             if (state.OutOfService.Contains(g.SensorId))
             {
                 continue;
             }
-            if (state.Latest.TryGetValue(EngineState.SensorKey(g.SensorId, ReadingKind.Rvr), out var r) && model.IsFresh(r, t))
+            if (state.Latest.TryGetValue(governingKeys[gi], out var r) && model.IsFresh(r, t))
             {
                 if (rvr is null || r.Value < rvr)
                 {
@@ -116,16 +138,18 @@ public sealed class LvpEngine(AerodromeProfile profile)
         double? ceiling = null;
         string? ceilingSensor = null;
         var ceilingMissing = new List<string>();
-        foreach (var id in model.Ceilometers)
+        var ceilometers = model.Ceilometers;
+        for (var ci = 0; ci < ceilometers.Count; ci++)
         {
+            var id = ceilometers[ci];
             if (state.OutOfService.Contains(id))
             {
                 continue;
             }
             var any = false;
-            foreach (var kind in CeilingKinds(model))
+            foreach (var key in model.CeilometerKeys[ci])
             {
-                if (state.Latest.TryGetValue(EngineState.SensorKey(id, kind), out var r) && model.IsFresh(r, t))
+                if (state.Latest.TryGetValue(key, out var r) && model.IsFresh(r, t))
                 {
                     any = true;
                     if (ceiling is null || r.Value < ceiling)
@@ -156,8 +180,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             active, preparation, Recovered(thresholds.Active), !forecast && Recovered(thresholds.Preparation));
     }
 
-    internal static IEnumerable<ReadingKind> CeilingKinds(EngineModel model) =>
-        model.Profile.VerticalVisibilityIsCeiling ? [ReadingKind.CloudBase, ReadingKind.VerticalVisibility] : [ReadingKind.CloudBase];
+    internal static IEnumerable<ReadingKind> CeilingKinds(EngineModel model) => model.CeilingKinds;
 
     private static bool Below(double? value, double? threshold) => value is { } v && threshold is { } limit && v < limit;
 
@@ -170,7 +193,23 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         public List<EngineEvent> Events { get; } = [];
 
+        private static readonly ConditionalWeakTable<ChecklistItemState, Tuple<string, string>> OverdueTexts = new();
+
         private ThresholdSet Thresholds => _model.Profile.Thresholds;
+
+        // The last state a step left unchanged, and its instant: stepping it again there is a no-op.
+        private EngineState? _settledState;
+        private DateTimeOffset _settledAt;
+
+        /// <summary>Marks the current state as one a step at <paramref name="t"/> leaves unchanged.</summary>
+        public void Settled(DateTimeOffset t)
+        {
+            _settledState = State;
+            _settledAt = t;
+        }
+
+        /// <summary>Whether a step at <paramref name="t"/> is known to leave the current state unchanged.</summary>
+        public bool IsSettled(DateTimeOffset t) => ReferenceEquals(State, _settledState) && _settledAt == t;
 
         // ---------------------------------------------------------------- time
 
@@ -189,11 +228,11 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 Consider(r.Time + _model.MaxAge(r.Kind));
             }
-            foreach (var sensor in _model.Sensors.Values)
+            foreach (var sensor in _model.SensorEntries)
             {
-                if (!HasReadings(sensor.Id))
+                if (!HasReadings(sensor))
                 {
-                    Consider(MonitoringSince + _model.MaxAge(ReadingScreen.PrimaryKind(sensor.Type)));
+                    Consider(MonitoringSince + sensor.PrimaryMaxAge);
                 }
             }
             foreach (var (kind, since) in State.HoldingSince)
@@ -212,8 +251,17 @@ public sealed class LvpEngine(AerodromeProfile profile)
 
         private DateTimeOffset MonitoringSince => State.MonitoringSince ?? State.PhaseSince;
 
-        private bool HasReadings(string sensorId) =>
-            Enum.GetValues<ReadingKind>().Any(k => State.Latest.ContainsKey(EngineState.SensorKey(sensorId, k)));
+        private bool HasReadings(EngineModel.SensorEntry sensor)
+        {
+            foreach (var key in sensor.AllKeys)
+            {
+                if (State.Latest.ContainsKey(key))
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
 
         /// <summary>Escalation dwells are measured from no earlier than the last manual relaxation (R9).</summary>
         private DateTimeOffset DwellStart(ConditionKind kind, DateTimeOffset since) =>
@@ -227,9 +275,24 @@ public sealed class LvpEngine(AerodromeProfile profile)
         /// <summary>Brings conditions, transitions, pending and alarms up to date at <paramref name="t"/>; idempotent.</summary>
         public void Step(DateTimeOffset t)
         {
+            if (IsSettled(t))
+            {
+                return;
+            }
+            var before = State;
+            StepOnce(t);
+            if (ReferenceEquals(State, before))
+            {
+                // nothing changed (every event comes with a state change): the state is a fixed point at t
+                Settled(t);
+            }
+        }
+
+        private void StepOnce(DateTimeOffset t)
+        {
             for (var i = 0; i < MaxTransitionsPerInstant; i++)
             {
-                var sit = Situate(_model, State, t);
+                var sit = SituateNow(t);
                 UpdateHolding(sit, t);
                 var desired = Desired(sit, t);
                 if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
@@ -258,13 +321,34 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 }
                 Transition(d.To, TransitionBy.Auto, null, d.Reason, sit, null, t);
             }
-            ReconcileAlarms(Situate(_model, State, t), t);
+            ReconcileAlarms(SituateNow(t), t);
+        }
+
+        // The last situation computed in this run and what it was computed from (Situate reads only these).
+        private Situation? _sit;
+        private ImmutableDictionary<string, Reading>? _sitLatest;
+        private ImmutableHashSet<string>? _sitOutOfService;
+        private bool _sitForecast;
+
+        /// <summary><see cref="Situate"/> at <paramref name="t"/>, reusing the last result when its inputs are the same objects.</summary>
+        private Situation SituateNow(DateTimeOffset t)
+        {
+            if (_sit is { } last && last.At == t && ReferenceEquals(_sitLatest, State.Latest)
+                && ReferenceEquals(_sitOutOfService, State.OutOfService) && _sitForecast == State.DeteriorationForecast)
+            {
+                return last;
+            }
+            _sit = Situate(_model, State, t);
+            _sitLatest = State.Latest;
+            _sitOutOfService = State.OutOfService;
+            _sitForecast = State.DeteriorationForecast;
+            return _sit;
         }
 
         private void UpdateHolding(Situation sit, DateTimeOffset t)
         {
             var holding = State.HoldingSince;
-            foreach (var kind in Enum.GetValues<ConditionKind>())
+            foreach (var kind in EngineModel.AllConditions)
             {
                 var holds = sit.Holds(kind);
                 if (holds && !holding.ContainsKey(kind))
@@ -522,18 +606,19 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 wanted.Add((AlarmKeys.CeilingUnknown, AlarmKind.CeilingUnknown, "ceiling unknown: no fresh reading from any ceilometer"));
             }
-            foreach (var sensor in _model.Sensors.Values)
+            foreach (var sensor in _model.SensorEntries)
             {
-                if (!State.OutOfService.Contains(sensor.Id) && IsSilent(sensor, t))
+                if (!State.OutOfService.Contains(sensor.Sensor.Id) && IsSilent(sensor, t))
                 {
-                    wanted.Add((AlarmKeys.SensorSilent(sensor.Id), AlarmKind.SensorSilent, $"sensor {sensor.Id} silent past its maximum age"));
+                    wanted.Add((sensor.SilentAlarmKey, AlarmKind.SensorSilent, sensor.SilentAlarmMessage));
                 }
             }
             foreach (var item in State.Items)
             {
                 if (item.IsOverdue(t))
                 {
-                    wanted.Add((AlarmKeys.ItemOverdue(item.ItemId), AlarmKind.ItemOverdue, $"item {item.ItemId} ({item.Team}) overdue since {Fmt.Time(item.DueAt)}"));
+                    var (key, message) = OverdueAlarm(item);
+                    wanted.Add((key, AlarmKind.ItemOverdue, message));
                 }
             }
             if (State.Pending is { } p)
@@ -548,7 +633,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             foreach (var old in State.Alarms)
             {
                 // a changed message is a new cause under the same key (e.g. a different pending transition): raise it afresh
-                if (!wanted.Any(w => w.Key == old.Key && w.Message == old.Message))
+                if (!IsWanted(wanted, old))
                 {
                     alarms = alarms.Remove(old);
                     Events.Add(new AlarmCleared(t, old.Key, old.Kind));
@@ -556,7 +641,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
             foreach (var (key, kind, message) in wanted)
             {
-                if (!alarms.Any(a => a.Key == key))
+                if (!HasKey(alarms, key))
                 {
                     var alarm = new Alarm(key, kind, message, t);
                     alarms = alarms.Add(alarm);
@@ -569,12 +654,44 @@ public sealed class LvpEngine(AerodromeProfile profile)
             }
         }
 
-        private bool IsSilent(SensorConfig sensor, DateTimeOffset t)
+        private static bool IsWanted(List<(string Key, AlarmKind Kind, string Message)> wanted, Alarm alarm)
+        {
+            foreach (var w in wanted)
+            {
+                if (w.Key == alarm.Key && w.Message == alarm.Message)
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
+
+        private static bool HasKey(ImmutableList<Alarm> alarms, string key)
+        {
+            foreach (var a in alarms)
+            {
+                if (a.Key == key)
+                {
+                    return true;
+                }
+            }
+            return false;
+        }
+
+        /// <summary>The overdue alarm's key and message of an item, formatted once per item instance (items are immutable).</summary>
+        private static (string Key, string Message) OverdueAlarm(ChecklistItemState item)
+        {
+            var texts = OverdueTexts.GetValue(item, static i => Tuple.Create(
+                AlarmKeys.ItemOverdue(i.ItemId), $"item {i.ItemId} ({i.Team}) overdue since {Fmt.Time(i.DueAt)}"));
+            return (texts.Item1, texts.Item2);
+        }
+
+        private bool IsSilent(EngineModel.SensorEntry sensor, DateTimeOffset t)
         {
             var any = false;
-            foreach (var kind in ReadingScreen.KindsProduced(sensor.Type))
+            foreach (var key in sensor.ProducedKeys)
             {
-                if (State.Latest.TryGetValue(EngineState.SensorKey(sensor.Id, kind), out var r))
+                if (State.Latest.TryGetValue(key, out var r))
                 {
                     any = true;
                     if (_model.IsFresh(r, t))
@@ -583,7 +700,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
                     }
                 }
             }
-            return any || t >= MonitoringSince + _model.MaxAge(ReadingScreen.PrimaryKind(sensor.Type));
+            return any || t >= MonitoringSince + sensor.PrimaryMaxAge;
         }
 
         // ---------------------------------------------------------------- readings (R1, R2)
@@ -596,7 +713,7 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 Events.Add(new ReadingRejected(now, reading, rejection.Reason, rejection.Detail));
                 return false;
             }
-            State = State with { Latest = State.Latest.SetItem(EngineState.SensorKey(reading.SensorId, reading.Kind), reading) };
+            State = State with { Latest = State.Latest.SetItem(_model.Key(reading.SensorId, reading.Kind), reading) };
             return true;
         }
 
@@ -606,11 +723,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
             {
                 return (RejectReason.Malformed, "no reading");
             }
-            if (reading.SensorId is null || !_model.Sensors.TryGetValue(reading.SensorId, out var sensor))
+            if (reading.SensorId is null || !_model.SensorsById.TryGetValue(reading.SensorId, out var entry))
             {
                 return (RejectReason.UnknownSensor, $"sensor '{reading.SensorId}' is not in the profile");
             }
-            if (!ReadingScreen.KindsProduced(sensor.Type).Contains(reading.Kind))
+            var sensor = entry.Sensor;
+            if (Array.IndexOf(entry.KindsProduced, reading.Kind) < 0)
             {
                 return (RejectReason.KindNotProduced, $"a {sensor.Type} sensor does not produce {reading.Kind}");
             }
@@ -623,12 +741,12 @@ public sealed class LvpEngine(AerodromeProfile profile)
                 var (min, max) = ReadingScreen.Range(reading.Kind);
                 return (RejectReason.OutOfRange, $"{Fmt.N(reading.Value)} outside {Fmt.N(min)}..{Fmt.N(max)} for {reading.Kind}");
             }
-            var skew = TimeSpan.FromSeconds(Math.Max(0, _model.Profile.FutureSkewSeconds));
+            var skew = _model.FutureSkew;
             if (reading.Time > now + skew)
             {
                 return (RejectReason.FutureDated, $"time {Fmt.Time(reading.Time)} is more than {Fmt.N(skew.TotalSeconds)} s after {Fmt.Time(now)}");
             }
-            if (State.Latest.TryGetValue(EngineState.SensorKey(reading.SensorId, reading.Kind), out var latest))
+            if (State.Latest.TryGetValue(_model.Key(reading.SensorId, reading.Kind), out var latest))
             {
                 if (reading.Time == latest.Time)
                 {
