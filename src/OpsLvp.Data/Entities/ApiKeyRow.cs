@@ -1,7 +1,7 @@
 namespace OpsLvp.Data.Entities;
 
 /// <summary>Row of <c>api_keys</c>: a named, scoped key for machine clients. Only the SHA-256 of the key is kept.</summary>
-public sealed class ApiKeyRow
+public sealed class ApiKeyRow : ISecretRow
 {
     public long Id { get; set; }
 

@@ -1,7 +1,7 @@
 namespace OpsLvp.Data.Entities;
 
 /// <summary>Row of <c>display_tokens</c>: a named read-only wall link for a kiosk. Only the SHA-256 of the token is kept.</summary>
-public sealed class DisplayTokenRow
+public sealed class DisplayTokenRow : ISecretRow
 {
     public long Id { get; set; }
 

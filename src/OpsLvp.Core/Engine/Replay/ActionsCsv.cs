@@ -16,28 +16,10 @@ public static class ActionsCsv
     {
         ArgumentNullException.ThrowIfNull(text);
         var actions = new List<TimedCommand>();
-        var header = true;
-        foreach (var (number, line) in Csv.Lines(text))
+        foreach (var row in Csv.Rows(text, fileName, Header, 6))
         {
-            FormatException Error(string what) => new($"{fileName} line {number}: {what}");
-            if (header)
-            {
-                if (line.Trim().TrimStart('\uFEFF') != Header)
-                {
-                    throw Error($"header must be '{Header}'");
-                }
-                header = false;
-                continue;
-            }
-            var f = Csv.Split(line, Error);
-            if (f.Count != 6)
-            {
-                throw Error($"expected 6 fields, found {f.Count}");
-            }
-            if (!Csv.TryTime(f[0], out var time))
-            {
-                throw Error($"bad time '{f[0]}' (ISO 8601 with Z or an offset)");
-            }
+            var f = row.Fields;
+            var time = row.TimeAt(0);
             var actor = f[1].Trim();
             var target = f[3].Trim();
             var value = f[4].Trim();
@@ -48,7 +30,7 @@ public static class ActionsCsv
                 {
                     "preparation" => Phase.Preparation,
                     "active" => Phase.Active,
-                    _ => throw Error($"declare target must be preparation or active, not '{target}'"),
+                    _ => throw row.Error($"declare target must be preparation or active, not '{target}'"),
                 }, reason),
                 "cancel" => new CancelLvp(actor, reason),
                 "release_hold" => new ReleaseHold(actor, reason),
@@ -56,21 +38,17 @@ public static class ActionsCsv
                 {
                     "on" => true,
                     "off" => false,
-                    _ => throw Error($"forecast value must be on or off, not '{value}'"),
+                    _ => throw row.Error($"forecast value must be on or off, not '{value}'"),
                 }, reason),
-                "sensor_out" => new SetSensorService(actor, Required(target, "target (sensor id)", Error), false, reason),
-                "sensor_in" => new SetSensorService(actor, Required(target, "target (sensor id)", Error), true, reason),
+                "sensor_out" => new SetSensorService(actor, Required(target, "target (sensor id)", row.Error), false, reason),
+                "sensor_in" => new SetSensorService(actor, Required(target, "target (sensor id)", row.Error), true, reason),
                 "confirm" => new ConfirmPending(actor, reason.Length == 0 ? null : reason),
-                "tick" => new TickItem(actor, Required(value, "value (team id)", Error), Required(target, "target (item id)", Error), reason.Length == 0 ? null : reason),
-                "untick" => new UntickItem(actor, Required(target, "target (item id)", Error), reason),
-                "ack" => new AcknowledgeAlarm(actor, Required(target, "target (alarm key)", Error)),
-                var other => throw Error($"unknown action '{other}'"),
+                "tick" => new TickItem(actor, Required(value, "value (team id)", row.Error), Required(target, "target (item id)", row.Error), reason.Length == 0 ? null : reason),
+                "untick" => new UntickItem(actor, Required(target, "target (item id)", row.Error), reason),
+                "ack" => new AcknowledgeAlarm(actor, Required(target, "target (alarm key)", row.Error)),
+                var other => throw row.Error($"unknown action '{other}'"),
             };
             actions.Add(new TimedCommand(time, command));
-        }
-        if (header)
-        {
-            throw new FormatException($"{fileName}: empty file, header '{Header}' missing");
         }
         return actions;
     }

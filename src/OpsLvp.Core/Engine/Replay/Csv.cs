@@ -8,6 +8,39 @@ internal static partial class Csv
 {
     private static readonly Regex ExplicitOffset = OffsetRegex();
 
+    /// <summary>
+    /// The data rows of a file whose first line must be <paramref name="header"/> (a leading BOM and spaces
+    /// allowed) and whose rows have exactly <paramref name="fieldCount"/> fields; errors name file and line.
+    /// </summary>
+    public static IEnumerable<CsvRow> Rows(string text, string fileName, string header, int fieldCount)
+    {
+        ArgumentNullException.ThrowIfNull(text);
+        var seenHeader = false;
+        foreach (var (number, line) in Lines(text))
+        {
+            FormatException Error(string what) => new($"{fileName} line {number}: {what}");
+            if (!seenHeader)
+            {
+                if (line.Trim().TrimStart('\uFEFF') != header)
+                {
+                    throw Error($"header must be '{header}'");
+                }
+                seenHeader = true;
+                continue;
+            }
+            var fields = Split(line, Error);
+            if (fields.Count != fieldCount)
+            {
+                throw Error($"expected {fieldCount} fields, found {fields.Count}");
+            }
+            yield return new CsvRow(fileName, number, fields);
+        }
+        if (!seenHeader)
+        {
+            throw new FormatException($"{fileName}: empty file, header '{header}' missing");
+        }
+    }
+
     /// <summary>Splits a line into fields; quoted fields may hold commas and doubled quotes.</summary>
     public static List<string> Split(string line, Func<string, Exception> error)
     {

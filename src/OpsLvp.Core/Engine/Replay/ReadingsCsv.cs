@@ -19,44 +19,22 @@ public static class ReadingsCsv
     {
         ArgumentNullException.ThrowIfNull(text);
         var readings = new List<Reading>();
-        var header = true;
-        foreach (var (number, line) in Csv.Lines(text))
+        foreach (var row in Csv.Rows(text, fileName, Header, 5))
         {
-            FormatException Error(string what) => new($"{fileName} line {number}: {what}");
-            if (header)
-            {
-                if (line.Trim().TrimStart('\uFEFF') != Header)
-                {
-                    throw Error($"header must be '{Header}'");
-                }
-                header = false;
-                continue;
-            }
-            var f = Csv.Split(line, Error);
-            if (f.Count != 5)
-            {
-                throw Error($"expected 5 fields, found {f.Count}");
-            }
-            if (!Csv.TryTime(f[0], out var time))
-            {
-                throw Error($"bad time '{f[0]}' (ISO 8601 with Z or an offset)");
-            }
+            var f = row.Fields;
+            var time = row.TimeAt(0);
             var sensor = f[1].Trim();
             if (sensor.Length == 0)
             {
-                throw Error("sensor is empty");
+                throw row.Error("sensor is empty");
             }
-            var kind = ParseKind(f[2].Trim()) ?? throw Error($"unknown kind '{f[2]}'");
+            var kind = ParseKind(f[2].Trim()) ?? throw row.Error($"unknown kind '{f[2]}'");
             if (!double.TryParse(f[3].Trim(), NumberStyles.Float, CultureInfo.InvariantCulture, out var value))
             {
-                throw Error($"bad value '{f[3]}'");
+                throw row.Error($"bad value '{f[3]}'");
             }
-            var status = ParseStatus(f[4].Trim()) ?? throw Error($"unknown status '{f[4]}' (ok, degraded, failed, maintenance)");
+            var status = ParseStatus(f[4].Trim()) ?? throw row.Error($"unknown status '{f[4]}' (ok, degraded, failed, maintenance)");
             readings.Add(new Reading(time, sensor, kind, value, status));
-        }
-        if (header)
-        {
-            throw new FormatException($"{fileName}: empty file, header '{Header}' missing");
         }
         return readings;
     }

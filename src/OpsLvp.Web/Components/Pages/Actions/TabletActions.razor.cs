@@ -2,6 +2,7 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using OpsLvp.Core.Engine;
 using OpsLvp.Web.Commands;
+using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Components.Pages.Actions;
@@ -10,15 +11,11 @@ namespace OpsLvp.Web.Components.Pages.Actions;
 /// The tablet page: the signed-in person's teams' items for the running episode, overdue first. Live data from
 /// <see cref="ILiveState"/>; ticks go through the command service from <see cref="ActionItemCard"/>.
 /// </summary>
-public partial class TabletActions
+public partial class TabletActions : LiveComponentBase
 {
     private CommandCaller _caller = CommandCaller.Anonymous;
     private LiveSnapshot? _snapshot;
     private IReadOnlyList<ChecklistItemView> _items = [];
-    private IDisposable? _subscription;
-
-    [Inject]
-    private ILiveState Live { get; set; } = default!;
 
     [CascadingParameter]
     private Task<AuthenticationState>? AuthenticationState { get; set; }
@@ -40,41 +37,11 @@ public partial class TabletActions
         {
             _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
         }
-        Show(Live.Current);
+        ShowSnapshot(Live.Current);
     }
 
-    protected override void OnAfterRender(bool firstRender)
+    protected override void OnSnapshot(LiveSnapshot snapshot)
     {
-        if (firstRender)
-        {
-            _subscription = Live.Subscribe(OnSnapshotAsync);
-            if (Live.Current is { } current && current.Version != _snapshot?.Version)
-            {
-                Show(current);
-                StateHasChanged();
-            }
-        }
-    }
-
-    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
-    {
-        try
-        {
-            Show(snapshot);
-            StateHasChanged();
-        }
-        catch (Exception ex)
-        {
-            await DispatchExceptionAsync(ex);
-        }
-    });
-
-    private void Show(LiveSnapshot? snapshot)
-    {
-        if (snapshot is null || (_snapshot is not null && snapshot.Version < _snapshot.Version))
-        {
-            return;
-        }
         _snapshot = snapshot;
         _items = ActionList.For(snapshot.Items, _caller.Teams);
     }
@@ -87,6 +54,4 @@ public partial class TabletActions
         Phase.Cancellation => "CANCELLATION",
         _ => "NORMAL",
     };
-
-    public void Dispose() => _subscription?.Dispose();
 }

@@ -4,6 +4,7 @@ using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
 using OpsLvp.Web.Commands;
+using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Components.Pages.Console;
@@ -13,16 +14,12 @@ namespace OpsLvp.Web.Components.Pages.Console;
 /// declare/cancel/hold/forecast/sensor actions (each asking a reason in a dialog) and each team's progress.
 /// Buttons show only for duty managers; the command service decides and its outcome is shown as a snackbar.
 /// </summary>
-public partial class DutyConsole
+public partial class DutyConsole : LiveComponentBase
 {
     private CommandCaller _caller = CommandCaller.Anonymous;
     private LiveSnapshot? _snapshot;
     private IReadOnlyList<TeamProgress> _progress = [];
-    private IDisposable? _subscription;
     private bool _isDutyManager;
-
-    [Inject]
-    private ILiveState Live { get; set; } = default!;
 
     [Inject]
     private ILvpCommandService Commands { get; set; } = default!;
@@ -43,41 +40,11 @@ public partial class DutyConsole
             _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
         }
         _isDutyManager = _caller.IsInRole(Roles.DutyManager);
-        Show(Live.Current);
+        ShowSnapshot(Live.Current);
     }
 
-    protected override void OnAfterRender(bool firstRender)
+    protected override void OnSnapshot(LiveSnapshot snapshot)
     {
-        if (firstRender)
-        {
-            _subscription = Live.Subscribe(OnSnapshotAsync);
-            if (Live.Current is { } current && current.Version != _snapshot?.Version)
-            {
-                Show(current);
-                StateHasChanged();
-            }
-        }
-    }
-
-    private Task OnSnapshotAsync(LiveSnapshot snapshot) => InvokeAsync(async () =>
-    {
-        try
-        {
-            Show(snapshot);
-            StateHasChanged();
-        }
-        catch (Exception ex)
-        {
-            await DispatchExceptionAsync(ex);
-        }
-    });
-
-    private void Show(LiveSnapshot? snapshot)
-    {
-        if (snapshot is null || (_snapshot is not null && snapshot.Version < _snapshot.Version))
-        {
-            return;
-        }
         _snapshot = snapshot;
         _progress = TeamProgress.For(snapshot.Items);
     }
@@ -188,6 +155,4 @@ public partial class DutyConsole
     }
 
     private static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
-
-    public void Dispose() => _subscription?.Dispose();
 }

@@ -1,0 +1,93 @@
+using System.Linq.Expressions;
+using Microsoft.EntityFrameworkCore;
+using OpsLvp.Data.Entities;
+
+namespace OpsLvp.Data.Stores;
+
+/// <summary>
+/// What API keys and display tokens share: a secret with a fixed prefix, stored only as its SHA-256, found while
+/// active (recording its use to the minute), revoked by id, listed by id.
+/// </summary>
+/// <typeparam name="TRow">The row type; the derived store says which set holds it and which column has the hash.</typeparam>
+public abstract class SecretRecordStore<TRow>(IDbContextFactory<OpsLvpDbContext> factory, string prefix)
+    where TRow : class, ISecretRow
+{
+    /// <summary>Opens a context per operation.</summary>
+    protected IDbContextFactory<OpsLvpDbContext> Factory { get; } = factory;
+
+    /// <summary>The rows' set in <paramref name="db"/>.</summary>
+    protected abstract DbSet<TRow> Rows(OpsLvpDbContext db);
+
+    /// <summary>Matches the active row whose stored hash is <paramref name="hash"/>.</summary>
+    protected abstract Expression<Func<TRow, bool>> ActiveWithHash(string hash);
+
+    /// <summary>Matches the active row with <paramref name="id"/>.</summary>
+    protected abstract Expression<Func<TRow, bool>> ActiveWithId(long id);
+
+    /// <summary>Orders rows by id.</summary>
+    protected abstract Expression<Func<TRow, long>> ById { get; }
+
+    protected abstract AccessCredential ToCredential(TRow row);
+
+    /// <summary>A new secret with this store's prefix.</summary>
+    protected string NewSecret() => SecretHash.NewSecret(prefix);
+
+    /// <summary>Saves a newly issued <paramref name="row"/> and returns it with its one-time <paramref name="secret"/>.</summary>
+    protected async Task<IssuedCredential> AddAsync(TRow row, string secret, CancellationToken cancellationToken)
+    {
+        await using var db = await Factory.CreateDbContextAsync(cancellationToken);
+        Rows(db).Add(row);
+        await db.SaveChangesAsync(cancellationToken);
+        return new IssuedCredential(ToCredential(row), secret);
+    }
+
+    /// <summary>The active record matching <paramref name="secret"/>, recording its use; null when unknown or revoked.</summary>
+    public async Task<AccessCredential?> FindActiveAsync(string secret, DateTimeOffset now, CancellationToken cancellationToken = default)
+    {
+        if (string.IsNullOrEmpty(secret) || !secret.StartsWith(prefix, StringComparison.Ordinal))
+        {
+            return null;
+        }
+        var hash = SecretHash.Hash(secret);
+        await using var db = await Factory.CreateDbContextAsync(cancellationToken);
+        var row = await Rows(db).SingleOrDefaultAsync(ActiveWithHash(hash), cancellationToken);
+        if (row is null)
+        {
+            return null;
+        }
+        // Recorded to the minute: a busy client should not cost a database write per request.
+        if (row.LastUsedAt is not { } last || now - last >= TimeSpan.FromMinutes(1) || now < last)
+        {
+            row.LastUsedAt = now;
+            await db.SaveChangesAsync(cancellationToken);
+        }
+        return ToCredential(row);
+    }
+
+    public async Task<bool> IsActiveAsync(long id, CancellationToken cancellationToken = default)
+    {
+        await using var db = await Factory.CreateDbContextAsync(cancellationToken);
+        return await Rows(db).AnyAsync(ActiveWithId(id), cancellationToken);
+    }
+
+    /// <summary>Revokes the record; false when there is no such active record.</summary>
+    public async Task<bool> RevokeAsync(long id, DateTimeOffset now, CancellationToken cancellationToken = default)
+    {
+        await using var db = await Factory.CreateDbContextAsync(cancellationToken);
+        var row = await Rows(db).SingleOrDefaultAsync(ActiveWithId(id), cancellationToken);
+        if (row is null)
+        {
+            return false;
+        }
+        row.RevokedAt = now;
+        await db.SaveChangesAsync(cancellationToken);
+        return true;
+    }
+
+    public async Task<IReadOnlyList<AccessCredential>> ListAsync(CancellationToken cancellationToken = default)
+    {
+        await using var db = await Factory.CreateDbContextAsync(cancellationToken);
+        var rows = await Rows(db).AsNoTracking().OrderBy(ById).ToListAsync(cancellationToken);
+        return rows.ConvertAll(ToCredential);
+    }
+}
