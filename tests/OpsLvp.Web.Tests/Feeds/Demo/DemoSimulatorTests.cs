@@ -55,7 +55,7 @@ public sealed class DemoSimulatorTests : IDisposable
 
     private async Task<ReadingBatch> NextAsync()
     {
-        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(30));
         await foreach (var batch in _pipeline.ReadAllAsync(cts.Token))
         {
             return batch;
@@ -66,7 +66,7 @@ public sealed class DemoSimulatorTests : IDisposable
 
     private async Task<DemoAction> NextActionAsync()
     {
-        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(5));
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(30));
         await foreach (var action in _actions.ReadAllAsync(cts.Token))
         {
             return action;
@@ -138,7 +138,7 @@ public sealed class DemoSimulatorTests : IDisposable
         using var simulator = Simulator(_fake, health, scenario: "missing.csv");
 
         await simulator.StartAsync(CancellationToken.None);
-        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(5));
+        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(30));
 
         var entry = health.Get("demo")!;
         Assert.Equal(FeedStatus.Down, entry.Status);
@@ -154,7 +154,7 @@ public sealed class DemoSimulatorTests : IDisposable
         using var simulator = Simulator(_fake, health, demo: false);
 
         await simulator.StartAsync(CancellationToken.None);
-        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(5));
+        await simulator.ExecuteTask!.WaitAsync(TimeSpan.FromSeconds(30));
 
         Assert.False(_pipeline.TryRead(out _));
         Assert.Null(health.Get("demo"));
