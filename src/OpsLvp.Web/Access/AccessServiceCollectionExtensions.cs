@@ -130,9 +130,9 @@ public static class AccessServiceCollectionExtensions
         services.AddHostedService(sp => sp.GetRequiredService<HubConnectionMonitor>());
         services.AddHostedService<AccessStartup>();
 
-        // The app's own hub only: Blazor's circuit hub has its own access (the circuit's principal, revalidated) and
-        // must not be refused its framework methods (StartCircuit, ...).
-        services.Configure<HubOptions<LvpHub>>(o => o.AddFilter<HubAccessFilter>());
+        // Global, because a filter added to HubOptions<LvpHub> alone was not applied; the filter itself passes every
+        // hub but LvpHub straight through (Blazor's circuit hub keeps StartCircuit and its own access).
+        services.Configure<HubOptions>(o => o.AddFilter<HubAccessFilter>());
         services.AddSingleton<HubAccessFilter>();
         services.AddOptions<HubOptions>().Configure<IOptions<AccessOptions>>((o, access) => o.MaximumReceiveMessageSize = access.Value.HubMaxMessageBytes);
         services.Configure<FormOptions>(o =>

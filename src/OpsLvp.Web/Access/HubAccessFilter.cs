@@ -1,10 +1,12 @@
 using Microsoft.AspNetCore.Authorization;
 using Microsoft.AspNetCore.SignalR;
+using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Access;
 
 /// <summary>
-/// Applied to the app's hub (<see cref="OpsLvp.Web.Live.LvpHub"/>, not Blazor's circuit hub): a connection must satisfy <see cref="AccessPolicies.HubRead"/> (whatever attributes the
+/// Registered for every hub but acting only on the app's hub (<see cref="LvpHub"/>): Blazor's circuit hub has its own
+/// access (the circuit's principal, revalidated) and must keep its framework methods (StartCircuit, ...). A connection must satisfy <see cref="AccessPolicies.HubRead"/> (whatever attributes the
 /// hub class has), is watched by <see cref="HubConnectionMonitor"/>, and each client-to-server call must satisfy the
 /// policy <see cref="HubMethodPolicies"/> gives that method; a method missing from the table is refused.
 /// </summary>
@@ -12,6 +14,11 @@ public sealed class HubAccessFilter(IAuthorizationService authorization, HubConn
 {
     public async Task OnConnectedAsync(HubLifetimeContext context, Func<HubLifetimeContext, Task> next)
     {
+        if (context.Hub is not LvpHub)
+        {
+            await next(context);
+            return;
+        }
         var user = context.Context.User;
         if (user is null || !(await authorization.AuthorizeAsync(user, AccessPolicies.HubRead)).Succeeded)
         {
@@ -23,12 +30,19 @@ public sealed class HubAccessFilter(IAuthorizationService authorization, HubConn
 
     public async Task OnDisconnectedAsync(HubLifetimeContext context, Exception? exception, Func<HubLifetimeContext, Exception?, Task> next)
     {
-        monitor.Remove(context.Context);
+        if (context.Hub is LvpHub)
+        {
+            monitor.Remove(context.Context);
+        }
         await next(context, exception);
     }
 
     public async ValueTask<object?> InvokeMethodAsync(HubInvocationContext invocationContext, Func<HubInvocationContext, ValueTask<object?>> next)
     {
+        if (invocationContext.Hub is not LvpHub)
+        {
+            return await next(invocationContext);
+        }
         var method = invocationContext.HubMethodName;
         if (!HubMethodPolicies.Table.TryGetValue(method, out var policy))
         {
