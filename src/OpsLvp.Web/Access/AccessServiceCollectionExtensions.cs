@@ -132,7 +132,8 @@ public static class AccessServiceCollectionExtensions
 
         // The app's own hub only: Blazor's circuit hub has its own access (the circuit's principal, revalidated) and
         // must not be refused its framework methods (StartCircuit, ...).
-        services.Configure<HubOptions<LvpHub>>(o => o.AddFilter<HubAccessFilter>());
+        // AddHubOptions marks the per-hub options as set, so SignalR uses them (with the global values copied in).
+        services.AddSignalR().AddHubOptions<LvpHub>(o => o.AddFilter<HubAccessFilter>());
         services.AddSingleton<HubAccessFilter>();
         services.AddOptions<HubOptions>().Configure<IOptions<AccessOptions>>((o, access) => o.MaximumReceiveMessageSize = access.Value.HubMaxMessageBytes);
         services.Configure<FormOptions>(o =>
