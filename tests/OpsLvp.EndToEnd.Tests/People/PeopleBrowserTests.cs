@@ -117,7 +117,8 @@ public sealed class PeopleBrowserTests(ITestOutputHelper output)
     private async Task SaveAsync(IPage page, string name)
     {
         var path = Artifacts.PathFor(name);
-        await page.ScreenshotAsync(new() { Path = path, FullPage = true });
+        // The viewport as the person sees it (a full-page shot would draw the fixed header and safety line mid-page).
+        await page.ScreenshotAsync(new() { Path = path });
         output.WriteLine($"screenshot: {path}");
     }
 }
