@@ -8,7 +8,7 @@ namespace OpsLvp.Benchmarks.Circuits;
 
 /// <summary>
 /// Server memory per connected Blazor circuit: a fresh in-process server per measurement, N headless Chromium pages
-/// (one browser, one context, renderer processes capped) each opening its own circuit, counted server-side by
+/// (one browser, one context signed in through a display link, renderer processes capped) each opening its own circuit, counted server-side by
 /// <see cref="CircuitCounter"/>. Memory is the process's managed heap after a full blocking compacting GC and its
 /// working set, before and after the circuits are open; per circuit = difference / N. The process also holds the
 /// Playwright client objects of the pages (the same for every page measured, so they cancel in the difference
@@ -48,23 +48,28 @@ public static class CircuitMemoryHarness
         }
     }
 
+    /// <summary>/wall when a display link opens it on this build (the link sets the display cookie and redirects there), else "/".</summary>
     private static async Task<string> PickPageAsync()
     {
         await using var server = BenchServer.Start();
-        using var http = new HttpClient { BaseAddress = server.BaseAddress };
-        using var response = await http.GetAsync(new Uri("/wall", UriKind.Relative));
-        return response.IsSuccessStatusCode ? "/wall" : "/";
+        var link = await server.IssueDisplayLinkAsync();
+        using var handler = new HttpClientHandler { UseCookies = true, AllowAutoRedirect = true };
+        using var http = new HttpClient(handler) { BaseAddress = server.BaseAddress };
+        using var response = await http.GetAsync(new Uri(link, UriKind.Relative));
+        return response.IsSuccessStatusCode && response.RequestMessage?.RequestUri?.AbsolutePath == "/wall" ? "/wall" : "/";
     }
 
     private static async Task<(double HeapPerCircuit, double WorkingSetPerCircuit)> MeasureAsync(IBrowser browser, string path, int n)
     {
         await using var server = BenchServer.Start();
+        var link = await server.IssueDisplayLinkAsync();
         var context = await browser.NewContextAsync();
         try
         {
-            // One page first, so code paths, caches and pools are warm before the baseline.
+            // One page first opens the display link (display cookie for the whole context, redirect to /wall), so
+            // every later page is signed in and code paths, caches and pools are warm before the baseline.
             var warm = await context.NewPageAsync();
-            await warm.GotoAsync(new Uri(server.BaseAddress, path).ToString());
+            await warm.GotoAsync(new Uri(server.BaseAddress, link).ToString());
             await WaitForCircuitsAsync(server, 1);
             var (heap0, ws0) = Snapshot();
             var pages = new List<IPage>(n);

@@ -6,16 +6,20 @@ using Microsoft.AspNetCore.Hosting.Server.Features;
 using Microsoft.AspNetCore.Mvc.Testing;
 using Microsoft.Extensions.Configuration;
 using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Access;
 
 namespace OpsLvp.Benchmarks.Live;
 
 /// <summary>
 /// The real OpsLvp web app on in-process Kestrel at http://127.0.0.1:{random port}, with a temporary data folder,
-/// the demo simulator off, one push key, and a circuit counter added (for the circuit harness).
+/// the demo simulator off and a circuit counter added (for the circuit harness). Since access control, callers
+/// get their credentials from the app itself: <see cref="IssuePushKeyAsync"/> (API key, ingest + hub-read) and
+/// <see cref="IssueDisplayLinkAsync"/> (display link for /wall).
 /// </summary>
 public sealed class BenchServer : IAsyncDisposable
 {
-    public const string PushKey = "bench-push-key-0123456789";
+    private const string Actor = "bench";
 
     private readonly Factory _factory;
 
@@ -44,8 +48,6 @@ public sealed class BenchServer : IAsyncDisposable
             ["Storage:DataFolder"] = dataFolder,
             ["Demo:Simulator"] = "Off",
             ["Logging:LogLevel:Default"] = "Warning",
-            ["Feeds:Push:ApiKeys:0:Name"] = "bench",
-            ["Feeds:Push:ApiKeys:0:Key"] = PushKey,
             ["Engine:ProfilePath"] = Path.Combine(Engine.BenchData.RepoRoot(), "seed-demo", "profile.json"),
         };
         foreach (var (key, value) in extra ?? new Dictionary<string, string?>())
@@ -59,6 +61,14 @@ public sealed class BenchServer : IAsyncDisposable
         var address = factory.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses.Single();
         return new BenchServer(factory, new Uri(address), dataFolder, circuits);
     }
+
+    /// <summary>Issues one API key with the ingest and hub-read scopes (POST /api/readings and /hubs/lvp); returns its secret.</summary>
+    public async Task<string> IssuePushKeyAsync() =>
+        (await Services.GetRequiredService<CredentialAdmin>().IssueKeyAsync(Actor, "bench push and hub", [ApiKeyStore.IngestScope, ApiKeyStore.HubReadScope])).Secret;
+
+    /// <summary>Issues one display link; returns its path <c>/display/{secret}</c> (sets the display cookie, redirects to /wall).</summary>
+    public async Task<string> IssueDisplayLinkAsync() =>
+        "/display/" + (await Services.GetRequiredService<CredentialAdmin>().IssueDisplayAsync(Actor, "bench display")).Secret;
 
     public async ValueTask DisposeAsync()
     {

@@ -6,6 +6,7 @@ using Microsoft.AspNetCore.SignalR.Client;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
+using OpsLvp.Web.Access;
 
 namespace OpsLvp.Benchmarks.Live;
 
@@ -32,6 +33,7 @@ public static class PushLatencyHarness
 
         await using var server = BenchServer.Start();
         await using var bare = await BareServer.StartAsync();
+        var key = await server.IssuePushKeyAsync();
         using var http = new HttpClient { Timeout = TimeSpan.FromSeconds(20) };
         var payloadChars = 0;
         var value = 1500;
@@ -41,12 +43,12 @@ public static class PushLatencyHarness
             string? failure = null;
             try
             {
-                (ours, payloadChars) = await MeasureAsync(new Uri(server.BaseAddress, "/hubs/lvp"), n, rounds, () => string.Create(CultureInfo.InvariantCulture, $":{NextValue(value)}"), async () =>
+                (ours, payloadChars) = await MeasureAsync(new Uri(server.BaseAddress, "/hubs/lvp"), key, n, rounds, () => string.Create(CultureInfo.InvariantCulture, $":{NextValue(value)}"), async () =>
                 {
                     value = NextValue(value);
                     var body = new { readings = new[] { new { time = TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture), sensor = Sensor, kind = "rvr", value, status = "ok" } } };
                     using var request = new HttpRequestMessage(HttpMethod.Post, new Uri(server.BaseAddress, "/api/readings")) { Content = JsonContent.Create(body) };
-                    request.Headers.Add("X-Api-Key", BenchServer.PushKey);
+                    request.Headers.Add(ApiKeyAuthenticationHandler.Header, key);
                     using var response = await http.SendAsync(request);
                     response.EnsureSuccessStatusCode();
                 });
@@ -56,7 +58,7 @@ public static class PushLatencyHarness
                 failure = ex.Message.ReplaceLineEndings(" ");
             }
             BareServer.PayloadChars = payloadChars > 0 ? payloadChars : 4096;
-            var (bareLatencies, _) = await MeasureAsync(new Uri(bare.BaseAddress, "/hubs/bare"), n, rounds, () => null, async () =>
+            var (bareLatencies, _) = await MeasureAsync(new Uri(bare.BaseAddress, "/hubs/bare"), null, n, rounds, () => null, async () =>
             {
                 using var response = await http.PostAsync(new Uri(bare.BaseAddress, "/bare"), null);
                 response.EnsureSuccessStatusCode();
@@ -83,7 +85,8 @@ public static class PushLatencyHarness
 
     /// <summary>Connects <paramref name="n"/> clients, runs <paramref name="rounds"/> posts and returns every client's latency of every round.</summary>
     /// <param name="marker">Text the awaited message must contain (the posted value), so a heartbeat snapshot is not taken for the answer; null: any message.</param>
-    private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, int n, int rounds, Func<string?> marker, Func<Task> post)
+    /// <param name="key">API key sent as <see cref="ApiKeyAuthenticationHandler.Header"/> on the hub connection; null: none (bare hub).</param>
+    private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, string? key, int n, int rounds, Func<string?> marker, Func<Task> post)
     {
         var clients = new List<Client>(n);
         try
@@ -94,7 +97,7 @@ public static class PushLatencyHarness
                 await throttle.WaitAsync();
                 try
                 {
-                    var client = new Client(hub);
+                    var client = new Client(hub, key);
                     lock (clients)
                     {
                         clients.Add(client);
@@ -186,9 +189,15 @@ public static class PushLatencyHarness
         private TaskCompletionSource<long> _received = NewSource();
         private volatile string? _marker;
 
-        public Client(Uri hub)
+        public Client(Uri hub, string? key)
         {
-            _connection = new HubConnectionBuilder().WithUrl(hub).Build();
+            _connection = new HubConnectionBuilder().WithUrl(hub, o =>
+            {
+                if (key is not null)
+                {
+                    o.Headers[ApiKeyAuthenticationHandler.Header] = key;
+                }
+            }).Build();
             _connection.On<JsonElement>("state", payload =>
             {
                 var now = Stopwatch.GetTimestamp();
