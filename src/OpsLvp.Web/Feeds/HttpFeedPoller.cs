@@ -1,5 +1,4 @@
 using System.Globalization;
-using Microsoft.Extensions.Http.Resilience;
 using Microsoft.Extensions.Options;
 using OpsLvp.Web.Time;
 using Polly;
@@ -45,7 +44,7 @@ public sealed class HttpFeedPoller(
     {
         await Task.Yield();
         var source = SourceName(feed);
-        var resilience = BuildResilience(feed);
+        var resilience = FeedResilience.Build(networkClock, feed.Retries, feed.RetryDelay, feed.Timeout);
         using var client = httpClientFactory.CreateClient(HttpClientName);
         client.Timeout = Timeout.InfiniteTimeSpan;
         client.MaxResponseContentBufferSize = feed.MaxResponseBytes;
@@ -100,23 +99,6 @@ public sealed class HttpFeedPoller(
         }
     }
 
-    private ResiliencePipeline<HttpResponseMessage> BuildResilience(HttpFeedOptions feed)
-    {
-        var builder = new ResiliencePipelineBuilder<HttpResponseMessage> { TimeProvider = networkClock };
-        if (feed.Retries > 0)
-        {
-            builder.AddRetry(new HttpRetryStrategyOptions
-            {
-                MaxRetryAttempts = feed.Retries,
-                Delay = feed.RetryDelay,
-                BackoffType = DelayBackoffType.Exponential,
-                UseJitter = true,
-            });
-        }
-
-        builder.AddTimeout(feed.Timeout);
-        return builder.Build();
-    }
 
     private static string Describe(Exception ex, HttpFeedOptions feed) => ex switch
     {

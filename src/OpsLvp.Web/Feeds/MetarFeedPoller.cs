@@ -1,5 +1,4 @@
 using System.Globalization;
-using Microsoft.Extensions.Http.Resilience;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Metar;
 using OpsLvp.Core.Readings;
@@ -74,7 +73,7 @@ public sealed class MetarFeedPoller(
         await Task.Yield();
         var source = SourceName(feed);
         var isHttp = Uri.TryCreate(feed.Source, UriKind.Absolute, out var url) && (url.Scheme == Uri.UriSchemeHttp || url.Scheme == Uri.UriSchemeHttps);
-        var resilience = BuildResilience(feed);
+        var resilience = FeedResilience.Build(networkClock, feed.Retries, feed.RetryDelay, feed.Timeout);
         using var client = httpClientFactory.CreateClient(HttpFeedPoller.HttpClientName);
         client.Timeout = System.Threading.Timeout.InfiniteTimeSpan;
         while (!stoppingToken.IsCancellationRequested)
@@ -125,20 +124,4 @@ public sealed class MetarFeedPoller(
         return await response.Content.ReadAsStringAsync(stoppingToken);
     }
 
-    private ResiliencePipeline<HttpResponseMessage> BuildResilience(MetarFeedOptions feed)
-    {
-        var builder = new ResiliencePipelineBuilder<HttpResponseMessage> { TimeProvider = networkClock };
-        if (feed.Retries > 0)
-        {
-            builder.AddRetry(new HttpRetryStrategyOptions
-            {
-                MaxRetryAttempts = feed.Retries,
-                Delay = feed.RetryDelay,
-                BackoffType = DelayBackoffType.Exponential,
-                UseJitter = true,
-            });
-        }
-        builder.AddTimeout(feed.Timeout);
-        return builder.Build();
-    }
 }
