@@ -1,3 +1,4 @@
+using System.Buffers;
 using System.Globalization;
 using System.Text;
 using System.Text.Json;
@@ -38,11 +39,34 @@ public static class AuditCanonical
 
     private static readonly UTF8Encoding _strictUtf8 = new(encoderShouldEmitUTF8Identifier: false, throwOnInvalidBytes: true);
 
+    /// <summary>The characters a canonical string escapes: the quote, the backslash and U+0000–U+001F.</summary>
+    private static readonly SearchValues<char> _escaped = SearchValues.Create(
+        "\"\\\u0000\u0001\u0002\u0003\u0004\u0005\u0006\u0007\b\t\n\u000b\f\r\u000e\u000f"
+        + "\u0010\u0011\u0012\u0013\u0014\u0015\u0016\u0017\u0018\u0019\u001a\u001b\u001c\u001d\u001e\u001f");
+
     /// <summary>The canonical entry bytes (without the previous hash).</summary>
     /// <exception cref="ArgumentException">Sequence below 1, empty actor or kind, payload not JSON, or a string not valid UTF-16.</exception>
     public static byte[] EntryBytes(long sequence, DateTimeOffset time, string actor, string kind, string payloadJson)
     {
         ArgumentOutOfRangeException.ThrowIfLessThan(sequence, 1);
+        var fields = FieldsAfterSequence(time, actor, kind, payloadJson);
+        return [.. EntryPrefix(sequence), .. fields];
+    }
+
+    /// <summary>The start of the canonical entry: N(format tag) ‖ N(sequence).</summary>
+    internal static byte[] EntryPrefix(long sequence)
+    {
+        ArgumentOutOfRangeException.ThrowIfLessThan(sequence, 1);
+        using var buffer = new MemoryStream(48);
+        WriteNetstring(buffer, FormatTag);
+        WriteNetstring(buffer, sequence.ToString(CultureInfo.InvariantCulture));
+        return buffer.ToArray();
+    }
+
+    /// <summary>The rest of the canonical entry: N(time) ‖ N(actor) ‖ N(kind) ‖ N(canonical payload).</summary>
+    /// <exception cref="ArgumentException">Empty actor or kind, payload not JSON, or a string not valid UTF-16.</exception>
+    internal static byte[] FieldsAfterSequence(DateTimeOffset time, string actor, string kind, string payloadJson)
+    {
         if (string.IsNullOrWhiteSpace(actor))
         {
             throw new ArgumentException("audit actor is empty", nameof(actor));
@@ -51,13 +75,12 @@ public static class AuditCanonical
         {
             throw new ArgumentException("audit kind is empty", nameof(kind));
         }
-        using var buffer = new MemoryStream();
-        WriteNetstring(buffer, FormatTag);
-        WriteNetstring(buffer, sequence.ToString(CultureInfo.InvariantCulture));
+        var payload = CanonicalPayload(payloadJson);
+        using var buffer = new MemoryStream(payload.Length + actor.Length + kind.Length + 64);
         WriteNetstring(buffer, FormatTime(time));
         WriteNetstring(buffer, actor);
         WriteNetstring(buffer, kind);
-        WriteNetstring(buffer, CanonicalPayload(payloadJson));
+        WriteNetstring(buffer, payload);
         return buffer.ToArray();
     }
 
@@ -129,16 +152,33 @@ public static class AuditCanonical
         switch (element.ValueKind)
         {
             case JsonValueKind.Object:
-                var members = element.EnumerateObject()
-                    .Select(p => (Name: p.Name, Key: _strictUtf8.GetBytes(p.Name), p.Value))
-                    .ToList();
-                members.Sort((a, b) => a.Key.AsSpan().SequenceCompareTo(b.Key));
+                var members = new List<(string Name, byte[]? Key, JsonElement Value)>();
+                var ascii = true;
+                foreach (var p in element.EnumerateObject())
+                {
+                    var name = p.Name;
+                    ascii &= Ascii.IsValid(name);
+                    members.Add((name, null, p.Value));
+                }
+                if (ascii)
+                {
+                    // For ASCII names the UTF-16 ordinal order is the UTF-8 byte order.
+                    members.Sort(static (a, b) => string.CompareOrdinal(a.Name, b.Name));
+                }
+                else
+                {
+                    for (var i = 0; i < members.Count; i++)
+                    {
+                        members[i] = members[i] with { Key = _strictUtf8.GetBytes(members[i].Name) };
+                    }
+                    members.Sort(static (a, b) => a.Key.AsSpan().SequenceCompareTo(b.Key));
+                }
                 builder.Append('{');
                 for (var i = 0; i < members.Count; i++)
                 {
                     if (i > 0)
                     {
-                        if (members[i].Key.AsSpan().SequenceEqual(members[i - 1].Key))
+                        if (string.Equals(members[i].Name, members[i - 1].Name, StringComparison.Ordinal))
                         {
                             throw new ArgumentException($"audit payload repeats the member name '{members[i].Name}'");
                         }
@@ -168,7 +208,16 @@ public static class AuditCanonical
                 WriteString(builder, element.GetString()!);
                 break;
             case JsonValueKind.Number:
-                builder.Append(CanonicalNumber(element.GetRawText()));
+                // A plain integer lexeme (no fraction, no exponent, at most 19 digits) is already canonical but
+                // for "-0"; reading it as a long gives both. Anything else takes the exact decimal route.
+                if (element.TryGetInt64(out var integer))
+                {
+                    builder.Append(integer.ToString(CultureInfo.InvariantCulture));
+                }
+                else
+                {
+                    builder.Append(CanonicalNumber(element.GetRawText()));
+                }
                 break;
             case JsonValueKind.True:
                 builder.Append("true");
@@ -189,8 +238,17 @@ public static class AuditCanonical
         // Refuses lone surrogates, which UTF-8 cannot carry unambiguously.
         _ = _strictUtf8.GetByteCount(value);
         builder.Append('"');
-        foreach (var c in value)
+        var rest = value.AsSpan();
+        while (true)
         {
+            var next = rest.IndexOfAny(_escaped);
+            if (next < 0)
+            {
+                builder.Append(rest);
+                break;
+            }
+            builder.Append(rest[..next]);
+            var c = rest[next];
             switch (c)
             {
                 case '"': builder.Append("\\\""); break;
@@ -200,9 +258,9 @@ public static class AuditCanonical
                 case '\n': builder.Append("\\n"); break;
                 case '\f': builder.Append("\\f"); break;
                 case '\r': builder.Append("\\r"); break;
-                case < ' ': builder.Append("\\u00").Append(((int)c).ToString("x2", CultureInfo.InvariantCulture)); break;
-                default: builder.Append(c); break;
+                default: builder.Append("\\u00").Append(((int)c).ToString("x2", CultureInfo.InvariantCulture)); break;
             }
+            rest = rest[(next + 1)..];
         }
         builder.Append('"');
     }
@@ -218,7 +276,10 @@ public static class AuditCanonical
         {
             throw new ArgumentException("audit field is not valid UTF-16 (lone surrogate)", ex);
         }
-        buffer.Write(Encoding.ASCII.GetBytes(bytes.Length.ToString(CultureInfo.InvariantCulture) + ":"));
+        Span<byte> length = stackalloc byte[12];
+        _ = bytes.Length.TryFormat(length, out var written, default, CultureInfo.InvariantCulture);
+        length[written++] = (byte)':';
+        buffer.Write(length[..written]);
         buffer.Write(bytes);
         buffer.WriteByte((byte)',');
     }

@@ -20,16 +20,37 @@ public static class AuditChain
     /// but does not fail.
     /// </summary>
     /// <exception cref="ArgumentException">Empty actor or kind, payload not JSON, or a string not valid UTF-16.</exception>
-    public static AuditEntry Append(AuditEntry? previous, DateTimeOffset time, string actor, string kind, string payloadJson)
+    public static AuditEntry Append(AuditEntry? previous, DateTimeOffset time, string actor, string kind, string payloadJson) =>
+        Append(previous is null ? null : new AuditChainHead(previous.Sequence, previous.Hash), Prepare(time, actor, kind, payloadJson));
+
+    /// <summary>Checks and canonicalises an entry once, ahead of chaining it (see <see cref="PendingAuditEntry"/>).</summary>
+    /// <exception cref="ArgumentException">Empty actor or kind, payload not JSON, or a string not valid UTF-16.</exception>
+    public static PendingAuditEntry Prepare(DateTimeOffset time, string actor, string kind, string payloadJson)
     {
         ArgumentNullException.ThrowIfNull(actor);
         ArgumentNullException.ThrowIfNull(kind);
         ArgumentNullException.ThrowIfNull(payloadJson);
-        var sequence = previous is null ? 1 : checked(previous.Sequence + 1);
-        var previousHash = previous?.Hash ?? GenesisHash;
         var utc = time.ToUniversalTime();
-        var hash = ComputeHash(previousHash, AuditCanonical.EntryBytes(sequence, utc, actor, kind, payloadJson));
-        return new AuditEntry(sequence, utc, actor, kind, payloadJson, previousHash, hash);
+        return new PendingAuditEntry(utc, actor, kind, payloadJson, AuditCanonical.FieldsAfterSequence(utc, actor, kind, payloadJson));
+    }
+
+    /// <summary>Makes the entry that follows <paramref name="head"/> (null for the first entry) from a prepared one.</summary>
+    /// <exception cref="ArgumentException">The head's hash is not 64 lowercase hex digits.</exception>
+    public static AuditEntry Append(AuditChainHead? head, PendingAuditEntry entry)
+    {
+        ArgumentNullException.ThrowIfNull(entry);
+        var sequence = head is { } h ? checked(h.Sequence + 1) : 1;
+        var previousHash = head?.Hash ?? GenesisHash;
+        if (!IsHash(previousHash))
+        {
+            throw new ArgumentException("previous hash must be 64 lowercase hex digits", nameof(head));
+        }
+        using var sha = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
+        AppendAscii(sha, previousHash);
+        sha.AppendData(AuditCanonical.EntryPrefix(sequence));
+        sha.AppendData(entry.FieldsAfterSequence);
+        var hash = Convert.ToHexStringLower(sha.GetHashAndReset());
+        return new AuditEntry(sequence, entry.Time, entry.Actor, entry.Kind, entry.PayloadJson, previousHash, hash);
     }
 
     /// <summary>Recomputes an entry's hash from its fields and its <see cref="AuditEntry.PreviousHash"/>.</summary>
@@ -49,7 +70,7 @@ public static class AuditChain
             throw new ArgumentException("previous hash must be 64 lowercase hex digits", nameof(previousHash));
         }
         using var sha = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
-        sha.AppendData(Encoding.ASCII.GetBytes(previousHash));
+        AppendAscii(sha, previousHash);
         sha.AppendData(canonicalEntry);
         return Convert.ToHexStringLower(sha.GetHashAndReset());
     }
@@ -71,5 +92,12 @@ public static class AuditChain
             verifier.Observe(entry);
         }
         return verifier.Result;
+    }
+
+    private static void AppendAscii(IncrementalHash sha, string hex)
+    {
+        Span<byte> bytes = stackalloc byte[64];
+        var written = Encoding.ASCII.GetBytes(hex, bytes);
+        sha.AppendData(bytes[..written]);
     }
 }

@@ -39,6 +39,41 @@ public class AuditCanonicalPropertyTests
     }
 
     [Fact]
+    public void IntegerInAPayload_TakesTheShortRoute_WithTheSameFormAsTheExactDecimalRoute()
+    {
+        Gen.Long.Sample(n =>
+        {
+            var lexeme = n.ToString(CultureInfo.InvariantCulture);
+            Assert.Equal("[" + AuditCanonical.CanonicalNumber(lexeme) + "]", AuditCanonical.CanonicalPayload("[" + lexeme + "]"));
+        });
+        // Edges: negative zero, the long range's ends and one past them (exact route), trailing zeros.
+        foreach (var lexeme in new[] { "-0", "0", "9223372036854775807", "-9223372036854775808", "9223372036854775808", "-9223372036854775809", "1000", "-1000" })
+        {
+            Assert.Equal("[" + AuditCanonical.CanonicalNumber(lexeme) + "]", AuditCanonical.CanonicalPayload("[" + lexeme + "]"));
+        }
+    }
+
+    [Fact]
+    public void PreparedEntry_ChainsToTheHashOfTheDocumentedBytes()
+    {
+        Gen.Select(Gen.Int, Gen.Long[1, long.MaxValue - 1], Gen.String[Gen.Char.AlphaNumeric, 1, 12]).Sample((seed, sequence, actor) =>
+        {
+            var text = new StringBuilder();
+            Write(text, RandomTree(new Random(seed), depth: 0), spaced: true, new Random(seed));
+            var payload = text.ToString();
+            var time = DateTimeOffset.UnixEpoch.AddTicks((seed & 0x7fffffff) * 1_000_003L);
+            var previousHash = Convert.ToHexStringLower(System.Security.Cryptography.SHA256.HashData(BitConverter.GetBytes(seed)));
+
+            var chained = AuditChain.Append(new AuditChainHead(sequence, previousHash), AuditChain.Prepare(time, actor, "tick", payload));
+
+            Assert.Equal(sequence + 1, chained.Sequence);
+            Assert.Equal(previousHash, chained.PreviousHash);
+            Assert.Equal(AuditChain.ComputeHash(previousHash, AuditCanonical.EntryBytes(sequence + 1, time, actor, "tick", payload)), chained.Hash);
+            Assert.Equal(chained.Hash, AuditChain.ComputeHash(chained));
+        });
+    }
+
+    [Fact]
     public void Number_EveryWritingOfOneValue_HasOneFormWithThatValue()
     {
         Gen.Select(Gen.Long[1, 999_999_999_999L], Gen.Int[-30, 30], Gen.Int[0, 5], Gen.Bool).Sample((digits, exponent, shift, negative) =>

@@ -33,6 +33,37 @@ public class AuditChainTests
     }
 
     [Fact]
+    public void PreparedEntries_OnAHead_MatchTheSameKnownHashes()
+    {
+        var first = AuditChain.Append(null, AuditChain.Prepare(_t0.AddTicks(1234567), "dm.invented", "transition",
+            "{\"to\": \"preparation\", \"from\": \"normal\", \"rvr_m\": 550}"));
+        var second = AuditChain.Append(new AuditChainHead(1, KnownHash1), AuditChain.Prepare(_t0.AddSeconds(1), "Zoë Invented", "tick",
+            " { \"visibility_m\" : 1.50, \"note\": \"Zo\\u00eb: fog \\\"thick\\\"\" } "));
+
+        Assert.Equal((1L, AuditChain.GenesisHash, KnownHash1), (first.Sequence, first.PreviousHash, first.Hash));
+        Assert.Equal((2L, KnownHash1, KnownHash2), (second.Sequence, second.PreviousHash, second.Hash));
+    }
+
+    [Theory]
+    [InlineData("", "tick", "{}")]
+    [InlineData("engine", " ", "{}")]
+    [InlineData("engine", "tick", "{\"a\":1,}")]
+    [InlineData("engine", "tick", "[\"\\ud800\"]")]
+    public void Prepare_RefusesABadEntry_BeforeAnyChain(string actor, string kind, string payload)
+    {
+        Assert.ThrowsAny<ArgumentException>(() => AuditChain.Prepare(_t0, actor, kind, payload));
+    }
+
+    [Fact]
+    public void Append_OnAHeadWhoseHashIsNotAHash_IsRefused()
+    {
+        var pending = AuditChain.Prepare(_t0, "engine", "tick", "{}");
+
+        Assert.Throws<ArgumentException>(() => AuditChain.Append(new AuditChainHead(3, "not-a-hash"), pending));
+        Assert.Throws<ArgumentException>(() => AuditChain.Append(new AuditChainHead(3, KnownHash1.ToUpperInvariant()), pending));
+    }
+
+    [Fact]
     public void Append_KeepsThePayloadAsGiven_AndTheTimeAsUtc()
     {
         var entry = AuditChain.Append(null, new DateTimeOffset(2026, 1, 2, 5, 0, 0, TimeSpan.FromHours(2)), "engine", "transition", "{ \"a\": 1.0 }");
