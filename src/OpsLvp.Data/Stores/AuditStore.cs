@@ -1,7 +1,6 @@
 using System.Data.Common;
 using System.Globalization;
 using System.Text.Json;
-using Microsoft.Data.Sqlite;
 using Microsoft.EntityFrameworkCore;
 using OpsLvp.Core.Audit;
 using OpsLvp.Data.Entities;
@@ -15,17 +14,15 @@ namespace OpsLvp.Data.Stores;
 /// engine state row in one transaction, so after a crash the state and the chain never disagree.
 /// </summary>
 /// <remarks>
-/// Appends go through one long-lived writer connection, opened through the context options (so the connection
-/// pragmas of <see cref="SqlitePragmaInterceptor"/> run once on it) and checked for WAL, with three prepared
-/// statements (head, insert, state upsert). The head is read inside each transaction, after the write lock is
-/// taken, so another writer (another store or process) can never leave this one with a stale head. After any
-/// failure the writer connection is thrown away and the next append opens a fresh one. EF keeps the model,
-/// the migrations and the reads.
+/// Appends go through one long-lived writer connection (<see cref="SqliteWriter"/>) with three kept statements
+/// (head, insert, state upsert). Entries are checked and canonicalised once, before the lock
+/// (<see cref="AuditChain.Prepare"/>). The head (sequence and hash) is read inside each transaction, after the
+/// write lock is taken, so another writer (another store or process) can never leave this one with a stale head.
+/// EF keeps the model, the migrations and the reads.
 /// </remarks>
 public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDisposable
 {
-    private const string HeadSql =
-        "SELECT sequence, time, actor, kind, payload_json, previous_hash, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1;";
+    private const string HeadSql = "SELECT sequence, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1;";
 
     private const string InsertSql =
         "INSERT INTO audit_entries (sequence, time, actor, kind, payload_json, previous_hash, hash) VALUES ($s, $t, $a, $k, $p, $ph, $h);";
@@ -35,11 +32,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         + "ON CONFLICT (id) DO UPDATE SET state_json = excluded.state_json, audit_sequence = excluded.audit_sequence, "
         + "profile_version = excluded.profile_version, saved_at = excluded.saved_at;";
 
-    private readonly SemaphoreSlim _writeLock = new(1, 1);
-
-    private Writer? _writer;
-
-    private bool _disposed;
+    private readonly SqliteWriter _writer = new(factory, "audit writer");
 
     /// <summary>
     /// Appends <paramref name="entries"/> in order and, if <paramref name="state"/> is given, stores it as the engine
@@ -51,45 +44,29 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
     public async Task<IReadOnlyList<AuditEntry>> AppendAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state = null, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(entries);
-        foreach (var entry in entries)
+        var pending = new PendingAuditEntry[entries.Count];
+        for (var i = 0; i < pending.Length; i++)
         {
+            var entry = entries[i];
             ArgumentNullException.ThrowIfNull(entry);
-            _ = AuditCanonical.EntryBytes(1, entry.Time, entry.Actor, entry.Kind, entry.PayloadJson);
+            pending[i] = AuditChain.Prepare(entry.Time, entry.Actor, entry.Kind, entry.PayloadJson);
         }
         if (state is not null)
         {
             CheckState(state);
         }
-        if (entries.Count == 0 && state is null)
+        if (pending.Length == 0 && state is null)
         {
             return [];
         }
 
-        await _writeLock.WaitAsync(cancellationToken);
         try
         {
-            ObjectDisposedException.ThrowIf(_disposed, this);
-            cancellationToken.ThrowIfCancellationRequested();
-            var writer = _writer ??= await Writer.OpenAsync(factory, cancellationToken);
-            try
-            {
-                return writer.Append(entries, state);
-            }
-            catch
-            {
-                // Whatever state the connection is in after a failure, the next append starts on a fresh one.
-                _writer = null;
-                writer.Dispose();
-                throw;
-            }
+            return await _writer.RunAsync(session => Append(session, pending, state), cancellationToken);
         }
         catch (Exception ex) when (ex is DbUpdateException or DbException or InvalidOperationException)
         {
             throw new AuditCommitException($"audit entries not committed: {(ex.InnerException ?? ex).Message.ReplaceLineEndings(" ")}", ex);
-        }
-        finally
-        {
-            _writeLock.Release();
         }
     }
 
@@ -155,25 +132,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         return verifier.Result;
     }
 
-    public void Dispose()
-    {
-        if (_disposed)
-        {
-            return;
-        }
-        _writeLock.Wait();
-        try
-        {
-            _disposed = true;
-            _writer?.Dispose();
-            _writer = null;
-        }
-        finally
-        {
-            _writeLock.Release();
-        }
-        _writeLock.Dispose();
-    }
+    public void Dispose() => _writer.Dispose();
 
     private static void CheckState(EngineStateWrite state)
     {
@@ -192,130 +151,35 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
     private static AuditEntry ToEntry(AuditEntryRow row) =>
         new(row.Sequence, UtcTextConverter.Parse(row.Time), row.Actor, row.Kind, row.PayloadJson, row.PreviousHash, row.Hash);
 
-    /// <summary>The writer connection (owned by a context so the configured interceptors ran on it) and its prepared statements.</summary>
-    private sealed class Writer : IDisposable
+    private static List<AuditEntry> Append(SqliteWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state)
     {
-        private readonly OpsLvpDbContext _context;
-        private readonly SqliteConnection _connection;
-        private readonly SqliteCommand _head;
-        private readonly SqliteCommand _insert;
-        private readonly SqliteCommand _state;
-
-        private Writer(OpsLvpDbContext context, SqliteConnection connection)
+        using var transaction = session.Connection.BeginTransaction(deferred: false);
+        AuditChainHead? head = null;
+        using (var reader = session.Command(HeadSql, transaction).ExecuteReader())
         {
-            _context = context;
-            _connection = connection;
-            _head = Prepare(HeadSql);
-            _insert = Prepare(InsertSql, "$s", "$t", "$a", "$k", "$p", "$ph", "$h");
-            _state = Prepare(StateSql, "$id", "$j", "$q", "$v", "$at");
-        }
-
-        /// <exception cref="InvalidOperationException">The connection is not SQLite or not in WAL mode.</exception>
-        public static async Task<Writer> OpenAsync(IDbContextFactory<OpsLvpDbContext> factory, CancellationToken cancellationToken)
-        {
-            var context = await factory.CreateDbContextAsync(cancellationToken);
-            try
+            if (reader.Read())
             {
-                await context.Database.OpenConnectionAsync(cancellationToken);
-                if (context.Database.GetDbConnection() is not SqliteConnection connection)
-                {
-                    throw new InvalidOperationException("the audit store needs a SQLite connection.");
-                }
-                using (var check = connection.CreateCommand())
-                {
-                    check.CommandText = "PRAGMA journal_mode;";
-                    var journalMode = Convert.ToString(check.ExecuteScalar(), CultureInfo.InvariantCulture);
-                    if (!string.Equals(journalMode, "wal", StringComparison.OrdinalIgnoreCase))
-                    {
-                        throw new InvalidOperationException($"SQLite PRAGMA journal_mode is '{journalMode}' on the audit writer connection, expected 'wal'.");
-                    }
-                    check.CommandText = "PRAGMA synchronous;";
-                    var synchronous = Convert.ToInt64(check.ExecuteScalar(), CultureInfo.InvariantCulture);
-                    if (synchronous == 0)
-                    {
-                        throw new InvalidOperationException("SQLite PRAGMA synchronous is OFF on the audit writer connection.");
-                    }
-                }
-                return new Writer(context, connection);
-            }
-            catch
-            {
-                await context.DisposeAsync();
-                throw;
+                head = new AuditChainHead(reader.GetInt64(0), reader.GetString(1));
             }
         }
-
-        public List<AuditEntry> Append(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state)
+        var appended = new List<AuditEntry>(entries.Length);
+        var insert = session.Command(InsertSql, transaction, "$s", "$t", "$a", "$k", "$p", "$ph", "$h");
+        foreach (var entry in entries)
         {
-            using var transaction = _connection.BeginTransaction(deferred: false);
-            _head.Transaction = transaction;
-            _insert.Transaction = transaction;
-            _state.Transaction = transaction;
-            var previous = ReadHead();
-            var appended = new List<AuditEntry>(entries.Count);
-            foreach (var entry in entries)
-            {
-                previous = AuditChain.Append(previous, entry.Time, entry.Actor, entry.Kind, entry.PayloadJson);
-                appended.Add(previous);
-                var p = _insert.Parameters;
-                p[0].Value = previous.Sequence;
-                p[1].Value = AuditCanonical.FormatTime(previous.Time);
-                p[2].Value = previous.Actor;
-                p[3].Value = previous.Kind;
-                p[4].Value = previous.PayloadJson;
-                p[5].Value = previous.PreviousHash;
-                p[6].Value = previous.Hash;
-                _insert.ExecuteNonQuery();
-            }
-            if (state is not null)
-            {
-                var p = _state.Parameters;
-                p[0].Value = EngineStateRow.SingleId;
-                p[1].Value = state.StateJson;
-                p[2].Value = previous?.Sequence ?? 0;
-                p[3].Value = state.ProfileVersion;
-                p[4].Value = UtcTextConverter.Format(state.SavedAt);
-                _state.ExecuteNonQuery();
-            }
-            // Once COMMIT is under way the outcome must be the one reported; a failed commit throws and rolls back.
-            transaction.Commit();
-            return appended;
+            var next = AuditChain.Append(head, entry);
+            appended.Add(next);
+            SqliteWriter.Session.Bind(insert, next.Sequence, AuditCanonical.FormatTime(next.Time), next.Actor, next.Kind, next.PayloadJson, next.PreviousHash, next.Hash);
+            insert.ExecuteNonQuery();
+            head = new AuditChainHead(next.Sequence, next.Hash);
         }
-
-        public void Dispose()
+        if (state is not null)
         {
-            _head.Dispose();
-            _insert.Dispose();
-            _state.Dispose();
-            _context.Dispose();
+            var upsert = session.Command(StateSql, transaction, "$id", "$j", "$q", "$v", "$at");
+            SqliteWriter.Session.Bind(upsert, EngineStateRow.SingleId, state.StateJson, head?.Sequence ?? 0, state.ProfileVersion, UtcTextConverter.Format(state.SavedAt));
+            upsert.ExecuteNonQuery();
         }
-
-        private AuditEntry? ReadHead()
-        {
-            using var reader = _head.ExecuteReader();
-            if (!reader.Read())
-            {
-                return null;
-            }
-            return new AuditEntry(
-                reader.GetInt64(0),
-                UtcTextConverter.Parse(reader.GetString(1)),
-                reader.GetString(2),
-                reader.GetString(3),
-                reader.GetString(4),
-                reader.GetString(5),
-                reader.GetString(6));
-        }
-
-        private SqliteCommand Prepare(string sql, params string[] parameters)
-        {
-            var command = _connection.CreateCommand();
-            command.CommandText = sql;
-            foreach (var name in parameters)
-            {
-                command.Parameters.Add(new SqliteParameter { ParameterName = name });
-            }
-            return command;
-        }
+        // Once COMMIT is under way the outcome must be the one reported; a failed commit throws and rolls back.
+        transaction.Commit();
+        return appended;
     }
 }

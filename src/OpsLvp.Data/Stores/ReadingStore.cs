@@ -4,9 +4,19 @@ using OpsLvp.Data.Entities;
 
 namespace OpsLvp.Data.Stores;
 
-/// <summary>The <c>readings</c> table: batch insert of everything received, and reads by receipt time.</summary>
-public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory)
+/// <summary>
+/// The <c>readings</c> table: batch insert of everything received, and reads by receipt time. Inserts are on the
+/// engine's path to every published state, so they go through one long-lived writer connection
+/// (<see cref="SqliteWriter"/>) with a kept INSERT; reads use EF.
+/// </summary>
+public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : IDisposable
 {
+    private const string InsertSql =
+        "INSERT INTO readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) "
+        + "VALUES ($t, $r, $s, $n, $k, $v, $st, $a, $rr, $rd);";
+
+    private readonly SqliteWriter _writer = new(factory, "reading store");
+
     /// <summary>Inserts the batch in one transaction (all or none).</summary>
     /// <exception cref="ArgumentException">An accepted reading lacks time, value or status or has a reject reason, or a rejected one has none; or source is empty.</exception>
     public async Task InsertAsync(IReadOnlyList<ReceivedReading> readings, CancellationToken cancellationToken = default)
@@ -17,10 +27,24 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory)
         {
             return;
         }
-        await using var db = await factory.CreateDbContextAsync(cancellationToken);
-        db.Readings.AddRange(rows);
-        await db.SaveChangesAsync(cancellationToken);
+        await _writer.RunAsync(session =>
+        {
+            using var transaction = session.Connection.BeginTransaction(deferred: false);
+            var insert = session.Command(InsertSql, transaction, "$t", "$r", "$s", "$n", "$k", "$v", "$st", "$a", "$rr", "$rd");
+            foreach (var row in rows)
+            {
+                SqliteWriter.Session.Bind(insert,
+                    row.Time is { } time ? UtcTextConverter.Format(time) : null,
+                    UtcTextConverter.Format(row.ReceivedAt),
+                    row.Source, row.Sensor, row.Kind, row.Value, row.Status, row.Accepted, row.RejectReason, row.RejectDetail);
+                insert.ExecuteNonQuery();
+            }
+            transaction.Commit();
+            return rows.Count;
+        }, cancellationToken);
     }
+
+    public void Dispose() => _writer.Dispose();
 
     /// <summary>Readings received with <paramref name="from"/> ≤ received_at &lt; <paramref name="to"/>, in insertion order.</summary>
     public async Task<IReadOnlyList<ReceivedReading>> GetReceivedAsync(DateTimeOffset from, DateTimeOffset to, CancellationToken cancellationToken = default)

@@ -12,7 +12,7 @@ public class ReadingStoreTests
     public async Task Batch_OfAcceptedAndRejected_IsStoredAndReadBackInOrder()
     {
         using var temp = await TempDatabase.CreateMigratedAsync();
-        var store = new ReadingStore(temp.Factory);
+        using var store = new ReadingStore(temp.Factory);
         var batch = new[]
         {
             ReceivedReading.Accept(new Reading(_t0, "RVR-09-TDZ", ReadingKind.Rvr, 550), _t0.AddSeconds(1), "sim"),
@@ -30,7 +30,7 @@ public class ReadingStoreTests
     public async Task ReceivedTimeRange_IsHalfOpen()
     {
         using var temp = await TempDatabase.CreateMigratedAsync();
-        var store = new ReadingStore(temp.Factory);
+        using var store = new ReadingStore(temp.Factory);
         await store.InsertAsync([
             ReceivedReading.Accept(new Reading(_t0, "VIS-1", ReadingKind.Visibility, 800), _t0, "sim"),
             ReceivedReading.Accept(new Reading(_t0, "VIS-1", ReadingKind.Visibility, 700), _t0.AddSeconds(10), "sim"),
@@ -45,7 +45,7 @@ public class ReadingStoreTests
     public async Task AcceptedWithAReason_OrRejectedWithout_IsRefused_AndTheBatchIsNotWritten()
     {
         using var temp = await TempDatabase.CreateMigratedAsync();
-        var store = new ReadingStore(temp.Factory);
+        using var store = new ReadingStore(temp.Factory);
         var good = ReceivedReading.Accept(new Reading(_t0, "VIS-1", ReadingKind.Visibility, 800), _t0, "sim");
 
         await Assert.ThrowsAsync<ArgumentException>(() => store.InsertAsync([good, good with { RejectReason = RejectReason.Duplicate }]));

@@ -21,7 +21,7 @@ public sealed class StoreEpisodeSourceTests
         using var db = await TempDatabase.CreateMigratedAsync();
         var record = DemoNightSource.Record;
         using var audit = new AuditStore(db.Factory);
-        var readings = new ReadingStore(db.Factory);
+        using var readings = new ReadingStore(db.Factory);
         var engineEvents = ReplayRunner.Run(record.Profile!, record.Readings,
             RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
         var entries = engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry).ToList();
