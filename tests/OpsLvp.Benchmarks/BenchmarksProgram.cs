@@ -76,7 +76,7 @@ public static class BenchmarksProgram
                 }
             }
             var overhead = BenchmarkRunner.Run<AuditOverheadBenchmarks>(config);
-            book.AddSummary("Audit: where an append's time goes before it writes (FULL)", overhead, Command("audit"));
+            book.AddSummary("Audit: what an append does besides the INSERTs (FULL)", overhead, Command("audit"));
             book.Note($"Audit database files: {AuditAppendBenchmarks.DataDir} (same disk as the product's data folder would be unless --data-dir says otherwise).");
         }
 

@@ -8,7 +8,8 @@ using OpsLvp.Data.Stores;
 namespace OpsLvp.Benchmarks.Audit;
 
 /// <summary>
-/// <see cref="AuditStore.AppendAsync"/> (reads the chain head, hashes, EF insert, one transaction) against a plain
+/// <see cref="AuditStore.AppendAsync"/> (checks and canonicalises each entry, reads the chain head, hashes, inserts, one
+/// transaction on the store's writer connection) against a plain
 /// Microsoft.Data.Sqlite INSERT of rows of the same size into the same table of a file made by the same migrations,
 /// with the same WAL and synchronous pragmas; one transaction per operation holding <see cref="Batch"/> entries.
 /// Baseline (ratio 1.00) in each (Sync, Batch) pair: the raw INSERT.

@@ -1,15 +1,17 @@
 using BenchmarkDotNet.Attributes;
 using Microsoft.Data.Sqlite;
 using Microsoft.EntityFrameworkCore;
+using OpsLvp.Core.Audit;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
 
 namespace OpsLvp.Benchmarks.Audit;
 
 /// <summary>
-/// What an append costs before it writes anything (explains the ours/raw ratio): the steps
-/// <see cref="AuditStore.AppendAsync"/> takes on a fresh context against the same head query on an open raw
-/// connection (baseline). A file of 1 000 entries, product pragmas (WAL, FULL).
+/// What an append does besides the INSERTs (explains the ours/raw ratio): the head query the store runs in each
+/// transaction on its writer connection (baseline), the chain work per entry with no database (check and
+/// canonicalise, SHA-256), the canonical payload alone, and what the append path cost per call before it kept a
+/// writer connection (a fresh EF context and its head query). A file of 1 000 entries, product pragmas (WAL, FULL).
 /// </summary>
 [MemoryDiagnoser]
 public class AuditOverheadBenchmarks
@@ -18,6 +20,7 @@ public class AuditOverheadBenchmarks
     private IDbContextFactory<OpsLvpDbContext> _factory = null!;
     private SqliteConnection _raw = null!;
     private SqliteCommand _head = null!;
+    private readonly DateTimeOffset _at = new(2026, 1, 15, 3, 0, 0, TimeSpan.Zero);
 
     [GlobalSetup]
     public void Setup()
@@ -37,11 +40,11 @@ public class AuditOverheadBenchmarks
         _raw = new SqliteConnection($"Data Source={file}");
         _raw.Open();
         _head = _raw.CreateCommand();
-        _head.CommandText = "SELECT sequence, time, actor, kind, payload_json, previous_hash, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1;";
+        _head.CommandText = "SELECT sequence, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1;";
         _head.Prepare();
     }
 
-    [Benchmark(Baseline = true, Description = "Raw head query (open connection)")]
+    [Benchmark(Baseline = true, Description = "Head query: sequence and hash (open connection)")]
     public long RawHead()
     {
         using var reader = _head.ExecuteReader();
@@ -49,7 +52,17 @@ public class AuditOverheadBenchmarks
         return reader.GetInt64(0);
     }
 
-    [Benchmark(Description = "EF: fresh context, open, empty transaction")]
+    [Benchmark(Description = "Chain work per entry, no database (AuditChain.Prepare + Append)")]
+    public string ChainWork()
+    {
+        var pending = AuditChain.Prepare(_at, "system", "transition_confirmed", AuditAppendBenchmarks.Payload);
+        return AuditChain.Append(new AuditChainHead(1000, AuditChain.GenesisHash), pending).Hash;
+    }
+
+    [Benchmark(Description = "of which the canonical payload (AuditCanonical.CanonicalPayload)")]
+    public string CanonicalPayload() => AuditCanonical.CanonicalPayload(AuditAppendBenchmarks.Payload);
+
+    [Benchmark(Description = "Before the writer connection: EF fresh context, open, empty transaction")]
     public async Task EmptyTransaction()
     {
         await using var db = await _factory.CreateDbContextAsync();
@@ -57,7 +70,7 @@ public class AuditOverheadBenchmarks
         await transaction.CommitAsync();
     }
 
-    [Benchmark(Description = "EF: fresh context, head query")]
+    [Benchmark(Description = "Before the writer connection: EF fresh context, head query")]
     public async Task<long> EfHead()
     {
         await using var db = await _factory.CreateDbContextAsync();

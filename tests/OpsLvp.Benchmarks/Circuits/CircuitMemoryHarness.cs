@@ -1,13 +1,16 @@
 using System.Diagnostics;
 using System.Globalization;
+using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Playwright;
 using OpsLvp.Benchmarks.Live;
 using OpsLvp.Benchmarks.Reporting;
+using OpsLvp.Web.Engine;
 
 namespace OpsLvp.Benchmarks.Circuits;
 
 /// <summary>
-/// Server memory per connected Blazor circuit: a fresh in-process server per measurement, N headless Chromium pages
+/// Server memory per connected Blazor circuit: a fresh in-process server per measurement with every demo sensor
+/// reporting (<see cref="BenchSensorFeed"/>), N headless Chromium pages
 /// (one browser, one context signed in through a display link, renderer processes capped) each opening its own circuit, counted server-side by
 /// <see cref="CircuitCounter"/>. Memory is the process's managed heap after a full blocking compacting GC and its
 /// working set, before and after the circuits are open; per circuit = difference / N. The process also holds the
@@ -62,15 +65,24 @@ public static class CircuitMemoryHarness
     private static async Task<(double HeapPerCircuit, double WorkingSetPerCircuit)> MeasureAsync(IBrowser browser, string path, int n)
     {
         await using var server = BenchServer.Start();
+        // Every sensor reports (and keeps reporting) so /wall shows a full aerodrome, not an empty one.
+        var profile = Engine.BenchData.DemoProfile();
+        await using var feed = await BenchSensorFeed.StartAsync(server, profile);
+        await WaitForReadingsAsync(server, profile.Sensors.Count);
         var link = await server.IssueDisplayLinkAsync();
         var context = await browser.NewContextAsync();
         try
         {
             // One page first opens the display link (display cookie for the whole context, redirect to /wall), so
             // every later page is signed in and code paths, caches and pools are warm before the baseline.
+            // A second warm page opens the measured route itself, so its first-render costs (component types,
+            // caches) are in the baseline and not divided among the N circuits.
             var warm = await context.NewPageAsync();
             await warm.GotoAsync(new Uri(server.BaseAddress, link).ToString());
-            await WaitForCircuitsAsync(server, 1);
+            var warmRoute = await context.NewPageAsync();
+            await warmRoute.GotoAsync(new Uri(server.BaseAddress, path).ToString(), new PageGotoOptions { WaitUntil = WaitUntilState.Load, Timeout = 60_000 });
+            await WaitForCircuitsAsync(server, 2);
+            await Task.Delay(1000);
             var (heap0, ws0) = Snapshot();
             var pages = new List<IPage>(n);
             for (var i = 0; i < n; i++)
@@ -79,7 +91,7 @@ public static class CircuitMemoryHarness
                 pages.Add(p);
                 await p.GotoAsync(new Uri(server.BaseAddress, path).ToString(), new PageGotoOptions { WaitUntil = WaitUntilState.Load, Timeout = 60_000 });
             }
-            await WaitForCircuitsAsync(server, n + 1);
+            await WaitForCircuitsAsync(server, n + 2);
             await Task.Delay(2000);
             var (heap1, ws1) = Snapshot();
             return ((heap1 - heap0) / (double)n, (ws1 - ws0) / (double)n);
@@ -87,6 +99,20 @@ public static class CircuitMemoryHarness
         finally
         {
             await context.CloseAsync();
+        }
+    }
+
+    private static async Task WaitForReadingsAsync(BenchServer server, int count)
+    {
+        var engine = server.Services.GetRequiredService<LiveEngineHost>();
+        var clock = Stopwatch.StartNew();
+        while ((engine.State?.Latest.Count ?? 0) < count)
+        {
+            if (clock.Elapsed > TimeSpan.FromSeconds(30))
+            {
+                throw new TimeoutException(string.Create(CultureInfo.InvariantCulture, $"only {engine.State?.Latest.Count ?? 0} of {count} sensors reported within 30 s"));
+            }
+            await Task.Delay(100);
         }
     }
 
