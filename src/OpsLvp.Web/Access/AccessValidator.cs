@@ -20,6 +20,10 @@ public sealed class AccessValidator(
     ApiKeyStore apiKeys,
     IOptions<IdentityOptions> identity)
 {
+    /// <summary>
+    /// True while the principal may keep its session. False, not an exception, once the server is shutting down and
+    /// its database services are disposed (circuits still open then are ending with the server anyway).
+    /// </summary>
     public async Task<bool> IsStillValidAsync(ClaimsPrincipal principal, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(principal);
@@ -27,6 +31,18 @@ public sealed class AccessValidator(
         {
             return true;
         }
+        try
+        {
+            return await IsAuthenticatedStillValidAsync(principal, cancellationToken);
+        }
+        catch (ObjectDisposedException)
+        {
+            return false;
+        }
+    }
+
+    private async Task<bool> IsAuthenticatedStillValidAsync(ClaimsPrincipal principal, CancellationToken cancellationToken)
+    {
         if (principal.FindFirst(AccessClaims.DisplayToken) is { } display)
         {
             return long.TryParse(display.Value, NumberStyles.None, CultureInfo.InvariantCulture, out var id) && await displayTokens.IsActiveAsync(id, cancellationToken);

@@ -91,6 +91,22 @@ public sealed class LiveRevocationTests
         Assert.Contains(SecretHash.Hash(issued.Secret), await app.DatabaseTextAsync(), StringComparison.Ordinal);
     }
 
+    [Fact]
+    public async Task AfterTheServerStops_ASessionIsNoLongerValid_WithoutAnError()
+    {
+        var app = AccessApp.Start();
+        var issued = await app.Services.GetRequiredService<CredentialAdmin>().IssueDisplayAsync("test-admin", "ops room right (invented)");
+        var validator = app.Services.GetRequiredService<AccessValidator>();
+        var display = new System.Security.Claims.ClaimsPrincipal(new System.Security.Claims.ClaimsIdentity(
+            [new(AccessClaims.DisplayToken, issued.Credential.Id.ToString(System.Globalization.CultureInfo.InvariantCulture))], AccessSchemes.Display));
+        Assert.True(await validator.IsStillValidAsync(display));
+
+        // Circuits left open at shutdown still run their revalidation loop against disposed services.
+        await app.DisposeAsync();
+
+        Assert.False(await validator.IsStillValidAsync(display));
+    }
+
     private static async Task WaitUntilAsync(Func<Task<bool>> condition, string what)
     {
         var deadline = DateTime.UtcNow + Within;
