@@ -16,12 +16,20 @@ public static class EpisodeModel
     {
         ArgumentNullException.ThrowIfNull(events);
         ArgumentNullException.ThrowIfNull(readings);
-        var result = new List<EpisodeSummary>();
+        return Bounds(events).Select(b => Summarise(b.Id, b.Start, b.End, Within(events, b.Start, b.End), readings, now)).ToList();
+    }
+
+    /// <summary>Every episode's id, start and end (null while it runs), in start order, from the events alone.</summary>
+    /// <exception cref="FormatException">An episode_started event without an episode id.</exception>
+    public static IReadOnlyList<(string Id, DateTimeOffset Start, DateTimeOffset? End)> Bounds(IReadOnlyList<RecordedEvent> events)
+    {
+        ArgumentNullException.ThrowIfNull(events);
+        var result = new List<(string, DateTimeOffset, DateTimeOffset?)>();
         foreach (var started in events.Where(e => e.Name == "episode_started"))
         {
             var id = started.Str("episode") ?? throw new FormatException($"episode_started at {started.At:O} has no episode id");
             var ended = events.FirstOrDefault(e => e.Name == "episode_ended" && e.Str("episode") == id);
-            result.Add(Summarise(id, started.At, ended?.At, Within(events, started.At, ended?.At), readings, now));
+            result.Add((id, started.At, ended?.At));
         }
         return result;
     }

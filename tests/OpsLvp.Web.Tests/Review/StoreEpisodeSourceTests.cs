@@ -1,6 +1,7 @@
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Time.Testing;
 using OpsLvp.Core.Engine.Replay;
+using OpsLvp.Core.Readings;
 using OpsLvp.Core.Review;
 using OpsLvp.Data.Stores;
 using OpsLvp.Web.Engine;
@@ -41,13 +42,69 @@ public sealed class StoreEpisodeSourceTests
         var (episodes, loaded) = await review.ListAsync();
 
         Assert.True(loaded.Chain.Ok, loaded.Chain.Detail);
-        Assert.Equal(record.Readings.Count, loaded.Readings.Count);
         var episode = Assert.Single(episodes);
+        // Received (here: at their own time) within the episode's window: lead-in and receipt margin before, margin after.
+        var from = episode.Start - EpisodeExport.LeadIn(record.Profile!) - StoreEpisodeSource.ReceiptMargin;
+        var to = episode.End!.Value + StoreEpisodeSource.ReceiptMargin;
+        Assert.Equal(record.Readings.Where(r => r.Time >= from && r.Time < to), loaded.Readings);
         var view = await review.GetAsync(episode.Id);
         Assert.NotNull(view);
         Assert.True(view.Verifies);
         var replayed = view.Export.Replay().Events.Select(RecordedEvent.FromEvent).Where(e => e.Name == "transition").Select(e => e.Json);
         Assert.Equal(view.Export.Events.Where(e => e.Name == "transition").Select(e => e.Json), replayed);
         Assert.Equal(4, view.Summary.Transitions.Count);
+    }
+
+    [Fact]
+    public async Task OnlyReadingsAroundEpisodes_AreRead_NotTheWholeTable()
+    {
+        using var db = await TempDatabase.CreateMigratedAsync();
+        var record = DemoNightSource.Record;
+        using var audit = new AuditStore(db.Factory);
+        using var readings = new ReadingStore(db.Factory);
+        var engineEvents = ReplayRunner.Run(record.Profile!, record.Readings,
+            RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
+        await audit.AppendAsync(engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry).ToList());
+        var episode = Assert.Single(EpisodeModel.Bounds(record.Events));
+        var sensor = record.Profile!.Sensors[0].Id;
+        // Invented readings a week before and a week after the night, far outside any episode's window.
+        var farBefore = new Reading(episode.Start.AddDays(-7), sensor, ReadingKind.Rvr, 1999);
+        var farAfter = new Reading(episode.End!.Value.AddDays(7), sensor, ReadingKind.Rvr, 1998);
+        await readings.InsertAsync([
+            ReceivedReading.Accept(farBefore, farBefore.Time, "sim"),
+            .. record.Readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")),
+            ReceivedReading.Accept(farAfter, farAfter.Time, "sim"),
+        ]);
+        var services = new ServiceCollection().AddSingleton(record.Profile!).AddSingleton(audit).AddSingleton(readings).BuildServiceProvider();
+
+        var loaded = await new StoreEpisodeSource(services).LoadAsync();
+
+        Assert.DoesNotContain(farBefore, loaded.Readings);
+        Assert.DoesNotContain(farAfter, loaded.Readings);
+        var leadInStart = episode.Start - EpisodeExport.LeadIn(record.Profile!);
+        Assert.Contains(loaded.Readings, r => r.Time <= leadInStart);
+        Assert.Equal(record.Readings.Where(r => r.Time >= leadInStart && r.Time <= episode.End), loaded.Readings.Where(r => r.Time >= leadInStart && r.Time <= episode.End));
+    }
+
+    [Fact]
+    public void ReadingWindows_OnePerEpisode_OverlapsMerged_AnOpenEpisodeToTheEnd()
+    {
+        var t = new DateTimeOffset(2026, 1, 15, 0, 0, 0, TimeSpan.Zero);
+        static RecordedEvent Ev(string name, string id, DateTimeOffset at) =>
+            RecordedEvent.Parse($$"""{"event":"{{name}}","time":"{{at.UtcDateTime:yyyy-MM-ddTHH:mm:ssZ}}","episode":"{{id}}"}""");
+        var events = new[]
+        {
+            Ev("episode_started", "e1", t), Ev("episode_ended", "e1", t.AddHours(2)),
+            Ev("episode_started", "e2", t.AddHours(3)), Ev("episode_ended", "e2", t.AddHours(4)),
+            Ev("episode_started", "e3", t.AddDays(2)),
+        };
+        var leadIn = TimeSpan.FromMinutes(30);
+        var m = StoreEpisodeSource.ReceiptMargin;
+
+        var windows = StoreEpisodeSource.ReadingWindows(events, leadIn);
+
+        // e1 and e2 overlap once widened (e2 from 3 h − 30 min − 1 h = 1.5 h < 2 h + 1 h): one window.
+        Assert.Equal([(t - leadIn - m, t.AddHours(4) + m), (t.AddDays(2) - leadIn - m, DateTimeOffset.MaxValue)], windows);
+        Assert.Empty(StoreEpisodeSource.ReadingWindows([], leadIn));
     }
 }
