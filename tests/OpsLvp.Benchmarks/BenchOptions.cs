@@ -1,11 +1,11 @@
 namespace OpsLvp.Benchmarks;
 
 /// <summary>
-/// Command line: <c>[--quick] [--only engine,audit,push,circuits] [--out FOLDER] [--data-dir FOLDER]</c>.
+/// Command line: <c>[--quick] [--only engine,audit,review,push,circuits] [--out FOLDER] [--data-dir FOLDER]</c>.
 /// </summary>
 public sealed record BenchOptions
 {
-    public static readonly string[] Suites = ["engine", "audit", "push", "circuits"];
+    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits"];
 
     /// <summary>Few iterations and small harness counts; the whole run stays under 3 minutes.</summary>
     public bool Quick { get; init; }

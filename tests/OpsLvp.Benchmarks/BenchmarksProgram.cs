@@ -80,6 +80,20 @@ public static class BenchmarksProgram
             book.Note($"Audit database files: {AuditAppendBenchmarks.DataDir} (same disk as the product's data folder would be unless --data-dir says otherwise).");
         }
 
+        if (options.Runs("review"))
+        {
+            if (options.DataDir is not null)
+            {
+                AuditAppendBenchmarks.DataDir = options.DataDir;
+            }
+            // Each operation reads up to millions of rows: one warm-up and three measured iterations in both modes.
+            OpsLvp.Benchmarks.Review.ReviewLoadBenchmarks.Days = options.Quick ? 3 : 14;
+            var review = BenchmarkRunner.Run<OpsLvp.Benchmarks.Review.ReviewLoadBenchmarks>(BenchConfig.Create(options with { Quick = true }, warmups: 1, iterations: 3));
+            book.AddSummary($"Review: what one request reads ({OpsLvp.Benchmarks.Review.ReviewLoadBenchmarks.Days} days of readings, one episode)", review, Command("review"), (name, _) =>
+                name.StartsWith("StoreEpisodeSource", StringComparison.Ordinal) ? "no target set" : null);
+            book.Note(string.Create(CultureInfo.InvariantCulture, $"Review: {OpsLvp.Benchmarks.Review.ReviewLoadBenchmarks.ReadingRows} reading rows ({OpsLvp.Benchmarks.Review.ReviewLoadBenchmarks.Days} days × 11 sensors × every 15 s), one LVP episode on the last night, audit entries from its replay."));
+        }
+
         if (options.Runs("push"))
         {
             try
