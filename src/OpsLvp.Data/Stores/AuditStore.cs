@@ -78,6 +78,15 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         return row is null ? null : ToEntry(row);
     }
 
+    /// <summary>The last committed entry of <paramref name="kind"/>, or null when there is none.</summary>
+    public async Task<AuditEntry?> GetLastOfKindAsync(string kind, CancellationToken cancellationToken = default)
+    {
+        ArgumentNullException.ThrowIfNull(kind);
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        var row = await db.AuditEntries.AsNoTracking().Where(e => e.Kind == kind).OrderByDescending(e => e.Sequence).FirstOrDefaultAsync(cancellationToken);
+        return row is null ? null : ToEntry(row);
+    }
+
     /// <summary>Entries with <paramref name="fromSequence"/> ≤ sequence ≤ <paramref name="toSequence"/>, in sequence order.</summary>
     public async Task<IReadOnlyList<AuditEntry>> GetRangeAsync(long fromSequence, long toSequence, CancellationToken cancellationToken = default)
     {

@@ -137,7 +137,15 @@ public sealed class LiveEngineHost(
             stateEvaluatedAt = restored ? _state.EvaluatedAt : (DateTimeOffset?)null,
         });
         logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
-        await EvaluateAsync([], null, [started], cancellationToken);
+        var hostEntries = new List<NewAuditEntry> { started };
+        var lastRecorded = await audit.GetLastOfKindAsync(ProfileRecord.Kind, cancellationToken);
+        if (lastRecorded is null || ProfileRecord.ShaOf(lastRecorded) != ProfileRecord.Sha256(profile))
+        {
+            // The whole profile goes on record whenever it is not the one last recorded, so the review can judge
+            // each episode by the thresholds then in force.
+            hostEntries.Add(ProfileRecord.Entry(profile, now));
+        }
+        await EvaluateAsync([], null, hostEntries, cancellationToken);
         await base.StartAsync(cancellationToken);
     }
 

@@ -13,19 +13,21 @@ public sealed class ReviewService(IEpisodeSource source, TimeProvider clock)
         return (EpisodeModel.Build(record.Events, shown, clock.GetUtcNow()), record);
     }
 
-    /// <summary>The episode with <paramref name="episodeId"/>, or null when there is none (or no profile is loaded).</summary>
+    /// <summary>The episode with <paramref name="episodeId"/>, or null when there is none (or no profile is recorded or loaded).</summary>
     public async Task<EpisodeView?> GetAsync(string episodeId, CancellationToken cancellationToken = default)
     {
         var (episodes, record) = await ListAsync(cancellationToken);
         var summary = episodes.FirstOrDefault(e => e.Id == episodeId);
-        if (summary is null || record.Profile is null)
+        // Judged by the profile in force when the episode began (recorded at the engine's start), not today's.
+        var profile = summary is null ? null : record.ProfileAt(summary.Start);
+        if (summary is null || profile is null)
         {
             return null;
         }
         var end = summary.End ?? clock.GetUtcNow();
         var events = EpisodeModel.Within(record.Events, summary.Start, summary.End);
-        var performance = ChecklistPerformance.Compute(events, record.Profile, summary.Start, end);
-        var export = EpisodeExport.Create(summary, record.Profile, record.Readings, record.Events, record.Audit);
+        var performance = ChecklistPerformance.Compute(events, profile, summary.Start, end);
+        var export = EpisodeExport.Create(summary, profile, record.Readings, record.Events, record.Audit);
         return new EpisodeView(summary, performance, export, record.Chain, export.VerifyAudit());
     }
 }

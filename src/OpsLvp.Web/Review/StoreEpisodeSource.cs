@@ -50,7 +50,13 @@ public sealed class StoreEpisodeSource(IServiceProvider services) : IEpisodeSour
             .Select(r => new Reading(r.Time!.Value, r.Sensor, Enum.Parse<ReadingKind>(r.Kind), r.Value!.Value,
                 Enum.Parse<ReadingStatus>(r.Status!)))
             .ToList();
-        return new ReviewRecord(profile, readings, events, entries, chain);
+        var profiles = entries
+            .Where(e => e.Kind == ProfileRecord.Kind)
+            .Select(e => (e.Time, Profile: ProfileRecord.ProfileOf(e)))
+            .Where(p => p.Profile is not null)
+            .Select(p => (p.Time, p.Profile!))
+            .ToList();
+        return new ReviewRecord(profile, readings, events, entries, chain, profiles);
     }
 
     /// <summary>

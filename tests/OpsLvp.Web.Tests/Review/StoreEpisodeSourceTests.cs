@@ -87,6 +87,54 @@ public sealed class StoreEpisodeSourceTests
     }
 
     [Fact]
+    public async Task AnEpisode_IsJudgedByTheProfileRecordedBeforeIt_NotTheOneLoadedNow()
+    {
+        using var db = await TempDatabase.CreateMigratedAsync();
+        var record = DemoNightSource.Record;
+        using var audit = new AuditStore(db.Factory);
+        using var readings = new ReadingStore(db.Factory);
+        var episode = Assert.Single(EpisodeModel.Bounds(record.Events));
+        // The night ran under an invented earlier version; today's profile has another version and a longer dwell.
+        var then = record.Profile! with { Version = "demo-night-then (invented)" };
+        var now = record.Profile! with
+        {
+            Version = "demo-now (invented)",
+            Thresholds = record.Profile!.Thresholds with { Active = record.Profile!.Thresholds.Active with { EnterDwellSeconds = 900 } },
+        };
+        var engineEvents = ReplayRunner.Run(then, record.Readings, RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
+        await audit.AppendAsync([ProfileRecord.Entry(then, episode.Start.AddHours(-3)), .. engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry)]);
+        await readings.InsertAsync(record.Readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")).ToList());
+        var services = new ServiceCollection().AddSingleton(now).AddSingleton(audit).AddSingleton(readings).BuildServiceProvider();
+        var review = new ReviewService(new StoreEpisodeSource(services), new FakeTimeProvider(new DateTimeOffset(2026, 1, 16, 6, 0, 0, TimeSpan.Zero)));
+
+        var (episodes, loaded) = await review.ListAsync();
+        var view = await review.GetAsync(Assert.Single(episodes).Id);
+
+        Assert.Equal("demo-night-then (invented)", Assert.Single(loaded.Profiles!).Profile.Version);
+        Assert.NotNull(view);
+        Assert.Equal("demo-night-then (invented)", view.Export.Profile.Version);
+        // Replayed under its own profile, the export reaches the transitions that were recorded.
+        var replayed = view.Export.Replay().Events.Select(RecordedEvent.FromEvent).Where(e => e.Name == "transition").Select(e => e.Json);
+        Assert.Equal(view.Export.Events.Where(e => e.Name == "transition").Select(e => e.Json), replayed);
+    }
+
+    [Fact]
+    public void ProfileAt_TakesTheLastRecordedAtOrBefore_ElseTheOneLoadedNow()
+    {
+        var current = DemoNightSource.Record.Profile! with { Version = "now (invented)" };
+        var a = current with { Version = "a (invented)" };
+        var b = current with { Version = "b (invented)" };
+        var t = new DateTimeOffset(2026, 1, 15, 0, 0, 0, TimeSpan.Zero);
+        var record = new ReviewRecord(current, [], [], [], Core.Audit.AuditChain.Verify([]), [(t, a), (t.AddDays(1), b)]);
+
+        Assert.Equal("now (invented)", record.ProfileAt(t.AddSeconds(-1))!.Version);
+        Assert.Equal("a (invented)", record.ProfileAt(t)!.Version);
+        Assert.Equal("a (invented)", record.ProfileAt(t.AddHours(23))!.Version);
+        Assert.Equal("b (invented)", record.ProfileAt(t.AddDays(3))!.Version);
+        Assert.Equal("now (invented)", (record with { Profiles = null }).ProfileAt(t.AddDays(3))!.Version);
+    }
+
+    [Fact]
     public void ReadingWindows_OnePerEpisode_OverlapsMerged_AnOpenEpisodeToTheEnd()
     {
         var t = new DateTimeOffset(2026, 1, 15, 0, 0, 0, TimeSpan.Zero);
