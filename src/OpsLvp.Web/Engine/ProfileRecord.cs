@@ -35,28 +35,25 @@ public static class ProfileRecord
     }
 
     /// <summary>The SHA-256 an entry records, or null when the entry is not a readable profile record.</summary>
-    public static string? ShaOf(AuditEntry entry)
+    public static string? ShaOf(AuditEntry entry) =>
+        Read(entry, "sha256", JsonValueKind.String, v => v.GetString());
+
+    /// <summary>The profile an entry records, or null when the entry is not a profile record or cannot be read as a valid profile.</summary>
+    public static AerodromeProfile? ProfileOf(AuditEntry entry)
     {
-        ArgumentNullException.ThrowIfNull(entry);
-        if (entry.Kind != Kind)
-        {
-            return null;
-        }
         try
         {
-            using var doc = JsonDocument.Parse(entry.PayloadJson);
-            return doc.RootElement.ValueKind == JsonValueKind.Object && doc.RootElement.TryGetProperty("sha256", out var sha) && sha.ValueKind == JsonValueKind.String
-                ? sha.GetString()
-                : null;
+            return Read(entry, "profile", JsonValueKind.Object, v => ProfileValidator.ParseValidated(v.GetRawText()));
         }
-        catch (JsonException)
+        catch (ProfileException)
         {
             return null;
         }
     }
 
-    /// <summary>The profile an entry records, or null when the entry is not a profile record or cannot be read as a valid profile.</summary>
-    public static AerodromeProfile? ProfileOf(AuditEntry entry)
+    /// <summary>A field of a profile record's payload object, or null (not a profile record, not an object, no such field of that kind).</summary>
+    private static T? Read<T>(AuditEntry entry, string field, JsonValueKind kind, Func<JsonElement, T?> read)
+        where T : class
     {
         ArgumentNullException.ThrowIfNull(entry);
         if (entry.Kind != Kind)
@@ -66,11 +63,11 @@ public static class ProfileRecord
         try
         {
             using var doc = JsonDocument.Parse(entry.PayloadJson);
-            return doc.RootElement.ValueKind == JsonValueKind.Object && doc.RootElement.TryGetProperty("profile", out var p) && p.ValueKind == JsonValueKind.Object
-                ? ProfileValidator.ParseValidated(p.GetRawText())
+            return doc.RootElement.ValueKind == JsonValueKind.Object && doc.RootElement.TryGetProperty(field, out var value) && value.ValueKind == kind
+                ? read(value)
                 : null;
         }
-        catch (Exception ex) when (ex is JsonException or ProfileException)
+        catch (JsonException)
         {
             return null;
         }

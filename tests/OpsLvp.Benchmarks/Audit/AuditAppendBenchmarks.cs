@@ -123,14 +123,7 @@ public class AuditAppendBenchmarks
         _raw.Dispose();
         _store.Dispose();
         SqliteConnection.ClearAllPools();
-        try
-        {
-            Directory.Delete(_folder, recursive: true);
-        }
-        catch (IOException)
-        {
-            // A leftover temporary folder is harmless.
-        }
+        BenchFiles.TryDeleteFolder(_folder);
     }
 
     private DateTimeOffset NextTime() => new DateTimeOffset(2026, 1, 15, 0, 0, 0, TimeSpan.Zero).AddMilliseconds(++_time);

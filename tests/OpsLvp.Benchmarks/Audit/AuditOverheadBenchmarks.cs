@@ -84,13 +84,6 @@ public class AuditOverheadBenchmarks
         _head.Dispose();
         _raw.Dispose();
         SqliteConnection.ClearAllPools();
-        try
-        {
-            Directory.Delete(_folder, recursive: true);
-        }
-        catch (IOException)
-        {
-            // A leftover temporary folder is harmless.
-        }
+        BenchFiles.TryDeleteFolder(_folder);
     }
 }

@@ -73,14 +73,7 @@ public sealed class BenchServer : IAsyncDisposable
     public async ValueTask DisposeAsync()
     {
         await _factory.DisposeAsync();
-        try
-        {
-            Directory.Delete(DataFolder, recursive: true);
-        }
-        catch (IOException)
-        {
-            // A leftover temporary folder is harmless.
-        }
+        BenchFiles.TryDeleteFolder(DataFolder);
     }
 
     private sealed class Factory(IDictionary<string, string?> settings, CircuitCounter circuits) : WebApplicationFactory<Program>

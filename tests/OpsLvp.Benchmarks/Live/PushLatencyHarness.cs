@@ -166,14 +166,7 @@ public static class PushLatencyHarness
         finally
         {
             Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
-            try
-            {
-                Directory.Delete(folder, recursive: true);
-            }
-            catch (IOException)
-            {
-                // A leftover temporary folder is harmless.
-            }
+            BenchFiles.TryDeleteFolder(folder);
         }
     }
 

@@ -93,14 +93,7 @@ public class ReviewLoadBenchmarks
         _audit.Dispose();
         _readings.Dispose();
         SqliteConnection.ClearAllPools();
-        try
-        {
-            Directory.Delete(_folder, recursive: true);
-        }
-        catch (IOException)
-        {
-            // A leftover temporary folder is harmless.
-        }
+        BenchFiles.TryDeleteFolder(_folder);
     }
 
     /// <summary>Fair-weather days: every 15 s, RVR about 2000 m and cloud base about 1500 ft with noise (invented).</summary>

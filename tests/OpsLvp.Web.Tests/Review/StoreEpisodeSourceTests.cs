@@ -1,6 +1,7 @@
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Time.Testing;
 using OpsLvp.Core.Engine.Replay;
+using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 using OpsLvp.Core.Review;
 using OpsLvp.Data.Stores;
@@ -19,24 +20,11 @@ public sealed class StoreEpisodeSourceTests
     [Fact]
     public async Task DatabaseWrittenLikeTheHost_GivesTheEpisode_AndAnExportThatReplaysToIt()
     {
-        using var db = await TempDatabase.CreateMigratedAsync();
         var record = DemoNightSource.Record;
-        using var audit = new AuditStore(db.Factory);
-        using var readings = new ReadingStore(db.Factory);
-        var engineEvents = ReplayRunner.Run(record.Profile!, record.Readings,
-            RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
-        var entries = engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry).ToList();
-        await audit.AppendAsync(entries);
-        var received = record.Readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")).ToList();
         var derived = ReviewReadings.WithDerivedRvr(record.Profile!, record.Readings).Except(record.Readings)
             .Select(r => ReceivedReading.Accept(r, r.Time, "sim:derived"));
-        await readings.InsertAsync([.. received, .. derived]);
-
-        var services = new ServiceCollection()
-            .AddSingleton(record.Profile!)
-            .AddSingleton(audit)
-            .AddSingleton(readings)
-            .BuildServiceProvider();
+        using var db = await NightDatabase.WriteAsync(record.Profile!, record.Profile!, [], [.. Received(record.Readings), .. derived]);
+        var services = db.Services;
         var review = new ReviewService(new StoreEpisodeSource(services), new FakeTimeProvider(new DateTimeOffset(2026, 1, 16, 6, 0, 0, TimeSpan.Zero)));
 
         var (episodes, loaded) = await review.ListAsync();
@@ -58,24 +46,14 @@ public sealed class StoreEpisodeSourceTests
     [Fact]
     public async Task OnlyReadingsAroundEpisodes_AreRead_NotTheWholeTable()
     {
-        using var db = await TempDatabase.CreateMigratedAsync();
         var record = DemoNightSource.Record;
-        using var audit = new AuditStore(db.Factory);
-        using var readings = new ReadingStore(db.Factory);
-        var engineEvents = ReplayRunner.Run(record.Profile!, record.Readings,
-            RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
-        await audit.AppendAsync(engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry).ToList());
         var episode = Assert.Single(EpisodeModel.Bounds(record.Events));
         var sensor = record.Profile!.Sensors[0].Id;
         // Invented readings a week before and a week after the night, far outside any episode's window.
         var farBefore = new Reading(episode.Start.AddDays(-7), sensor, ReadingKind.Rvr, 1999);
         var farAfter = new Reading(episode.End!.Value.AddDays(7), sensor, ReadingKind.Rvr, 1998);
-        await readings.InsertAsync([
-            ReceivedReading.Accept(farBefore, farBefore.Time, "sim"),
-            .. record.Readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")),
-            ReceivedReading.Accept(farAfter, farAfter.Time, "sim"),
-        ]);
-        var services = new ServiceCollection().AddSingleton(record.Profile!).AddSingleton(audit).AddSingleton(readings).BuildServiceProvider();
+        using var db = await NightDatabase.WriteAsync(record.Profile!, record.Profile!, [], [.. Received([farBefore]), .. Received(record.Readings), .. Received([farAfter])]);
+        var services = db.Services;
 
         var loaded = await new StoreEpisodeSource(services).LoadAsync();
 
@@ -89,10 +67,7 @@ public sealed class StoreEpisodeSourceTests
     [Fact]
     public async Task AnEpisode_IsJudgedByTheProfileRecordedBeforeIt_NotTheOneLoadedNow()
     {
-        using var db = await TempDatabase.CreateMigratedAsync();
         var record = DemoNightSource.Record;
-        using var audit = new AuditStore(db.Factory);
-        using var readings = new ReadingStore(db.Factory);
         var episode = Assert.Single(EpisodeModel.Bounds(record.Events));
         // The night ran under an invented earlier version; today's profile has another version and a longer dwell.
         var then = record.Profile! with { Version = "demo-night-then (invented)" };
@@ -101,10 +76,8 @@ public sealed class StoreEpisodeSourceTests
             Version = "demo-now (invented)",
             Thresholds = record.Profile!.Thresholds with { Active = record.Profile!.Thresholds.Active with { EnterDwellSeconds = 900 } },
         };
-        var engineEvents = ReplayRunner.Run(then, record.Readings, RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
-        await audit.AppendAsync([ProfileRecord.Entry(then, episode.Start.AddHours(-3)), .. engineEvents.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry)]);
-        await readings.InsertAsync(record.Readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")).ToList());
-        var services = new ServiceCollection().AddSingleton(now).AddSingleton(audit).AddSingleton(readings).BuildServiceProvider();
+        using var db = await NightDatabase.WriteAsync(then, now, [ProfileRecord.Entry(then, episode.Start.AddHours(-3))], Received(record.Readings));
+        var services = db.Services;
         var review = new ReviewService(new StoreEpisodeSource(services), new FakeTimeProvider(new DateTimeOffset(2026, 1, 16, 6, 0, 0, TimeSpan.Zero)));
 
         var (episodes, loaded) = await review.ListAsync();
@@ -154,5 +127,47 @@ public sealed class StoreEpisodeSourceTests
         // e1 and e2 overlap once widened (e2 from 3 h − 30 min − 1 h = 1.5 h < 2 h + 1 h): one window.
         Assert.Equal([(t - leadIn - m, t.AddHours(4) + m), (t.AddDays(2) - leadIn - m, DateTimeOffset.MaxValue)], windows);
         Assert.Empty(StoreEpisodeSource.ReadingWindows([], leadIn));
+    }
+
+    private static List<ReceivedReading> Received(IEnumerable<Reading> readings) =>
+        readings.Select(r => ReceivedReading.Accept(r, r.Time, "sim")).ToList();
+
+    /// <summary>
+    /// A real database written the way the engine host writes it (<see cref="WriteAsync"/>), and services with its
+    /// stores and a profile loaded now.
+    /// </summary>
+    private sealed class NightDatabase : IDisposable
+    {
+        private readonly TempDatabase _db;
+        private readonly AuditStore _audit;
+        private readonly ReadingStore _readings;
+
+        private NightDatabase(TempDatabase db, AerodromeProfile loadedNow)
+        {
+            _db = db;
+            _audit = new AuditStore(db.Factory);
+            _readings = new ReadingStore(db.Factory);
+            Services = new ServiceCollection().AddSingleton(loadedNow).AddSingleton(_audit).AddSingleton(_readings).BuildServiceProvider();
+        }
+
+        public IServiceProvider Services { get; }
+
+        /// <summary>The demo night replayed under <paramref name="ranUnder"/>, its audited events after <paramref name="before"/>, and <paramref name="received"/>.</summary>
+        public static async Task<NightDatabase> WriteAsync(AerodromeProfile ranUnder, AerodromeProfile loadedNow, IReadOnlyList<NewAuditEntry> before, IReadOnlyList<ReceivedReading> received)
+        {
+            var night = new NightDatabase(await TempDatabase.CreateMigratedAsync(), loadedNow);
+            var record = DemoNightSource.Record;
+            var events = ReplayRunner.Run(ranUnder, record.Readings, RecordedCommands.ToCommands(RecordedCommands.FromEvents(record.Events), "demo")).Events;
+            await night._audit.AppendAsync([.. before, .. events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry)]);
+            await night._readings.InsertAsync(received);
+            return night;
+        }
+
+        public void Dispose()
+        {
+            _audit.Dispose();
+            _readings.Dispose();
+            _db.Dispose();
+        }
     }
 }
