@@ -25,6 +25,15 @@ public sealed record ReceivedReading(
         return new(receivedAt, source, reading.SensorId, reading.Kind.ToString(), reading.Time, reading.Value, reading.Status.ToString(), true);
     }
 
+    /// <summary>True for RVR the host derived from a raw reading and stored (source ending ":derived").</summary>
+    public bool IsDerived => Source.EndsWith(":derived", StringComparison.Ordinal);
+
+    /// <summary>The reading as it was received, or null when its time, value, kind or status could not be parsed.</summary>
+    public Reading? AsReading() =>
+        Time is { } time && Value is { } value && Enum.TryParse<ReadingKind>(Kind, out var kind) && Enum.TryParse<ReadingStatus>(Status, out var status)
+            ? new Reading(time, Sensor, kind, value, status)
+            : null;
+
     public static ReceivedReading Reject(Reading reading, DateTimeOffset receivedAt, string source, RejectReason reason, string? detail = null)
     {
         ArgumentNullException.ThrowIfNull(reading);

@@ -128,6 +128,7 @@ public sealed class LiveEngineHost(
             }
         }
         _state ??= _engine.Initial(now);
+        await RebuildAveragingAsync(now, cancellationToken);
         _written = restored ? _state : null;
         var started = AuditEvents.HostEntry("engine_started", now, new
         {
@@ -147,6 +148,41 @@ public sealed class LiveEngineHost(
         }
         await EvaluateAsync([], null, hostEntries, cancellationToken);
         await base.StartAsync(cancellationToken);
+    }
+
+    /// <summary>
+    /// After a restart the 1-minute RVR means of raw sensors and the 10-minute tendencies would start from nothing,
+    /// and the first derived RVR values would rest on fewer samples than before the restart. The readings received in
+    /// the last 10 minutes are in the readings table, so both are rebuilt from them in receipt order, as live fed
+    /// them: every raw reading to the derivation, every accepted RVR (raw or derived) to the tendencies.
+    /// </summary>
+    private async Task RebuildAveragingAsync(DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        IReadOnlyList<ReceivedReading> recent;
+        try
+        {
+            recent = await readingStore.GetReceivedAsync(now - RvrAveraging.TenMinutes, now, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogWarning(ex, "Recent readings could not be read; RVR means and tendencies start empty");
+            return;
+        }
+        foreach (var row in recent)
+        {
+            if (row.AsReading() is not { } reading)
+            {
+                continue;
+            }
+            if (!row.IsDerived)
+            {
+                _ = _derivation!.Observe(reading);
+            }
+            if (row.Accepted)
+            {
+                _trends!.Add(reading);
+            }
+        }
     }
 
     /// <summary>Evaluates one command through the single evaluation path (used by the command service).</summary>

@@ -45,11 +45,7 @@ public sealed class StoreEpisodeSource(IServiceProvider services) : IEpisodeSour
                 received.AddRange(await readingStore.GetReceivedAsync(from, to, cancellationToken));
             }
         }
-        var readings = received
-            .Where(r => !r.Source.EndsWith(":derived", StringComparison.Ordinal) && r.Time is not null && r.Value is not null && Enum.TryParse<ReadingKind>(r.Kind, out _) && Enum.TryParse<ReadingStatus>(r.Status, out _))
-            .Select(r => new Reading(r.Time!.Value, r.Sensor, Enum.Parse<ReadingKind>(r.Kind), r.Value!.Value,
-                Enum.Parse<ReadingStatus>(r.Status!)))
-            .ToList();
+        var readings = received.Where(r => !r.IsDerived).Select(r => r.AsReading()).OfType<Reading>().ToList();
         var profiles = entries
             .Where(e => e.Kind == ProfileRecord.Kind)
             .Select(e => (e.Time, Profile: ProfileRecord.ProfileOf(e)))
