@@ -10,7 +10,16 @@ public static class BrowserAccess
     public static async Task SignInAsync(IPage page, OpsLvpServer server, string userName, string returnPath = "/")
     {
         await FillSignInAsync(page, server, userName, TestAccounts.Password, returnPath);
-        await page.WaitForURLAsync(url => new Uri(url).AbsolutePath == returnPath, new() { Timeout = 15_000 });
+        // Generous: the first sign-in on a fresh server (password hash, first render of the page) shares CI's two cores
+        // with the other test projects; a 15 s wait once ran out there. The wait proves the redirect, not a speed.
+        try
+        {
+            await page.WaitForURLAsync(url => new Uri(url).AbsolutePath == returnPath, new() { Timeout = 45_000 });
+        }
+        catch (TimeoutException ex)
+        {
+            throw new TimeoutException($"sign-in as {userName} did not reach {returnPath} within 45 s; the page is at {page.Url}; server output:{Environment.NewLine}{server.Output}", ex);
+        }
     }
 
     /// <summary>Submits the sign-in form once with <paramref name="password"/> (right or wrong); does not wait for the outcome.</summary>
