@@ -36,6 +36,26 @@ public sealed class ReviewComponentTests : BunitContext, IAsyncLifetime
         [new PhaseSpan(Phase.Preparation, T0.AddMinutes(36), T0.AddMinutes(101)), new PhaseSpan(Phase.Active, T0.AddMinutes(101), T0.AddMinutes(282))]);
 
     [Fact]
+    public void AuditTable_FoldsALongPayload_AndShowsAShortOneWhole()
+    {
+        var profile = OpsLvp.Core.Profile.ProfileLoader.Load(new OpsLvp.Web.Hosting.ContentPaths(AppContext.BaseDirectory).Resolve("seed-demo/profile.json"));
+        var recorded = OpsLvp.Web.Engine.ProfileRecord.Entry(profile, T0);
+        var first = OpsLvp.Core.Audit.AuditChain.Append(null, T0, "engine", "engine_started", "{\"profile\":\"invented\"}");
+        var second = OpsLvp.Core.Audit.AuditChain.Append(first, recorded.Time, recorded.Actor, recorded.Kind, recorded.PayloadJson);
+        Assert.True(second.PayloadJson.Length > AuditEntryTable.LongPayload);
+
+        var cut = Render<AuditEntryTable>(p => p.Add(c => c.Entries, [first, second]).Add(c => c.Segment, OpsLvp.Core.Audit.AuditChain.Verify([first, second])));
+
+        var rows = cut.FindAll("[data-testid=audit-row]");
+        Assert.Equal(2, rows.Count);
+        Assert.Empty(rows[0].QuerySelectorAll("[data-testid=audit-payload-long]"));
+        Assert.Contains("{\"profile\":\"invented\"}", rows[0].TextContent, StringComparison.Ordinal);
+        var folded = Assert.Single(rows[1].QuerySelectorAll("[data-testid=audit-payload-long]"));
+        Assert.Contains($"({second.PayloadJson.Length} characters; show all)", folded.QuerySelector("summary")!.TextContent, StringComparison.Ordinal);
+        Assert.Contains(second.PayloadJson, folded.TextContent, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Summary_ShowsTimesPhaseLowestValuesCountsAndTimeInForce()
     {
         var cut = Render<EpisodeSummaryCard>(p => p.Add(c => c.Summary, Summary(T0.AddMinutes(300))).Add(c => c.Verifies, true));
