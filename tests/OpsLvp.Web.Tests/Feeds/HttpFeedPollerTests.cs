@@ -25,7 +25,8 @@ public sealed class HttpFeedPollerTests
     public async Task GoodJson_ReachesPipeline_AndHealthIsOk()
     {
         await using var upstream = await FakeUpstreamFeed.StartAsync(UpstreamMode.GoodJson);
-        await using var app = OpsLvpApp.Start(Settings(upstream.Url));
+        // A generous timeout: a slow poll on a busy machine must not turn this feed degraded (timeouts have their own test).
+        await using var app = OpsLvpApp.Start(Settings(upstream.Url, timeout: "00:00:05"));
 
         var batch = await app.NextBatchAsync(b => b.Source == Source);
 
@@ -95,7 +96,8 @@ public sealed class HttpFeedPollerTests
     public async Task PartiallyMalformedItems_GoodOnesPass_BadOnesAreRejectedWithDetail()
     {
         await using var upstream = await FakeUpstreamFeed.StartAsync(UpstreamMode.PartiallyMalformed);
-        await using var app = OpsLvpApp.Start(Settings(upstream.Url));
+        // A generous timeout: a slow poll on a busy machine must not turn this feed degraded (timeouts have their own test).
+        await using var app = OpsLvpApp.Start(Settings(upstream.Url, timeout: "00:00:05"));
 
         var batch = await app.NextBatchAsync(b => b.Source == Source);
 
@@ -122,7 +124,8 @@ public sealed class HttpFeedPollerTests
     public async Task FailingFeed_RecoversToOk_WhenUpstreamComesBack()
     {
         await using var upstream = await FakeUpstreamFeed.StartAsync(UpstreamMode.Http500);
-        await using var app = OpsLvpApp.Start(Settings(upstream.Url));
+        // A generous timeout: a slow poll on a busy machine must not turn this feed degraded (timeouts have their own test).
+        await using var app = OpsLvpApp.Start(Settings(upstream.Url, timeout: "00:00:05"));
         await Eventually.ValueAsync(() => app.Health.Get(Source), h => h.ConsecutiveFailures >= 1, "a failed poll");
 
         upstream.Mode = UpstreamMode.GoodJson;
