@@ -42,20 +42,7 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
                 errors.Add($"{at}:Url must be an absolute http or https URL (got '{feed.Url}').");
             }
 
-            if (feed.PollInterval < TimeSpan.FromMilliseconds(100) || feed.PollInterval > TimeSpan.FromHours(1))
-            {
-                errors.Add($"{at}:PollInterval must be between 00:00:00.1 and 01:00:00.");
-            }
-
-            if (feed.Timeout < TimeSpan.FromMilliseconds(10) || feed.Timeout > TimeSpan.FromMinutes(5))
-            {
-                errors.Add($"{at}:Timeout must be between 00:00:00.01 and 00:05:00.");
-            }
-
-            if (feed.Retries is < 0 or > 10)
-            {
-                errors.Add(Msg($"{at}:Retries must be between 0 and 10 (got {feed.Retries})."));
-            }
+            CheckPolling(errors, at, feed.PollInterval, feed.Timeout, feed.Retries);
 
             if (feed.RetryDelay < TimeSpan.Zero || feed.RetryDelay > TimeSpan.FromMinutes(1))
             {
@@ -90,18 +77,7 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             {
                 errors.Add($"{at}:Source must be an http(s) URL or a file path.");
             }
-            if (feed.PollInterval < TimeSpan.FromMilliseconds(100) || feed.PollInterval > TimeSpan.FromHours(1))
-            {
-                errors.Add($"{at}:PollInterval must be between 00:00:00.1 and 01:00:00.");
-            }
-            if (feed.Timeout < TimeSpan.FromMilliseconds(10) || feed.Timeout > TimeSpan.FromMinutes(5))
-            {
-                errors.Add($"{at}:Timeout must be between 00:00:00.01 and 00:05:00.");
-            }
-            if (feed.Retries is < 0 or > 10)
-            {
-                errors.Add(Msg($"{at}:Retries must be between 0 and 10 (got {feed.Retries})."));
-            }
+            CheckPolling(errors, at, feed.PollInterval, feed.Timeout, feed.Retries);
         }
 
         var keyNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
@@ -130,6 +106,25 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
         }
 
         return errors;
+    }
+
+    /// <summary>The polling settings HTTP and METAR feeds share (the same retry/timeout pipeline runs both).</summary>
+    private static void CheckPolling(List<string> errors, string at, TimeSpan pollInterval, TimeSpan timeout, int retries)
+    {
+        if (pollInterval < TimeSpan.FromMilliseconds(100) || pollInterval > TimeSpan.FromHours(1))
+        {
+            errors.Add($"{at}:PollInterval must be between 00:00:00.1 and 01:00:00.");
+        }
+
+        if (timeout < TimeSpan.FromMilliseconds(10) || timeout > TimeSpan.FromMinutes(5))
+        {
+            errors.Add($"{at}:Timeout must be between 00:00:00.01 and 00:05:00.");
+        }
+
+        if (retries is < 0 or > 10)
+        {
+            errors.Add(Msg($"{at}:Retries must be between 0 and 10 (got {retries})."));
+        }
     }
 
     private static string Msg(FormattableString text) => text.ToString(CultureInfo.InvariantCulture);
