@@ -11,7 +11,7 @@ using OpsLvp.Data.Stores;
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
-/// <c>opslvp audit verify --db path</c> (DESIGN §4.1): verifies the audit hash chain of a database file, opened
+/// <c>opslvp audit verify --db path</c> (docs/cli.md): verifies the audit hash chain of a database file, opened
 /// read-only. Prints <c>{"entries","ok","first_bad_sequence","reason","detail","time_regression_sequence"}</c>.
 /// Exit 0 when the chain verifies, <see cref="ChainBrokenExitCode"/> when it does not, 1 for a missing or
 /// unreadable file, 2 for a bad command line (docs/audit.md). <c>opslvp audit verify --export E.json</c> checks the

@@ -3,7 +3,7 @@ using OpsLvp.Core.Metar;
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
-/// <c>opslvp metar decode "&lt;text&gt;"</c> (DESIGN §4.1): the decoded report as JSON on stdout. The report may be
+/// <c>opslvp metar decode "&lt;text&gt;"</c> (docs/cli.md): the decoded report as JSON on stdout. The report may be
 /// given as one argument or as several (the shell split it); they are joined with spaces. Text that is not a METAR
 /// or SPECI raises <see cref="MetarFormatException"/>, which the dispatcher writes as one line to stderr (exit 1).
 /// </summary>

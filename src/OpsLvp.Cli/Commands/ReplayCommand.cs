@@ -5,7 +5,7 @@ using OpsLvp.Core.Review;
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
-/// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]` (DESIGN §4.1): runs the
+/// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]` (docs/cli.md): runs the
 /// engine over the files and writes one JSON line per event. Formats: docs/replay.md.
 /// `opslvp replay --episode E.json [--profile other.json]` replays an episode export (docs/review.md) with its own
 /// profile or another one (what-if).
@@ -104,7 +104,7 @@ public sealed class ReplayCommand : ICliCommand
     }
 
     /// <summary>
-    /// Loads and validates a profile (DESIGN R6, the same checks the server applies). On a problem writes one line
+    /// Loads and validates a profile (docs/engine.md R6, the same checks the server applies). On a problem writes one line
     /// to stderr naming the file and the first field at fault, with a count of the others, and returns null.
     /// </summary>
     private static AerodromeProfile? LoadProfile(string path, TextWriter stderr)

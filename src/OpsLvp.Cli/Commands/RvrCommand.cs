@@ -8,7 +8,7 @@ using OpsLvp.Core.Units;
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
-/// <c>opslvp rvr</c> (DESIGN §4.1): one RVR assessment from MOR, σ or T+b, light intensity and background luminance
+/// <c>opslvp rvr</c> (docs/cli.md): one RVR assessment from MOR, σ or T+b, light intensity and background luminance
 /// or period. Output <c>{ "mor_m", "lights_m", "object_m", "rvr_m", "report" }</c>; the four distances are the
 /// unrounded values rounded DOWN to 0.1 m (so a shown value never exceeds the assessed one), the report is the
 /// Annex 3 reported value of the unrounded RVR.

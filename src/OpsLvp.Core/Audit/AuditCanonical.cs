@@ -6,7 +6,7 @@ using System.Text.Json;
 namespace OpsLvp.Core.Audit;
 
 /// <summary>
-/// The exact bytes an audit entry's hash covers (DESIGN R12; docs/audit.md, "Canonical entry").
+/// The exact bytes an audit entry's hash covers (docs/engine.md R12; docs/audit.md, "Canonical entry").
 /// <para>
 /// Canonical entry = N("opslvp.audit.v1") ‖ N(sequence) ‖ N(time) ‖ N(actor) ‖ N(kind) ‖ N(canonical payload),
 /// where N(s) is a netstring: the decimal count of the UTF-8 bytes of s, ":", those bytes, ",".

@@ -4,7 +4,7 @@ using System.Text;
 namespace OpsLvp.Core.Audit;
 
 /// <summary>
-/// The hash chain of the audit log (DESIGN R12): hash = SHA-256(previous hash ‖ canonical entry), bytes as
+/// The hash chain of the audit log (docs/engine.md R12): hash = SHA-256(previous hash ‖ canonical entry), bytes as
 /// defined by <see cref="AuditCanonical"/>. Verification can prove that a stored chain was not altered,
 /// shortened in the middle or reordered; it cannot detect a wholesale rewrite of the tail, nor a removal of the
 /// last entries (compare the count with an outside record for that; docs/audit.md).

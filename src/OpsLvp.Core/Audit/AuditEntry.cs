@@ -1,7 +1,7 @@
 namespace OpsLvp.Core.Audit;
 
 /// <summary>
-/// One append-only audit entry (DESIGN R12). Built by <see cref="AuditChain.Append(AuditChainHead?, PendingAuditEntry)"/>, checked by
+/// One append-only audit entry (docs/engine.md R12). Built by <see cref="AuditChain.Append(AuditChainHead?, PendingAuditEntry)"/>, checked by
 /// <see cref="AuditChain.Verify"/>; the bytes that are hashed are defined by <see cref="AuditCanonical"/>
 /// and documented in docs/audit.md.
 /// </summary>

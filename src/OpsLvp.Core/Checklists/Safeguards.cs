@@ -3,15 +3,15 @@ using OpsLvp.Core.Engine;
 namespace OpsLvp.Core.Checklists;
 
 /// <summary>
-/// "Safeguards complete": every mandatory preparation item of the running episode is done. LVP are declared in
-/// force only once safeguarding is complete (DOMAIN.md §phases, from memory); until then an active phase is
-/// shown with the safeguards-incomplete alarm.
+/// "Safeguards complete": every mandatory preparation item of the running episode is done or marked not applicable.
+/// LVP are in force (phase active) only once safeguarding is complete (docs/engine.md R13; common practice: the
+/// aerodrome is safeguarded before LVP are declared in force); until then the phase is held at preparation.
 /// </summary>
 public static class Safeguards
 {
     /// <summary>
     /// True when an episode is running (<paramref name="episode"/> not null) and no mandatory preparation item of
-    /// it is open or closed-not-done. Optional items never block. An empty preparation checklist is complete.
+    /// it is open or closed-not-done (done and not applicable count). Optional items never block. An empty preparation checklist is complete.
     /// Only the latest instance of each item counts (an item re-opened after a re-instatement replaces the old one).
     /// </summary>
     public static bool AreComplete(Episode? episode, IEnumerable<ChecklistItemState> items)
@@ -20,7 +20,7 @@ public static class Safeguards
         return episode is not null && Outstanding(items).Count == 0;
     }
 
-    /// <summary>Ids of mandatory preparation items not done, in checklist order (latest instance of each item).</summary>
+    /// <summary>Ids of mandatory preparation items neither done nor marked not applicable, in checklist order (latest instance of each item).</summary>
     public static IReadOnlyList<string> Outstanding(IEnumerable<ChecklistItemState> items)
     {
         ArgumentNullException.ThrowIfNull(items);
@@ -38,6 +38,6 @@ public static class Safeguards
             }
             latest[item.ItemId] = item;
         }
-        return order.Where(id => latest[id] is { Mandatory: true, Status: not ItemStatus.Done }).ToList();
+        return order.Where(id => latest[id] is { Mandatory: true, Status: not (ItemStatus.Done or ItemStatus.NotApplicable) }).ToList();
     }
 }

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>Alarm causes (DESIGN §3 "Alarms").</summary>
+/// <summary>Alarm causes (docs/engine.md "Alarms").</summary>
 public enum AlarmKind
 {
     GoverningRvrUnknown,

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>One checklist item of the running episode (DESIGN R11).</summary>
+/// <summary>One checklist item of the running episode (docs/engine.md R11).</summary>
 /// <param name="ItemId">The profile's item id.</param>
 /// <param name="Phase">The checklist it belongs to.</param>
 /// <param name="Team">Owning team id.</param>

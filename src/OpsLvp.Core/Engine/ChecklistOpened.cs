@@ -1,4 +1,4 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>The checklist of <paramref name="Phase"/> opened with these item ids (DESIGN R11).</summary>
+/// <summary>The checklist of <paramref name="Phase"/> opened with these item ids (docs/engine.md R11).</summary>
 public sealed record ChecklistOpened(DateTimeOffset At, Phase Phase, IReadOnlyList<string> ItemIds) : EngineEvent(At);

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>The conditions of DESIGN R4/R5 whose continuous holding is timed by dwells.</summary>
+/// <summary>The conditions of docs/engine.md R4/R5 whose continuous holding is timed by dwells.</summary>
 public enum ConditionKind
 {
     /// <summary>Active condition (R4).</summary>

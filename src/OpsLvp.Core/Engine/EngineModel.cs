@@ -13,7 +13,7 @@ internal sealed record GoverningSensor(string SensorId, string RunwayId, string 
 /// <summary>What the engine derives once from a profile. Tolerates profiles the validator would refuse (never throws).</summary>
 internal sealed class EngineModel
 {
-    /// <summary>Maximum age used when the profile gives none for a kind (the RVR example of DESIGN R2).</summary>
+    /// <summary>Maximum age used when the profile gives none for a kind (the RVR example of docs/engine.md R2).</summary>
     public const int DefaultMaxAgeSeconds = 120;
 
     public EngineModel(AerodromeProfile profile)
@@ -75,7 +75,11 @@ internal sealed class EngineModel
             _dwell[(int)kind] = ComputeDwell(kind);
         }
         FutureSkew = TimeSpan.FromSeconds(Math.Max(0, profile.FutureSkewSeconds));
+        MandatoryPreparationIds = ItemsOf(Phase.Preparation).Where(i => i is not null && i.Mandatory && !string.IsNullOrEmpty(i.Id)).Select(i => i.Id).Distinct().ToArray();
     }
+
+    /// <summary>Ids of the profile's mandatory preparation items: the safeguards open before an episode starts (docs/engine.md R13).</summary>
+    public IReadOnlyList<string> MandatoryPreparationIds { get; }
 
     /// <summary>Every defined reading kind, in declaration order.</summary>
     public static readonly ReadingKind[] AllKinds = Enum.GetValues<ReadingKind>();
@@ -144,7 +148,7 @@ internal sealed class EngineModel
     private TimeSpan ComputeMaxAge(ReadingKind kind) =>
         TimeSpan.FromSeconds(Profile.MaxAgeSeconds.TryGetValue(kind, out var s) && s > 0 ? s : DefaultMaxAgeSeconds);
 
-    /// <summary>Fresh from the reading's time until (exclusive) time + the kind's maximum age (DESIGN R2).</summary>
+    /// <summary>Fresh from the reading's time until (exclusive) time + the kind's maximum age (docs/engine.md R2).</summary>
     public bool IsFresh(Reading reading, DateTimeOffset t) => t < reading.Time + MaxAge(reading.Kind);
 
     public IReadOnlyList<ChecklistItemConfig> ItemsOf(Phase phase) => phase switch
@@ -155,7 +159,7 @@ internal sealed class EngineModel
         _ => [],
     };
 
-    /// <summary>The dwell of a condition (DESIGN R7); negative profile values count as zero.</summary>
+    /// <summary>The dwell of a condition (docs/engine.md R7); negative profile values count as zero.</summary>
     public TimeSpan Dwell(ConditionKind kind) =>
         (uint)kind < (uint)_dwell.Length ? _dwell[(int)kind] : ComputeDwell(kind);
 

@@ -30,23 +30,29 @@ public sealed record EngineState
     /// <summary>Sensors an operator marked out of service.</summary>
     public ImmutableHashSet<string> OutOfService { get; init; } = ImmutableHashSet<string>.Empty;
 
-    /// <summary>Deterioration forecast flag (DESIGN R4).</summary>
+    /// <summary>Deterioration forecast flag (docs/engine.md R4).</summary>
     public bool DeteriorationForecast { get; init; }
 
-    /// <summary>A declared phase below which the engine does not relax automatically (DESIGN R9).</summary>
+    /// <summary>A declared phase below which the engine does not relax automatically (docs/engine.md R9).</summary>
     public Hold? Hold { get; init; }
 
-    /// <summary>Start instants of conditions that currently hold continuously (dwell timers, DESIGN R7).</summary>
+    /// <summary>Start instants of conditions that currently hold continuously (dwell timers, docs/engine.md R7).</summary>
     public ImmutableDictionary<ConditionKind, DateTimeOffset> HoldingSince { get; init; } = ImmutableDictionary<ConditionKind, DateTimeOffset>.Empty;
 
-    /// <summary>After a manual relaxation, escalation dwells are measured from no earlier than this (DESIGN R9).</summary>
+    /// <summary>After a manual relaxation, escalation dwells are measured from no earlier than this (docs/engine.md R9).</summary>
     public DateTimeOffset? EscalationMeasuredFrom { get; init; }
 
-    /// <summary>A transition waiting for a duty manager's confirmation (DESIGN R10).</summary>
+    /// <summary>A transition waiting for a duty manager's confirmation (docs/engine.md R10).</summary>
     public PendingTransition? Pending { get; init; }
 
-    /// <summary>Checklist items of the running episode, open and closed (DESIGN R11).</summary>
+    /// <summary>Checklist items of the running episode, open and closed (docs/engine.md R11).</summary>
     public ImmutableList<ChecklistItemState> Items { get; init; } = ImmutableList<ChecklistItemState>.Empty;
+
+    /// <summary>Active declared while safeguards were open, with the duty manager's reason (docs/engine.md R13); null otherwise.</summary>
+    public SafeguardsOverride? SafeguardsOverride { get; init; }
+
+    /// <summary>The last manual relaxation made against the conditions, until they agree (docs/engine.md R15); null otherwise.</summary>
+    public Relaxation? RelaxedAgainstConditions { get; init; }
 
     /// <summary>Alarms raised and not yet cleared (acknowledged ones included).</summary>
     public ImmutableList<Alarm> Alarms { get; init; } = ImmutableList<Alarm>.Empty;

@@ -5,7 +5,7 @@ namespace OpsLvp.Core.Engine;
 /// <summary>What a display shows at an instant (from <see cref="LvpEngine.Describe"/>); holds no decision logic of its own.</summary>
 /// <param name="GoverningRvr">Lowest fresh governing RVR, null when unknown.</param>
 /// <param name="Ceiling">Lowest fresh ceiling, null when unknown or when no ceilometer is configured.</param>
-/// <param name="CeilingConfigured">False for an aerodrome without ceilometers (ceiling left out, DESIGN R5).</param>
+/// <param name="CeilingConfigured">False for an aerodrome without ceilometers (ceiling left out, docs/engine.md R5).</param>
 /// <param name="Runways">Per LVP runway, the RVR at TDZ/MID/END for the direction in use.</param>
 /// <param name="Thresholds">The thresholds in effect.</param>
 /// <param name="Waiting">What the engine is waiting for, as data and text.</param>
@@ -13,9 +13,9 @@ namespace OpsLvp.Core.Engine;
 /// <param name="Phase">The current phase.</param>
 /// <param name="PhaseSince">When it was entered.</param>
 /// <param name="Episode">The running episode, null in normal.</param>
-/// <param name="DeteriorationForecast">The forecast flag (DESIGN R4).</param>
-/// <param name="Hold">The declared hold, if any (DESIGN R9).</param>
-/// <param name="Pending">The pending transition, if any (DESIGN R10).</param>
+/// <param name="DeteriorationForecast">The forecast flag (docs/engine.md R4).</param>
+/// <param name="Hold">The declared hold, if any (docs/engine.md R9).</param>
+/// <param name="Pending">The pending transition, if any (docs/engine.md R10).</param>
 /// <param name="Alarms">Raised alarms, acknowledged ones included.</param>
 public sealed record EngineStatus(
     DateTimeOffset At,
@@ -39,6 +39,18 @@ public sealed record EngineStatus(
     /// </summary>
     public bool SafeguardsComplete { get; init; }
 
-    /// <summary>Mandatory preparation items not yet done (ids), empty when complete or in normal.</summary>
+    /// <summary>Mandatory preparation items neither done nor marked not applicable (ids), empty when complete or in normal.</summary>
     public IReadOnlyList<string> SafeguardsOutstanding { get; init; } = [];
+
+    /// <summary>
+    /// The active condition has held its dwell but open safeguards keep the phase at preparation (docs/engine.md R13):
+    /// screens say <see cref="LvpEngine.SafeguardsIncompleteHeadline"/> with <see cref="SafeguardsOutstanding"/>.
+    /// </summary>
+    public bool ConditionsMetSafeguardsIncomplete { get; init; }
+
+    /// <summary>Active declared over open safeguards (docs/engine.md R13), shown while the phase is active; else null.</summary>
+    public SafeguardsOverride? SafeguardsOverride { get; init; }
+
+    /// <summary>A manual relaxation against the conditions, shown beside the phase until they agree (docs/engine.md R15); else null.</summary>
+    public Relaxation? RelaxedAgainstConditions { get; init; }
 }

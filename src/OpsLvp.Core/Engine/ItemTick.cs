@@ -1,4 +1,4 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>A tick: user, team, time and an optional note (DESIGN R11).</summary>
+/// <summary>A tick: user, team, time and an optional note (docs/engine.md R11).</summary>
 public sealed record ItemTick(string User, string Team, DateTimeOffset At, string? Note);

@@ -66,27 +66,13 @@ public sealed partial class LvpEngine
 
         private string? Tick(TickItem c, DateTimeOffset now)
         {
-            if (c.ItemId is null || !_model.ItemConfigs.TryGetValue(c.ItemId, out var config))
+            if (OpenForAction(c.ItemId) is not { } item)
             {
-                return $"unknown item '{c.ItemId}'";
+                return NotOpen(c.ItemId);
             }
-            if (c.Team != config.Item.Team)
+            if (OpenPrerequisites(c.ItemId) is { Count: > 0 } before)
             {
-                return $"item {c.ItemId} belongs to team {config.Item.Team}, not {c.Team}";
-            }
-            var item = Current(State.Items, c.ItemId);
-            switch (item?.Status)
-            {
-                case null:
-                    return $"item {c.ItemId} is not open: its {Fmt.Name(config.Phase)} checklist has not been opened";
-                case ItemStatus.Done:
-                    return $"item {c.ItemId} already done by {item.Tick!.User} at {Fmt.Time(item.Tick.At)}";
-                case ItemStatus.ClosedNotDone:
-                    return $"item {c.ItemId} is closed: its episode ended";
-                case ItemStatus.Voided:
-                    return $"item {c.ItemId} was voided by re-instatement";
-                default:
-                    break;
+                return $"item {c.ItemId} comes after {string.Join(", ", before)}, still open";
             }
             var tick = new ItemTick(c.Actor, c.Team, now, string.IsNullOrWhiteSpace(c.Note) ? null : c.Note);
             State = State with { Items = State.Items.Replace(item, item with { Status = ItemStatus.Done, Tick = tick }) };
@@ -94,18 +80,62 @@ public sealed partial class LvpEngine
             return null;
         }
 
+        /// <summary>Marks an open item not applicable (R13): it counts as done; undone like a tick.</summary>
+        private string? MarkNotApplicable(MarkNotApplicable c, DateTimeOffset now)
+        {
+            if (OpenForAction(c.ItemId) is not { } item)
+            {
+                return NotOpen(c.ItemId);
+            }
+            var mark = new ItemTick(c.Actor, item.Team, now, c.Reason);
+            State = State with { Items = State.Items.Replace(item, item with { Status = ItemStatus.NotApplicable, Tick = mark }) };
+            Events.Add(new ItemMarkedNotApplicable(now, c.ItemId, c.Actor, c.Reason));
+            return null;
+        }
+
+        /// <summary>The current instance of the item when it is open; null otherwise (see <see cref="NotOpen"/>).</summary>
+        private ChecklistItemState? OpenForAction(string itemId) =>
+            Current(State.Items, itemId) is { Status: ItemStatus.Open } item ? item : null;
+
+        /// <summary>Why an item cannot be ticked or marked: it is not open.</summary>
+        private string NotOpen(string itemId)
+        {
+            var item = Current(State.Items, itemId);
+            return item?.Status switch
+            {
+                null => _model.ItemConfigs.TryGetValue(itemId, out var config)
+                    ? $"item {itemId} is not open: its {Fmt.Name(config.Phase)} checklist has not been opened"
+                    : $"unknown item '{itemId}'",
+                ItemStatus.Done => $"item {itemId} already done by {item.Tick!.User} at {Fmt.Time(item.Tick.At)}",
+                ItemStatus.NotApplicable => $"item {itemId} already marked not applicable by {item.Tick!.User} at {Fmt.Time(item.Tick.At)}",
+                ItemStatus.ClosedNotDone => $"item {itemId} is closed: its episode ended",
+                ItemStatus.Voided => $"item {itemId} was voided by re-instatement",
+                _ => $"item {itemId} is not open",
+            };
+        }
+
+        /// <summary>Prerequisites of an item (profile <c>after</c>, R16) whose current instance is neither done nor not applicable.</summary>
+        private List<string> OpenPrerequisites(string itemId)
+        {
+            var open = new List<string>();
+            if (!_model.ItemConfigs.TryGetValue(itemId, out var config) || config.Item.After is not { Count: > 0 } after)
+            {
+                return open;
+            }
+            foreach (var id in after)
+            {
+                if (id is not null && Current(State.Items, id) is not { Status: ItemStatus.Done or ItemStatus.NotApplicable })
+                {
+                    open.Add(id);
+                }
+            }
+            return open;
+        }
+
         private string? Untick(UntickItem c, DateTimeOffset now)
         {
-            if (c.ItemId is null || !_model.ItemConfigs.ContainsKey(c.ItemId))
-            {
-                return $"unknown item '{c.ItemId}'";
-            }
-            if (Blank(c.Reason))
-            {
-                return "a reason is required to undo a tick";
-            }
             var item = Current(State.Items, c.ItemId);
-            if (item is not { Status: ItemStatus.Done, Tick: { } tick })
+            if (item is not { Status: ItemStatus.Done or ItemStatus.NotApplicable, Tick: { } tick })
             {
                 return $"item {c.ItemId} is not done";
             }

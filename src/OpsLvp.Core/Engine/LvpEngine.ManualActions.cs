@@ -23,6 +23,10 @@ public sealed partial class LvpEngine
             {
                 return "actor is blank";
             }
+            if (CommandPreconditions.Check(command, _model.Profile) is { } incomplete)
+            {
+                return incomplete;
+            }
             switch (command)
             {
                 case DeclarePhase c:
@@ -30,10 +34,6 @@ public sealed partial class LvpEngine
                 case CancelLvp c:
                     return Cancel(c, now);
                 case ReleaseHold c:
-                    if (Blank(c.Reason))
-                    {
-                        return "a reason is required to release a hold";
-                    }
                     if (State.Hold is not { } hold)
                     {
                         return "no hold to release";
@@ -42,10 +42,6 @@ public sealed partial class LvpEngine
                     Applied(now, c.Actor, "release_hold", $"released hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}", c.Reason);
                     return null;
                 case SetForecast c:
-                    if (Blank(c.Reason))
-                    {
-                        return "a reason is required to set or clear the forecast";
-                    }
                     if (State.DeteriorationForecast == c.On)
                     {
                         return $"deterioration forecast is already {(c.On ? "on" : "off")}";
@@ -54,14 +50,6 @@ public sealed partial class LvpEngine
                     Applied(now, c.Actor, "forecast", $"deterioration forecast {(c.On ? "on" : "off")}", c.Reason);
                     return null;
                 case SetSensorService c:
-                    if (Blank(c.Reason))
-                    {
-                        return "a reason is required to change a sensor's service state";
-                    }
-                    if (c.SensorId is null || !_model.Sensors.ContainsKey(c.SensorId))
-                    {
-                        return $"unknown sensor '{c.SensorId}'";
-                    }
                     if (State.OutOfService.Contains(c.SensorId) != c.InService)
                     {
                         return $"sensor {c.SensorId} is already {(c.InService ? "in service" : "out of service")}";
@@ -81,6 +69,8 @@ public sealed partial class LvpEngine
                     return Tick(c, now);
                 case UntickItem c:
                     return Untick(c, now);
+                case MarkNotApplicable c:
+                    return MarkNotApplicable(c, now);
                 case AcknowledgeAlarm c:
                     var alarm = State.Alarms.FirstOrDefault(a => a.Key == c.AlarmKey);
                     if (alarm is null)
@@ -99,34 +89,40 @@ public sealed partial class LvpEngine
             }
         }
 
-        private static bool Blank(string? s) => string.IsNullOrWhiteSpace(s);
+        /// <summary>Whether the recovery condition (without its dwell) of <paramref name="from"/> holds (R5).</summary>
+        private static bool RecoveryHolds(Phase from, Situation sit) =>
+            from == Phase.Active ? sit.RecoveryFromActive : sit.RecoveryFromPreparation;
 
         private string? Declare(DeclarePhase c, DateTimeOffset now)
         {
-            if (c.Phase is not (Phase.Preparation or Phase.Active))
+            var enters = c.Phase == Phase.Active ? State.Phase != Phase.Active : State.Phase == Phase.Normal;
+            var open = enters && c.Phase == Phase.Active && _model.Profile.InForceNeedsSafeguards ? OpenSafeguards() : [];
+            if (open.Count > 0 && c.SafeguardsOverride is null)
             {
-                return $"only preparation or active can be declared, not {Fmt.Name(c.Phase)}";
-            }
-            if (Blank(c.Reason))
-            {
-                return "a reason is required to declare a phase";
+                return $"safeguards incomplete: {string.Join(", ", open)} open; declare active with an override reason to enter it anyway";
             }
             State = State with { Hold = new Hold(c.Phase, c.Actor, c.Reason, now) };
             Applied(now, c.Actor, "declare", $"declared {Fmt.Name(c.Phase)} (hold)", c.Reason);
-            var enters = c.Phase == Phase.Active ? State.Phase != Phase.Active : State.Phase == Phase.Normal;
+            var reason = $"declared by {c.Actor}: {c.Reason}";
+            if (open.Count > 0 && c.SafeguardsOverride is { } why)
+            {
+                Applied(now, c.Actor, "override_safeguards", $"active declared with safeguards open: {string.Join(", ", open)}", why);
+                reason += $"; safeguards overridden ({string.Join(", ", open)} open): {why}";
+            }
             if (enters)
             {
-                Transition(c.Phase, TransitionBy.Manual, c.Actor, $"declared by {c.Actor}: {c.Reason}", Situate(_model, State, now), null, now);
+                Transition(c.Phase, TransitionBy.Manual, c.Actor, reason, Situate(_model, State, now), null, now);
+            }
+            if (open.Count > 0 && c.SafeguardsOverride is { } overrideReason)
+            {
+                // after the transition: entering active from normal starts the episode the record belongs to
+                State = State with { SafeguardsOverride = new SafeguardsOverride(c.Actor, overrideReason, now, open.ToArray()) };
             }
             return null;
         }
 
         private string? Cancel(CancelLvp c, DateTimeOffset now)
         {
-            if (Blank(c.Reason))
-            {
-                return "a reason is required to cancel";
-            }
             Phase to;
             switch (State.Phase)
             {
@@ -146,8 +142,15 @@ public sealed partial class LvpEngine
                 State = State with { Hold = null };
             }
             State = State with { EscalationMeasuredFrom = now };
-            Applied(now, c.Actor, "cancel", $"cancelled {Fmt.Name(State.Phase)}", c.Reason);
-            Transition(to, TransitionBy.Manual, c.Actor, $"cancelled by {c.Actor}: {c.Reason}", Situate(_model, State, now), null, now);
+            var from = State.Phase;
+            var sit = Situate(_model, State, now);
+            Applied(now, c.Actor, "cancel", $"cancelled {Fmt.Name(from)}", c.Reason);
+            Transition(to, TransitionBy.Manual, c.Actor, $"cancelled by {c.Actor}: {c.Reason}", sit, null, now);
+            if (!RecoveryHolds(from, sit))
+            {
+                // against the conditions (R15): recorded until the recovery condition of the phase left holds
+                State = State with { RelaxedAgainstConditions = new Relaxation(c.Actor, from, to, now, c.Reason) };
+            }
             return null;
         }
     }

@@ -1,3 +1,4 @@
+using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
 
 namespace OpsLvp.Core.Engine;
@@ -12,6 +13,10 @@ public sealed partial class LvpEngine
             {
                 var sit = SituateNow(t);
                 UpdateHolding(sit, t);
+                if (State.RelaxedAgainstConditions is { } relaxed && RecoveryHolds(relaxed.From, sit))
+                {
+                    State = State with { RelaxedAgainstConditions = null };
+                }
                 var desired = Desired(sit, t);
                 if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
                 {
@@ -19,7 +24,9 @@ public sealed partial class LvpEngine
                         ? $"superseded: {Fmt.Name(pending.From)} -> {Fmt.Name(other.To)} is due instead"
                         : State.Hold is { } hold && Severity(pending.To) < Severity(hold.Phase)
                             ? $"hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}"
-                            : "condition no longer holds";
+                            : pending.To == Phase.Active && DwellDone(ConditionKind.Active, t)
+                                ? SafeguardsIncompleteText()
+                                : "condition no longer holds";
                     Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, why));
                     State = State with { Pending = null };
                 }
@@ -29,6 +36,12 @@ public sealed partial class LvpEngine
                 }
                 if (_model.NeedsConfirmation(State.Phase, d.To))
                 {
+                    if (State.Phase == Phase.Normal && d.To == Phase.Active && !_model.NeedsConfirmation(Phase.Normal, Phase.Preparation))
+                    {
+                        // never a calmer screen than the conditions (R14): preparation needs no confirmation, so it is entered now
+                        Transition(Phase.Preparation, TransitionBy.Auto, null, $"{d.Reason}; normal -> active needs confirmation", sit, null, t);
+                        continue;
+                    }
                     if (State.Pending is null)
                     {
                         var snapshot = Snapshot(sit);
@@ -41,6 +54,15 @@ public sealed partial class LvpEngine
             }
             ReconcileAlarms(SituateNow(t), t);
         }
+
+        /// <summary>Safeguards still open: mandatory preparation items neither done nor not applicable; before an episode, all of them (R13).</summary>
+        private IReadOnlyList<string> OpenSafeguards() =>
+            State.Episode is null ? _model.MandatoryPreparationIds : Safeguards.Outstanding(State.Items);
+
+        /// <summary>Whether open safeguards keep the phase below active (R13; off when the profile says so).</summary>
+        private bool SafeguardsBlockInForce() => _model.Profile.InForceNeedsSafeguards && OpenSafeguards().Count > 0;
+
+        private string SafeguardsIncompleteText() => $"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(", ", OpenSafeguards())} open";
 
         private bool HoldAtLeast(Phase phase) => State.Hold is { } h && Severity(h.Phase) >= Severity(phase);
 
@@ -59,7 +81,9 @@ public sealed partial class LvpEngine
                 case Phase.Normal:
                     if (DwellDone(ConditionKind.Active, t))
                     {
-                        return (Phase.Active, ActiveReason(sit));
+                        return SafeguardsBlockInForce()
+                            ? (Phase.Preparation, $"{ActiveReason(sit)}; {SafeguardsIncompleteText()}")
+                            : (Phase.Active, ActiveReason(sit));
                     }
                     if (DwellDone(ConditionKind.Preparation, t))
                     {
@@ -69,7 +93,8 @@ public sealed partial class LvpEngine
                 case Phase.Preparation:
                     if (DwellDone(ConditionKind.Active, t))
                     {
-                        return (Phase.Active, ActiveReason(sit));
+                        // held here while safeguards are open (R13): the last one done makes the transition due
+                        return SafeguardsBlockInForce() ? null : (Phase.Active, ActiveReason(sit));
                     }
                     if (DwellDone(ConditionKind.RecoveryFromPreparation, t) && !HoldAtLeast(Phase.Preparation))
                     {
@@ -85,7 +110,9 @@ public sealed partial class LvpEngine
                 case Phase.Cancellation:
                     if (DwellDone(ConditionKind.Active, t))
                     {
-                        return (Phase.Active, "re-instated: " + ActiveReason(sit));
+                        return SafeguardsBlockInForce()
+                            ? (Phase.Preparation, $"re-instated: {ActiveReason(sit)}; {SafeguardsIncompleteText()}")
+                            : (Phase.Active, "re-instated: " + ActiveReason(sit));
                     }
                     if (!State.Items.Any(i => i.Phase == Phase.Cancellation && i.Mandatory && i.Status == ItemStatus.Open))
                     {
@@ -171,6 +198,15 @@ public sealed partial class LvpEngine
                 Events.Add(new EpisodeStarted(t, id));
             }
             State = State with { Phase = to, PhaseSince = t, Pending = null };
+            if (from == Phase.Active && State.SafeguardsOverride is not null)
+            {
+                State = State with { SafeguardsOverride = null };
+            }
+            if (State.RelaxedAgainstConditions is { } relaxed && Severity(to) >= Severity(relaxed.From))
+            {
+                // the phase is back where the relaxation left it: phase and conditions agree again (R15)
+                State = State with { RelaxedAgainstConditions = null };
+            }
             if (State.Episode is { } episode && Severity(to) > Severity(episode.DeepestPhase))
             {
                 State = State with { Episode = episode with { DeepestPhase = to } };
@@ -178,6 +214,11 @@ public sealed partial class LvpEngine
             switch (to)
             {
                 case Phase.Preparation:
+                    if (from == Phase.Cancellation && DwellDone(ConditionKind.Active, t))
+                    {
+                        // re-instated while safeguards are open (R13): withdrawal stops as it would on entering active
+                        CloseOpenItems(i => i.Phase == Phase.Cancellation, ItemStatus.Voided, t);
+                    }
                     OpenItems(Phase.Preparation, t);
                     break;
                 case Phase.Active:

@@ -4,24 +4,28 @@ using OpsLvp.Core.Profile;
 namespace OpsLvp.Core.Engine;
 
 /// <summary>
-/// The LVP engine of DESIGN §3 (R1–R11) as a pure function (state, inputs, now) → (state, events): no clock,
+/// The LVP engine of docs/engine.md (R1–R17) as a pure function (state, inputs, now) → (state, events): no clock,
 /// no I/O, the same in live runs and replays. Time semantics:
 /// <list type="bullet">
 /// <item>A reading is fresh from its time until, exclusive, time + the kind's maximum age (profile; 120 s when
 /// the profile gives none). A condition that depends on it starts holding when the reading is applied (its
 /// arrival, <c>now</c>), and stops at the stale instant.</item>
-/// <item>Between <see cref="EngineState.EvaluatedAt"/> and <c>now</c> the engine steps through every critical
-/// instant (dwell completions, readings going stale, items falling due) in time order and stamps events with
-/// that exact instant (R7), so one evaluation at the end gives the events of evaluating every second.</item>
-/// <item>Then the inputs are applied in order at <c>now</c> (consecutive readings as one batch, commands one by
-/// one, each followed by a re-evaluation at <c>now</c>). A <c>now</c> earlier than the state's instant is
-/// treated as the state's instant.</item>
+/// <item>Between <see cref="EngineState.EvaluatedAt"/> and <c>now</c> (exclusive) the engine steps through every
+/// critical instant (dwell completions, readings going stale, items falling due) in time order and stamps events
+/// with that exact instant (docs/engine.md R7), so one evaluation at the end gives the events of evaluating every second.</item>
+/// <item>Then the inputs are applied in order at <c>now</c> before <c>now</c> is judged (R17): readings first as one
+/// batch, each command seeing the state at <c>now</c> with the inputs before it; a reading arriving at the instant
+/// the previous one goes stale therefore leaves no gap. A <c>now</c> earlier than the state's instant is treated as
+/// the state's instant.</item>
 /// </list>
 /// Entry conditions are strict (value &lt; below), recovery inclusive (value ≥ recover); unknown inputs can
 /// escalate on what is known and never relax (R5).
 /// </summary>
 public sealed partial class LvpEngine(AerodromeProfile profile)
 {
+    /// <summary>What every screen says while the active condition holds and safeguards are open (docs/engine.md R13).</summary>
+    public const string SafeguardsIncompleteHeadline = "LVP conditions met — safeguards incomplete";
+
     private const int MaxTransitionsPerInstant = 8;
 
     private readonly EngineModel _model = new(profile);
@@ -60,29 +64,28 @@ public sealed partial class LvpEngine(AerodromeProfile profile)
         {
             now = start;
         }
-        run.Step(start);
+        if (now > start)
+        {
+            // start is final once time moves past it (its inputs came with earlier calls)
+            run.Step(start);
+        }
         var t = start;
-        // NextCriticalInstant looks in (t, now]: empty once t reaches now, so it is not asked then
-        while (t < now && run.NextCriticalInstant(t, now) is { } next)
+        // critical instants strictly before now; now itself is judged only after its inputs are applied (docs/engine.md R17)
+        while (t < now && run.NextCriticalInstant(t, now) is { } next && next < now)
         {
             run.Step(next);
             t = next;
         }
-        run.Step(now);
-        var pendingReadings = false;
         foreach (var input in inputs)
         {
             switch (input)
             {
                 case ReadingInput r:
-                    pendingReadings |= run.Accept(r.Reading, now);
+                    run.Accept(r.Reading, now);
                     break;
                 case EngineCommand c:
-                    if (pendingReadings)
-                    {
-                        run.Step(now);
-                        pendingReadings = false;
-                    }
+                    // the command sees the state at now with every input before it applied
+                    run.Step(now);
                     run.Apply(c, now);
                     run.Step(now);
                     break;

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>A transition the profile says needs confirmation (DESIGN R10).</summary>
+/// <summary>A transition the profile says needs confirmation (docs/engine.md R10).</summary>
 /// <param name="From">Phase it would leave.</param>
 /// <param name="To">Phase it would enter.</param>
 /// <param name="ConditionMetAt">When its condition completed its dwell (the proposal instant).</param>

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>LVP phases (DESIGN §3). Severity order: Normal &lt; Preparation &lt; Active; Cancellation withdraws measures.</summary>
+/// <summary>LVP phases (docs/engine.md). Severity order: Normal &lt; Preparation &lt; Active; Cancellation withdraws measures.</summary>
 public enum Phase
 {
     Normal,

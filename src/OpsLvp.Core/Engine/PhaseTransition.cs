@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>The phase changed (DESIGN R8–R10).</summary>
+/// <summary>The phase changed (docs/engine.md R8–R10).</summary>
 /// <param name="By">Auto on the conditions; manual on declare, cancel or confirmation.</param>
 /// <param name="Actor">The person for manual transitions; null for automatic ones.</param>
 /// <param name="Reason">Readable cause, e.g. "RVR 07 TDZ 500 m &lt; 550 m".</param>

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>The inputs and conditions of DESIGN R3–R5 at one instant.</summary>
+/// <summary>The inputs and conditions of docs/engine.md R3–R5 at one instant.</summary>
 internal sealed record Situation(
     DateTimeOffset At,
     double? RvrM,

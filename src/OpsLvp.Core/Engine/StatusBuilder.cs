@@ -49,8 +49,19 @@ internal static class StatusBuilder
         {
             SafeguardsComplete = Safeguards.AreComplete(state.Episode, state.Items),
             SafeguardsOutstanding = state.Episode is null ? [] : Safeguards.Outstanding(state.Items),
+            ConditionsMetSafeguardsIncomplete = HeldForSafeguards(model, state, now),
+            SafeguardsOverride = state.SafeguardsOverride,
+            RelaxedAgainstConditions = state.RelaxedAgainstConditions,
         };
     }
+
+    /// <summary>Preparation held below active by open safeguards while the active condition has held its dwell (R13).</summary>
+    internal static bool HeldForSafeguards(EngineModel model, EngineState state, DateTimeOffset now) =>
+        model.Profile.InForceNeedsSafeguards
+        && state.Phase == Phase.Preparation
+        && state.HoldingSince.TryGetValue(ConditionKind.Active, out var since)
+        && (state.EscalationMeasuredFrom is { } f && f > since ? f : since) + model.Dwell(ConditionKind.Active) <= now
+        && Safeguards.Outstanding(state.Items).Count > 0;
 
     private static List<WaitingFor> Waiting(EngineModel model, EngineState state, Situation sit, DateTimeOffset now)
     {
@@ -99,6 +110,11 @@ internal static class StatusBuilder
                 Dwell(ConditionKind.Preparation, WaitKind.EscalationDwell, "preparation condition");
                 break;
             case Phase.Preparation:
+                if (HeldForSafeguards(model, state, now))
+                {
+                    var safeguards = Safeguards.Outstanding(state.Items);
+                    waiting.Add(new WaitingFor(WaitKind.Safeguards, $"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(", ", safeguards)} open", null, null, safeguards));
+                }
                 Dwell(ConditionKind.Active, WaitKind.EscalationDwell, "active condition");
                 Dwell(ConditionKind.RecoveryFromPreparation, WaitKind.RecoveryDwell, "recovery from preparation");
                 Blocked();

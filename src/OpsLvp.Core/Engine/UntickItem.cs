@@ -1,4 +1,4 @@
 namespace OpsLvp.Core.Engine;
 
-/// <summary>Undo a tick; needs a reason (DESIGN R11).</summary>
+/// <summary>Undo a tick; needs a reason (docs/engine.md R11).</summary>
 public sealed record UntickItem(string Actor, string ItemId, string Reason) : EngineCommand(Actor);

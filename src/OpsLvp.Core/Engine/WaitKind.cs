@@ -15,4 +15,6 @@ public enum WaitKind
     RecoveryBlocked,
     /// <summary>A declared hold prevents automatic relaxation.</summary>
     Hold,
+    /// <summary>The active condition is met but these mandatory preparation items are open (docs/engine.md R13).</summary>
+    Safeguards,
 }

@@ -5,7 +5,7 @@ using OpsLvp.Core.Reporting;
 namespace OpsLvp.Core.Metar;
 
 /// <summary>
-/// The JSON form of a decoded report, DESIGN §4.1: <c>station, visibility_m, cavok, rvr[], clouds[],
+/// The JSON form of a decoded report, docs/cli.md: <c>station, visibility_m, cavok, rvr[], clouds[],
 /// vertical_visibility_ft, ceiling_ft, weather[]</c> in that order, then extra fields (type, time, cor, auto, nil,
 /// min_visibility_m, min_visibility_direction, ndv, sky_obscured, sky_condition, recent_weather, trend, remarks,
 /// unknown_groups). Codes are written as in the report (<c>"M"</c>, <c>"U"</c>, <c>"BKN"</c>, <c>"CB"</c>).

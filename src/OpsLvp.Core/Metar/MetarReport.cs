@@ -71,7 +71,7 @@ public sealed record MetarReport
 
     /// <summary>
     /// Ceiling: the base of <see cref="CeilingLayer"/>, or the vertical visibility, whichever is lower; null if neither
-    /// (DESIGN §4.1). Counting vertical visibility is local practice; use <see cref="FindCeiling"/> to leave it out.
+    /// (docs/cli.md). Counting vertical visibility is local practice; use <see cref="FindCeiling"/> to leave it out.
     /// </summary>
     public Feet? Ceiling => FindCeiling(countVerticalVisibility: true);
 

@@ -1,3 +1,4 @@
+using System.Text.Json.Serialization;
 using OpsLvp.Core.Readings;
 
 namespace OpsLvp.Core.Profile;
@@ -5,7 +6,7 @@ namespace OpsLvp.Core.Profile;
 /// <summary>
 /// The aerodrome's own LVP configuration: every threshold, dwell and checklist here is a local value
 /// set by the aerodrome's approved LVP instruction. Loaded from JSON by <see cref="ProfileLoader"/> and
-/// checked by <c>ProfileValidator</c> (DESIGN R6). Documented in docs/profile.md.
+/// checked by <c>ProfileValidator</c> (docs/engine.md R6). Documented in docs/profile.md.
 /// </summary>
 public sealed record AerodromeProfile
 {
@@ -22,22 +23,33 @@ public sealed record AerodromeProfile
 
     public LightsConfig Lights { get; init; } = new();
 
-    /// <summary>Maximum age of a reading per kind before it is stale (DESIGN R2).</summary>
+    /// <summary>Maximum age of a reading per kind before it is stale (docs/engine.md R2).</summary>
     public IReadOnlyDictionary<ReadingKind, int> MaxAgeSeconds { get; init; } = new Dictionary<ReadingKind, int>();
 
-    /// <summary>RVR positions whose readings govern the phase (DESIGN R3), e.g. TDZ, MID, END.</summary>
+    /// <summary>RVR positions whose readings govern the phase (docs/engine.md R3), e.g. TDZ, MID, END.</summary>
     public IReadOnlyList<RvrPosition> GoverningPositions { get; init; } = [RvrPosition.Tdz, RvrPosition.Mid, RvrPosition.End];
 
     /// <summary>Whether vertical visibility counts as ceiling (local practice; on by default).</summary>
     public bool VerticalVisibilityIsCeiling { get; init; } = true;
 
-    /// <summary>Allowed clock skew for readings timed in the future, seconds (DESIGN R1).</summary>
+    /// <summary>Allowed clock skew for readings timed in the future, seconds (docs/engine.md R1).</summary>
     public int FutureSkewSeconds { get; init; } = 5;
 
     public required ThresholdSet Thresholds { get; init; }
 
-    /// <summary>Transitions that need a duty manager's confirmation (DESIGN R10); the rest are automatic.</summary>
+    /// <summary>
+    /// Transitions that need a duty manager's confirmation (docs/engine.md R10); the rest are automatic. Required in
+    /// profile JSON (an empty list allowed) so each aerodrome decides explicitly.
+    /// </summary>
+    [JsonRequired]
     public IReadOnlyList<TransitionRule> Confirm { get; init; } = [];
+
+    /// <summary>
+    /// Whether LVP are in force (phase active) only once safeguards are complete: every mandatory preparation item
+    /// done or marked not applicable (docs/engine.md R13). Default true; false is a local choice that lets the active
+    /// condition alone enter active.
+    /// </summary>
+    public bool InForceNeedsSafeguards { get; init; } = true;
 
     public ChecklistSet Checklists { get; init; } = new();
 }

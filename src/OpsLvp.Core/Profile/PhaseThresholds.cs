@@ -1,7 +1,7 @@
 namespace OpsLvp.Core.Profile;
 
 /// <summary>
-/// Entry and recovery thresholds of one phase (DESIGN R4, R5, R7). A null RVR or ceiling pair leaves that
+/// Entry and recovery thresholds of one phase (docs/engine.md R4, R5, R7). A null RVR or ceiling pair leaves that
 /// input out of the phase's conditions. Entry is strict (value &lt; below); recovery is inclusive (value ≥ recover).
 /// </summary>
 public sealed record PhaseThresholds

@@ -5,13 +5,13 @@ using OpsLvp.Core.Readings;
 namespace OpsLvp.Core.Profile;
 
 /// <summary>
-/// Checks an <see cref="AerodromeProfile"/> before any engine uses it (DESIGN R6). Every problem is listed,
+/// Checks an <see cref="AerodromeProfile"/> before any engine uses it (docs/engine.md R6). Every problem is listed,
 /// each naming its field as a JSON path (<c>thresholds.active.rvrRecoverM</c>, <c>sensors[3].runway</c>) and
 /// saying what is expected. The rules are written out in docs/profile.md.
 /// </summary>
 public static class ProfileValidator
 {
-    /// <summary>The transitions DESIGN R8 defines; only these can be set to need confirmation (R10).</summary>
+    /// <summary>The transitions docs/engine.md R8 defines; only these can be set to need confirmation (R10).</summary>
     public static IReadOnlyList<TransitionRule> LegalTransitions { get; } =
     [
         new(Phase.Normal, Phase.Preparation),
@@ -246,7 +246,7 @@ public static class ProfileValidator
             if (!maxAges.ContainsKey(kind))
             {
                 var who = sensors.First(s => SensorKinds.Produced(s.Type).Contains(kind));
-                check.Add($"maxAgeSeconds.{Name(kind)}", $"is missing; sensor '{who.Id}' ({Name(who.Type)}) produces {Name(kind)} readings, so a maximum age in seconds > 0 is needed (DESIGN R2)");
+                check.Add($"maxAgeSeconds.{Name(kind)}", $"is missing; sensor '{who.Id}' ({Name(who.Type)}) produces {Name(kind)} readings, so a maximum age in seconds > 0 is needed (docs/engine.md R2)");
             }
         }
     }
@@ -319,7 +319,7 @@ public static class ProfileValidator
         }
         if (phase.RecoverDwellSeconds <= 0)
         {
-            check.Add($"{path}.recoverDwellSeconds", $"is {phase.RecoverDwellSeconds}; expected more than 0 seconds, so a single good reading cannot relax the phase (DESIGN R7)");
+            check.Add($"{path}.recoverDwellSeconds", $"is {phase.RecoverDwellSeconds}; expected more than 0 seconds, so a single good reading cannot relax the phase (docs/engine.md R7)");
         }
     }
 
@@ -380,12 +380,17 @@ public static class ProfileValidator
             var rule = confirm[i];
             if (!LegalTransitions.Contains(rule))
             {
-                check.Add($"confirm[{i}]", $"{Name(rule.From)} → {Name(rule.To)} is not a transition of DESIGN R8; expected one of {List(LegalTransitions.Select(t => $"{Name(t.From)}→{Name(t.To)}"))}");
+                check.Add($"confirm[{i}]", $"{Name(rule.From)} → {Name(rule.To)} is not a transition of docs/engine.md R8; expected one of {List(LegalTransitions.Select(t => $"{Name(t.From)}→{Name(t.To)}"))}");
             }
             else if (confirm.Take(i).Contains(rule))
             {
                 check.Add($"confirm[{i}]", $"duplicate rule {Name(rule.From)} → {Name(rule.To)}; expected each transition once");
             }
+        }
+        var normalToActive = confirm.ToList().FindIndex(r => r == new TransitionRule(Phase.Normal, Phase.Active));
+        if (normalToActive >= 0 && !confirm.Contains(new TransitionRule(Phase.Preparation, Phase.Active)))
+        {
+            check.Add($"confirm[{normalToActive}]", "normal → active needs confirmation but preparation → active does not; expected both, since entering active from normal passes through preparation (docs/engine.md R13, R14)");
         }
     }
 
@@ -400,6 +405,80 @@ public static class ProfileValidator
         CheckItems(check, "checklists.preparation", checklists.Preparation, teams, ids);
         CheckItems(check, "checklists.active", checklists.Active, teams, ids);
         CheckItems(check, "checklists.cancellation", checklists.Cancellation, teams, ids);
+        CheckAfter(check, "checklists.preparation", checklists.Preparation);
+        CheckAfter(check, "checklists.active", checklists.Active);
+        CheckAfter(check, "checklists.cancellation", checklists.Cancellation);
+    }
+
+    /// <summary>Prerequisites (docs/engine.md R16) name other items of the same checklist and form no cycle.</summary>
+    private static void CheckAfter(Checker check, string path, IReadOnlyList<ChecklistItemConfig> items)
+    {
+        var index = new Dictionary<string, int>(StringComparer.Ordinal);
+        for (var i = 0; i < items.Count; i++)
+        {
+            if (items[i] is { Id: { Length: > 0 } id })
+            {
+                index.TryAdd(id, i);
+            }
+        }
+        for (var i = 0; i < items.Count; i++)
+        {
+            if (items[i]?.After is not { } after)
+            {
+                continue;
+            }
+            for (var j = 0; j < after.Count; j++)
+            {
+                var field = $"{path}[{i}].after[{j}]";
+                if (string.IsNullOrWhiteSpace(after[j]))
+                {
+                    check.Add(field, "is blank; expected the id of another item of the same checklist");
+                }
+                else if (after[j] == items[i].Id)
+                {
+                    check.Add(field, $"item '{after[j]}' names itself; expected another item of the same checklist");
+                }
+                else if (!index.ContainsKey(after[j]))
+                {
+                    check.Add(field, $"unknown item '{after[j]}'; expected one of {List(index.Keys.Where(k => k != items[i].Id))}");
+                }
+            }
+        }
+        // a cycle: depth-first search over the references that resolved
+        var state = new int[items.Count];
+        bool Cycle(int i, List<string> trail)
+        {
+            state[i] = 1;
+            trail.Add(items[i].Id);
+            foreach (var next in items[i].After ?? [])
+            {
+                if (next is null || next == items[i].Id || !index.TryGetValue(next, out var j))
+                {
+                    continue;
+                }
+                if (state[j] == 1)
+                {
+                    trail.Add(next);
+                    return true;
+                }
+                if (state[j] == 0 && Cycle(j, trail))
+                {
+                    return true;
+                }
+            }
+            trail.RemoveAt(trail.Count - 1);
+            state[i] = 2;
+            return false;
+        }
+        for (var i = 0; i < items.Count; i++)
+        {
+            var trail = new List<string>();
+            if (items[i] is not null && state[i] == 0 && items[i].After is { Count: > 0 } && Cycle(i, trail))
+            {
+                check.Add($"{path}[{i}].after", $"prerequisites form a cycle ({string.Join(" → ", trail)}); expected an order that can be completed");
+                return;
+            }
+        }
     }
 
     private static void CheckItems(Checker check, string path, IReadOnlyList<ChecklistItemConfig> items, HashSet<string> teams, Dictionary<string, string> ids)

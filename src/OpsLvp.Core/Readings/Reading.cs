@@ -1,7 +1,7 @@
 namespace OpsLvp.Core.Readings;
 
 /// <summary>
-/// One sensor reading (DESIGN R1). <paramref name="Value"/> is in the unit of <paramref name="Kind"/>:
+/// One sensor reading (docs/engine.md R1). <paramref name="Value"/> is in the unit of <paramref name="Kind"/>:
 /// metres for RVR and visibility, feet for cloud base and vertical visibility, per km for extinction,
 /// 0..1 for transmittance, cd/m² for background luminance.
 /// </summary>

@@ -1,6 +1,6 @@
 namespace OpsLvp.Core.Readings;
 
-/// <summary>The sensor's own quality flag. Only <see cref="Ok"/> readings can reach the engine (DESIGN R1).</summary>
+/// <summary>The sensor's own quality flag. Only <see cref="Ok"/> readings can reach the engine (docs/engine.md R1).</summary>
 public enum ReadingStatus
 {
     Ok,

@@ -13,7 +13,7 @@ public enum RejectReason
     FutureDated,
     /// <summary>Same sensor, kind and time as a reading already taken.</summary>
     Duplicate,
-    /// <summary>Older than the sensor's latest reading: stored, ignored for state (DESIGN R2).</summary>
+    /// <summary>Older than the sensor's latest reading: stored, ignored for state (docs/engine.md R2).</summary>
     OlderThanLatest,
     /// <summary>The sensor is not in the aerodrome profile.</summary>
     UnknownSensor,

@@ -5,7 +5,7 @@ namespace OpsLvp.Core.Review;
 
 /// <summary>
 /// The people's commands that an episode's events record, as actions-file rows, so the episode can be replayed:
-/// ticks, unticks, confirmations, alarm acknowledgements and the manual actions of DESIGN R9 (declare, cancel,
+/// ticks, unticks, confirmations, alarm acknowledgements and the manual actions of docs/engine.md R9 (declare, cancel,
 /// release_hold, forecast, sensor_out, sensor_in). Refused commands are left out: they changed nothing.
 /// </summary>
 public static class RecordedCommands

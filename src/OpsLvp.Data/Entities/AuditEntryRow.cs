@@ -1,7 +1,7 @@
 namespace OpsLvp.Data.Entities;
 
 /// <summary>
-/// Row of <c>audit_entries</c> (DESIGN R12). <see cref="Time"/> is kept as the exact canonical text
+/// Row of <c>audit_entries</c> (docs/engine.md R12). <see cref="Time"/> is kept as the exact canonical text
 /// (<see cref="OpsLvp.Core.Audit.AuditCanonical.TimeFormat"/>) so that a tampered value is reported by verification
 /// instead of failing to load; the fixed width keeps text order equal to time order.
 /// </summary>

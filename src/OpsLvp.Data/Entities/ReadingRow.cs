@@ -1,6 +1,6 @@
 namespace OpsLvp.Data.Entities;
 
-/// <summary>Row of <c>readings</c>: every reading received, accepted or not (DESIGN R1).</summary>
+/// <summary>Row of <c>readings</c>: every reading received, accepted or not (docs/engine.md R1).</summary>
 public sealed class ReadingRow
 {
     public long Id { get; set; }

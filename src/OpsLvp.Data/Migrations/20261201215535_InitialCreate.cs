@@ -96,7 +96,7 @@ namespace OpsLvp.Data.Migrations
                 table: "readings",
                 columns: new[] { "sensor", "kind", "time" });
 
-            // Added by hand: the audit log is append-only (DESIGN R12). SQLite syntax; another provider needs its own.
+            // Added by hand: the audit log is append-only (docs/engine.md R12). SQLite syntax; another provider needs its own.
             migrationBuilder.Sql("CREATE TRIGGER audit_entries_no_update BEFORE UPDATE ON audit_entries BEGIN SELECT RAISE(ABORT, 'audit_entries is append-only'); END;");
             migrationBuilder.Sql("CREATE TRIGGER audit_entries_no_delete BEFORE DELETE ON audit_entries BEGIN SELECT RAISE(ABORT, 'audit_entries is append-only'); END;");
         }

@@ -8,7 +8,7 @@ using OpsLvp.Data.Entities;
 namespace OpsLvp.Data.Stores;
 
 /// <summary>
-/// The audit log in the database (DESIGN R12). Appends are serialised: within the process by a single-writer
+/// The audit log in the database (docs/engine.md R12). Appends are serialised: within the process by a single-writer
 /// lock, across processes by SQLite's write lock (the transaction begins IMMEDIATE) and, as a last guard, by the
 /// primary key on <c>sequence</c>. Each append reads the chain head, adds the entries and (if given) replaces the
 /// engine state row in one transaction, so after a crash the state and the chain never disagree.

@@ -1,4 +1,4 @@
 namespace OpsLvp.Data.Stores;
 
-/// <summary>An audit entry to append: the store adds sequence and hashes (DESIGN R12).</summary>
+/// <summary>An audit entry to append: the store adds sequence and hashes (docs/engine.md R12).</summary>
 public sealed record NewAuditEntry(string Actor, string Kind, string PayloadJson, DateTimeOffset Time);

@@ -3,7 +3,7 @@ using OpsLvp.Core.Readings;
 namespace OpsLvp.Data.Stores;
 
 /// <summary>
-/// A reading as received, for the <c>readings</c> table (every reading is kept, accepted or not; DESIGN R1).
+/// A reading as received, for the <c>readings</c> table (every reading is kept, accepted or not; docs/engine.md R1).
 /// Fields that could not be parsed are null (<see cref="Time"/>, <see cref="Value"/>, <see cref="Status"/>) or the
 /// raw text (<see cref="Kind"/>); an accepted reading has all of them and no reject reason.
 /// </summary>

@@ -3,7 +3,7 @@ using OpsLvp.Data.Stores;
 
 namespace OpsLvp.Web.Access;
 
-/// <summary>Appends access events (sign-in, failed sign-in, user and credential changes) to the audit chain (DESIGN R12).</summary>
+/// <summary>Appends access events (sign-in, failed sign-in, user and credential changes) to the audit chain (docs/engine.md R12).</summary>
 public sealed class AccessAudit(AuditStore store, TimeProvider clock)
 {
     public const string Anonymous = "anonymous";

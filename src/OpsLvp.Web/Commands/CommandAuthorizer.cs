@@ -23,6 +23,7 @@ public static class CommandAuthorizer
         [typeof(AcknowledgeAlarm)] = Set(Roles.DutyManager),
         [typeof(TickItem)] = Set(Roles.DutyManager, Roles.GroundStaff),
         [typeof(UntickItem)] = Set(Roles.DutyManager, Roles.GroundStaff),
+        [typeof(MarkNotApplicable)] = Set(Roles.DutyManager),
     };
 
     /// <summary>Null when <paramref name="caller"/> may run <paramref name="command"/>, else why not (readable).</summary>
@@ -60,11 +61,7 @@ public static class CommandAuthorizer
     }
 
     /// <summary>The owning team of a checklist item in the profile, or null when the item is unknown.</summary>
-    public static string? ItemTeam(AerodromeProfile profile, string? itemId) =>
-        itemId is null
-            ? null
-            : profile.Checklists.Preparation.Concat(profile.Checklists.Active).Concat(profile.Checklists.Cancellation)
-                .FirstOrDefault(i => i is not null && i.Id == itemId)?.Team;
+    public static string? ItemTeam(AerodromeProfile profile, string? itemId) => CommandPreconditions.ItemTeam(profile, itemId);
 
     private static string CommandName(EngineCommand command) => command switch
     {
@@ -77,6 +74,7 @@ public static class CommandAuthorizer
         AcknowledgeAlarm => "acknowledge alarms",
         TickItem => "tick items",
         UntickItem => "untick items",
+        MarkNotApplicable => "mark items not applicable",
         _ => "run " + command.GetType().Name,
     };
 

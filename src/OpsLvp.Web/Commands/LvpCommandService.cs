@@ -10,7 +10,7 @@ namespace OpsLvp.Web.Commands;
 /// </summary>
 public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandService> logger) : ILvpCommandService
 {
-    /// <summary>Told to the user when the audit entry could not be committed (DESIGN R12).</summary>
+    /// <summary>Told to the user when the audit entry could not be committed (docs/engine.md R12).</summary>
     public const string NotRecordedMessage = "not applied: audit could not be recorded";
 
     public async Task<CommandOutcome> ExecuteAsync(CommandCaller caller, EngineCommand command, CancellationToken cancellationToken = default)
@@ -25,11 +25,11 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
         {
             return new CommandOutcome(CommandOutcomeKind.Refused, denied);
         }
-        if (Validate(command, profile) is { } invalid)
+        var named = WithActor(command, caller.Name, profile);
+        if (Validate(named, profile) is { } invalid)
         {
             return new CommandOutcome(CommandOutcomeKind.Refused, invalid);
         }
-        var named = WithActor(command, caller.Name, profile);
         var outcome = await host.ExecuteAsync(named, cancellationToken);
         if (!outcome.Committed)
         {
@@ -46,27 +46,11 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
         return new CommandOutcome(CommandOutcomeKind.Applied, Describe(named), entry?.Sequence);
     }
 
-    /// <summary>Null when the input is complete and names known things; else what is wrong.</summary>
-    public static string? Validate(EngineCommand command, AerodromeProfile profile)
-    {
-        static bool Blank(string? s) => string.IsNullOrWhiteSpace(s);
-        return command switch
-        {
-            DeclarePhase d when d.Phase is not (Phase.Preparation or Phase.Active) => "only preparation or active can be declared",
-            DeclarePhase d when Blank(d.Reason) => "a reason is required to declare a phase",
-            CancelLvp c when Blank(c.Reason) => "a reason is required to cancel LVP",
-            ReleaseHold r when Blank(r.Reason) => "a reason is required to release a hold",
-            SetForecast f when Blank(f.Reason) => "a reason is required to set or clear the forecast",
-            SetSensorService s when Blank(s.SensorId) || !profile.Sensors.Any(x => x?.Id == s.SensorId) => $"unknown sensor '{s.SensorId}'",
-            SetSensorService s when Blank(s.Reason) => "a reason is required to change a sensor's service state",
-            AcknowledgeAlarm a when Blank(a.AlarmKey) => "no alarm named",
-            TickItem t when CommandAuthorizer.ItemTeam(profile, t.ItemId) is null => $"unknown checklist item '{t.ItemId}'",
-            TickItem t when !Blank(t.Team) && !profile.Teams.Any(x => x?.Id == t.Team) => $"unknown team '{t.Team}'",
-            UntickItem u when CommandAuthorizer.ItemTeam(profile, u.ItemId) is null => $"unknown checklist item '{u.ItemId}'",
-            UntickItem u when Blank(u.Reason) => "a reason is required to undo a tick",
-            _ => null,
-        };
-    }
+    /// <summary>
+    /// Null when the input is complete and names known things; else what is wrong, in the engine's words
+    /// (<see cref="CommandPreconditions"/>, the one place these rules live).
+    /// </summary>
+    public static string? Validate(EngineCommand command, AerodromeProfile profile) => CommandPreconditions.Check(command, profile);
 
     private static EngineCommand WithActor(EngineCommand command, string actor, AerodromeProfile profile) => command switch
     {
@@ -77,6 +61,7 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
 
     private static string Describe(EngineCommand command) => command switch
     {
+        DeclarePhase { SafeguardsOverride: not null } d => $"{d.Phase.ToString().ToLowerInvariant()} declared over open safeguards",
         DeclarePhase d => $"{d.Phase.ToString().ToLowerInvariant()} declared",
         CancelLvp => "LVP cancelled",
         ReleaseHold => "hold released",
@@ -86,6 +71,7 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
         AcknowledgeAlarm a => $"alarm {a.AlarmKey} acknowledged",
         TickItem t => $"item {t.ItemId} done",
         UntickItem u => $"tick on {u.ItemId} undone",
+        MarkNotApplicable n => $"item {n.ItemId} marked not applicable",
         _ => "applied",
     };
 }

@@ -6,7 +6,7 @@ using OpsLvp.Data.Stores;
 namespace OpsLvp.Web.Engine;
 
 /// <summary>
-/// Which engine events become audit entries (DESIGN R12) and how: kind = the replay event name
+/// Which engine events become audit entries (docs/engine.md R12) and how: kind = the replay event name
 /// (<see cref="EventJson.Name"/>), payload = its JSON line, actor = the person for commands and manual
 /// actions, <see cref="EngineActor"/> otherwise. Accepted and rejected readings are not audited one by one:
 /// they are kept in the readings table with their reject reason.
@@ -24,6 +24,7 @@ public static class AuditEvents
         TransitionConfirmed c => c.Actor,
         ItemTicked t => t.Tick.User,
         ItemUnticked u => u.Actor,
+        ItemMarkedNotApplicable n => n.Actor,
         AlarmAcknowledged a => a.Actor,
         ManualActionApplied m => m.Actor,
         CommandRefused c => c.Command.Actor,

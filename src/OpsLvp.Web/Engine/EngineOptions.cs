@@ -11,7 +11,7 @@ public sealed class EngineOptions
     /// <summary>Aerodrome profile JSON; relative paths are looked up from the content root upwards.</summary>
     public string ProfilePath { get; set; } = "seed-demo/profile.json";
 
-    /// <summary>Real time between evaluations when no reading arrives (at most 1 s, DESIGN R7 "live within 1 s").</summary>
+    /// <summary>Real time between evaluations when no reading arrives (at most 1 s, docs/engine.md R7 "live within 1 s").</summary>
     public TimeSpan TickInterval { get; set; } = TimeSpan.FromMilliseconds(500);
 
     /// <summary>

@@ -14,7 +14,7 @@ using OpsLvp.Web.Time;
 namespace OpsLvp.Web.Engine;
 
 /// <summary>
-/// The live heart of the server (DESIGN §2, R7, R12). At start: migrate and check the database, load the validated
+/// The live heart of the server (DEVELOPERS.md "Data flow"; docs/engine.md R7, R12). At start: migrate and check the database, load the validated
 /// profile, restore the persisted engine state (restart recovery: phase, episode, holds, pending, items and running
 /// dwells, which are start instants), and evaluate at "now" so dwells that completed while the server was down fire
 /// at their exact instants. Then it evaluates on every reading batch and on a tick, one evaluation at a time.

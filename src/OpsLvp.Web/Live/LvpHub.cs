@@ -3,7 +3,7 @@ using Microsoft.AspNetCore.SignalR;
 namespace OpsLvp.Web.Live;
 
 /// <summary>
-/// Hub <c>/hubs/lvp</c> (DESIGN §4.2): server → client <c>state</c> with the <see cref="LiveSnapshot"/> on every
+/// Hub <c>/hubs/lvp</c> (DEVELOPERS.md "Data flow"): server → client <c>state</c> with the <see cref="LiveSnapshot"/> on every
 /// change, and the current one on connect. Clients only listen. Who may connect is set in one place:
 /// <see cref="LiveApi.HubPolicy"/>.
 /// </summary>

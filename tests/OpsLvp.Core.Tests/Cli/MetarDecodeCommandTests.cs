@@ -3,7 +3,7 @@ using OpsLvp.Cli;
 
 namespace OpsLvp.Core.Tests.Cli;
 
-/// <summary><c>opslvp metar decode</c> run in-process through <see cref="CliApp.Run"/> (DESIGN §4.1). Reports are invented.</summary>
+/// <summary><c>opslvp metar decode</c> run in-process through <see cref="CliApp.Run"/> (docs/cli.md). Reports are invented.</summary>
 public sealed class MetarDecodeCommandTests
 {
     private static (int Code, string Stdout, string Stderr) Run(params string[] args)

@@ -86,7 +86,7 @@ public sealed class RvrCommandTests
     {
         var json = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--period", "night");
 
-        // DESIGN §4.1
+        // docs/cli.md
         Assert.Equal(["mor_m", "lights_m", "object_m", "rvr_m", "report"], json.EnumerateObject().Select(p => p.Name).ToArray());
     }
 

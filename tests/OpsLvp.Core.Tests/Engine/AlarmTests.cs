@@ -3,7 +3,7 @@ using static OpsLvp.Core.Tests.Engine.EngineDriver;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN §3 "Alarms": raised on cause, cleared automatically when it ends, acknowledged by command.</summary>
+/// <summary>docs/engine.md "Alarms": raised on cause, cleared automatically when it ends, acknowledged by command.</summary>
 public class AlarmTests
 {
     [Fact]

@@ -3,7 +3,7 @@ using OpsLvp.Core.Engine;
 namespace OpsLvp.Core.Tests.Engine;
 
 /// <summary>
-/// DESIGN R8, R11 beyond <see cref="ChecklistTests"/>: items across direct escalation and re-instatement, the
+/// docs/engine.md R8, R11 beyond <see cref="ChecklistTests"/>: items across direct escalation and re-instatement, the
 /// safeguards status and alarm, undo rules and ticks from two tablets in turn. Names and times are invented.
 /// </summary>
 public class ChecklistLifecycleTests

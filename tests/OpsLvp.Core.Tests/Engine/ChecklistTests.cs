@@ -2,7 +2,7 @@ using OpsLvp.Core.Engine;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R11: items open on phase entry, due times, ticks, unticks, closing at episode end.</summary>
+/// <summary>docs/engine.md R11: items open on phase entry, due times, ticks, unticks, closing at episode end.</summary>
 public class ChecklistTests
 {
     private static EngineDriver InPreparation()

@@ -3,7 +3,7 @@ using OpsLvp.Core.Profile;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R10: proposals, confirmation with both instants, withdrawal.</summary>
+/// <summary>docs/engine.md R10: proposals, confirmation with both instants, withdrawal.</summary>
 public class ConfirmationTests
 {
     private const string Dm = "duty manager (invented)";

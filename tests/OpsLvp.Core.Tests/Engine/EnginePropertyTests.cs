@@ -6,7 +6,7 @@ using OpsLvp.Core.Readings;
 namespace OpsLvp.Core.Tests.Engine;
 
 /// <summary>
-/// Property tests (CsCheck) of DESIGN R2–R10 invariants over random invented weather: values cluster around
+/// Property tests (CsCheck) of docs/engine.md R2–R10 and R17 invariants over random invented weather: values cluster around
 /// the test profile's illustrative thresholds, sensors fall silent at random, gaps range up to 150 s so
 /// readings also go stale (max age 120 s RVR, 300 s ceiling, invented).
 /// </summary>
@@ -121,8 +121,58 @@ public class EnginePropertyTests
     }
 
     /// <summary>
+    /// docs/engine.md R17: splitting the evaluation calls (each instant's readings in one call and every command in
+    /// its own call at the same instant, plus empty calls at random instants between arrivals, some exactly where
+    /// readings go stale) or merging them (one call per arrival instant) gives the same events. Gaps of exactly
+    /// 120 s are frequent, so readings often arrive at the instant the previous ones go stale.
+    /// </summary>
+    [Fact]
+    public void SplittingOrMergingEvaluationCalls_GivesTheSameEvents()
+    {
+        var gap = Gen.OneOf(Gen.Int[1, 150], Gen.Const(120), Gen.Const(60));
+        var steps = Gen.Select(gap, RvrValue.Array[3], CeilingValue, Gen.Int[0, 12], (g, rvr, ceiling, cmd) => new Step(g, rvr, ceiling, cmd)).Array[1, 60];
+        Gen.Select(steps, Gen.Int[0, 1_000_000].Array[0, 30], Gen.Bool, (x, extra, safeguarded) => (x, extra, safeguarded)).Sample(c =>
+        {
+            var profile = c.safeguarded ? TestProfiles.Safeguarded() : TestProfiles.Standard();
+            var timeline = Timeline(c.x);
+            var merged = new EngineDriver(profile);
+            foreach (var (time, inputs) in timeline)
+            {
+                merged.Run(time, inputs);
+            }
+            var end = timeline[^1].Time + 2000;
+            merged.Run(end);
+
+            var split = new EngineDriver(profile);
+            var arrivals = timeline.Select(x => x.Time).ToHashSet();
+            // extra instants strictly between arrivals (never at one): the stale instants of the readings and random ones
+            var extras = c.extra.Select(e => e % end).Concat(timeline.Select(x => x.Time + 120)).Concat(timeline.Select(x => x.Time + 300))
+                .Where(e => e > 0 && e < end && !arrivals.Contains(e)).Distinct().Order().ToList();
+            var next = 0;
+            foreach (var (time, inputs) in timeline)
+            {
+                for (; next < extras.Count && extras[next] < time; next++)
+                {
+                    split.Run(extras[next]);
+                }
+                split.Run(time, [.. inputs.OfType<ReadingInput>()]);
+                foreach (var command in inputs.OfType<EngineCommand>())
+                {
+                    split.Run(time, command);
+                }
+            }
+            for (; next < extras.Count; next++)
+            {
+                split.Run(extras[next]);
+            }
+            split.Run(end);
+            Assert.Equal(Lines(merged), Lines(split));
+        }, iter: Iterations);
+    }
+
+    /// <summary>
     /// Independent oracle for recovery at an instant, from the generated arrivals: every governing sensor's
-    /// latest reading is fresh and ≥ the RVR limit, and the ceilometer's too (DESIGN R3, R5).
+    /// latest reading is fresh and ≥ the RVR limit, and the ceilometer's too (docs/engine.md R3, R5).
     /// </summary>
     private static bool RecoveryHeldAt(List<(int Time, EngineInput[] Inputs)> timeline, int instant, double rvrLimit, double ceilingLimit)
     {

@@ -2,7 +2,7 @@ using OpsLvp.Core.Engine;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R9: declarations set holds, cancel works against the conditions, escalation after a manual relaxation waits its dwell from the action.</summary>
+/// <summary>docs/engine.md R9: declarations set holds, cancel works against the conditions, escalation after a manual relaxation waits its dwell from the action.</summary>
 public class ManualActionTests
 {
     private const string Dm = "duty manager (invented)";

@@ -4,7 +4,7 @@ using static OpsLvp.Core.Tests.Engine.EngineDriver;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R1 (screening) and R2 (supersession, arrival order). Ranges are ReadingScreen's documented choice (common practice).</summary>
+/// <summary>docs/engine.md R1 (screening) and R2 (supersession, arrival order). Ranges are ReadingScreen's documented choice (common practice).</summary>
 public class ReadingScreeningTests
 {
     private static ReadingRejected RejectOne(Reading reading, double at = 10)

@@ -3,7 +3,7 @@ using static OpsLvp.Core.Tests.Engine.EngineDriver;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R3 and R5: unknown never satisfies recovery; a silent sensor blocks relaxation; unconfigured inputs are left out.</summary>
+/// <summary>docs/engine.md R3 and R5: unknown never satisfies recovery; a silent sensor blocks relaxation; unconfigured inputs are left out.</summary>
 public class RecoveryFailSafeTests
 {
     /// <summary>Good readings from RVR07T, RVR07M and CEIL1 only, every 60 s.</summary>

@@ -5,7 +5,7 @@ namespace OpsLvp.Core.Tests.Engine;
 
 /// <summary>
 /// Test profiles for the invented aerodrome XDMO "Demo Field (invented)". Every value is invented; the
-/// thresholds follow the illustrative examples of DESIGN R4/R5/R7 (LVP thresholds and dwells are local
+/// thresholds follow the illustrative examples of docs/engine.md R4/R5/R7 (LVP thresholds and dwells are local
 /// values, DOMAIN "LVP phases": from memory), not any real aerodrome's instruction.
 /// Runway 07/25 (LVP) with RVR07T (TDZ for 07, END for 25), RVR07M (MID), RVR25T (END for 07, TDZ for 25),
 /// runway 12/30 (not LVP) with RVR12T, ceilometer CEIL1, visibility sensor VIS1.
@@ -14,9 +14,15 @@ public static class TestProfiles
 {
     public static readonly DateTimeOffset T0 = new(2026, 12, 1, 3, 0, 0, TimeSpan.Zero);
 
+    /// <summary>
+    /// The profile most engine tests use. It takes the local choice <c>inForceNeedsSafeguards: false</c>
+    /// (docs/engine.md R13) so the R1–R12 tests exercise dwells, transitions and checklists on their own;
+    /// <see cref="Safeguarded"/> is the default (true), tested in <c>SafeguardsTests</c>.
+    /// </summary>
     public static AerodromeProfile Standard() => new()
     {
         Version = "test-1 (invented)",
+        InForceNeedsSafeguards = false,
         Aerodrome = new AerodromeInfo("XDMO", "Demo Field (invented)", Illustrative: true),
         Runways =
         [
@@ -67,14 +73,17 @@ public static class TestProfiles
         },
     };
 
-    /// <summary>The standard profile without ceilometers (an aerodrome that has none, DESIGN R5).</summary>
+    /// <summary>The standard profile without ceilometers (an aerodrome that has none, docs/engine.md R5).</summary>
     public static AerodromeProfile WithoutCeilometer() => Standard() with
     {
         Sensors = Standard().Sensors.Where(s => s.Type != SensorType.Ceilometer).ToList(),
     };
 
-    /// <summary>The standard profile where the given transitions need confirmation (DESIGN R10).</summary>
+    /// <summary>The standard profile where the given transitions need confirmation (docs/engine.md R10).</summary>
     public static AerodromeProfile Confirming(params TransitionRule[] rules) => Standard() with { Confirm = rules };
+
+    /// <summary>The standard profile with the default <c>inForceNeedsSafeguards: true</c> (docs/engine.md R13).</summary>
+    public static AerodromeProfile Safeguarded() => Standard() with { InForceNeedsSafeguards = true };
 
     /// <summary>The governing RVR sensors of <see cref="Standard"/> for direction 07.</summary>
     public static readonly string[] GoverningRvr = ["RVR07T", "RVR07M", "RVR25T"];

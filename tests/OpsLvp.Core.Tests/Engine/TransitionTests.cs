@@ -3,7 +3,7 @@ using static OpsLvp.Core.Tests.Engine.EngineDriver;
 
 namespace OpsLvp.Core.Tests.Engine;
 
-/// <summary>DESIGN R4, R7, R8 with the invented test profile (preparation &lt; 1000 m / recover 1100 m, active &lt; 550 / 650 m, enter dwells 30 s, recover 15 / 10 min).</summary>
+/// <summary>docs/engine.md R4, R7, R8 with the invented test profile (preparation &lt; 1000 m / recover 1100 m, active &lt; 550 / 650 m, enter dwells 30 s, recover 15 / 10 min).</summary>
 public class TransitionTests
 {
     [Fact]

@@ -60,7 +60,7 @@ public sealed class MetarCorpusTests
     [Fact]
     public void Corpus_CeilingIsNeverAboveAnyBrokenOrOvercastLayerBelowLimit()
     {
-        // Property of the ceiling rule (ICAO/EASA definition; DESIGN §4.1), checked over the whole corpus.
+        // Property of the ceiling rule (ICAO/EASA definition; docs/cli.md), checked over the whole corpus.
         foreach (var e in MetarCorpus.Load().Where(e => !e.MustRefuse))
         {
             var r = MetarDecoder.Decode(e.Text);

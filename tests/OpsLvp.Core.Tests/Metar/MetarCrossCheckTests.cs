@@ -5,8 +5,8 @@ using Xunit.Abstractions;
 namespace OpsLvp.Core.Tests.Metar;
 
 /// <summary>
-/// Independent cross-check (DESIGN §6): every corpus report is decoded by the npm package metar-taf-parser 9.1.3
-/// through Node.js and its DESIGN §4.1 fields are compared with ours. A disagreement must be explained by a named
+/// Independent cross-check (DEVELOPERS.md "Tests"): every corpus report is decoded by the npm package metar-taf-parser 9.1.3
+/// through Node.js and its docs/cli.md fields are compared with ours. A disagreement must be explained by a named
 /// rule of <see cref="NpmKnownDifferences"/>; any other disagreement fails the test.
 /// </summary>
 public sealed class MetarCrossCheckTests(ITestOutputHelper output)
@@ -128,7 +128,7 @@ public sealed class MetarCrossCheckTests(ITestOutputHelper output)
     }
 
     /// <summary>
-    /// The package's result in the shape of DESIGN §4.1. Feet RVR is converted with the same arithmetic as ours
+    /// The package's result in the shape of docs/cli.md. Feet RVR is converted with the same arithmetic as ours
     /// (0.3048 m/ft, rounded down) so that the package's reading of the digits, qualifiers and tendency is what is compared.
     /// </summary>
     private static JsonObject ProjectNpm(JsonObject m)
@@ -170,7 +170,7 @@ public sealed class MetarCrossCheckTests(ITestOutputHelper output)
             });
         }
         double? vv = m["verticalVisibility"]?.GetValue<double>();
-        // Ceiling: lowest BKN/OVC base below 20 000 ft, or VV (DESIGN §4.1), applied to the package's layers.
+        // Ceiling: lowest BKN/OVC base below 20 000 ft, or VV (docs/cli.md), applied to the package's layers.
         var ceiling = clouds.Select(n => n!.AsObject())
             .Where(c => c["cover"]!.GetValue<string>() is "BKN" or "OVC" && c["base_ft"] is not null && c["base_ft"]!.GetValue<double>() < 20_000)
             .Select(c => (double?)c["base_ft"]!.GetValue<double>())

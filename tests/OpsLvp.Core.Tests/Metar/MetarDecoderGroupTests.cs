@@ -369,7 +369,7 @@ public sealed class MetarDecoderGroupTests
         Assert.False(r.StatesNoCeiling);
     }
 
-    // --- ceiling: lowest BKN/OVC below 20 000 ft (ICAO/EASA definition), or vertical visibility (DESIGN §4.1)
+    // --- ceiling: lowest BKN/OVC below 20 000 ft (ICAO/EASA definition), or vertical visibility (docs/cli.md)
 
     [Fact]
     public void Ceiling_IsLowestBrokenOrOvercastNotLowestLayer()

@@ -3,7 +3,7 @@ using OpsLvp.Core.Metar;
 
 namespace OpsLvp.Core.Tests.Metar;
 
-/// <summary>The JSON of DESIGN §4.1 for whole reports (station XDMO and values invented).</summary>
+/// <summary>The JSON of docs/cli.md for whole reports (station XDMO and values invented).</summary>
 public sealed class MetarJsonTests
 {
     [Fact]

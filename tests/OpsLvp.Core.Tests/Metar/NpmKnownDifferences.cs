@@ -7,7 +7,7 @@ namespace OpsLvp.Core.Tests.Metar;
 /// <summary>
 /// The expectation table of the cross-check: every known disagreement between our decoder and metar-taf-parser 9.1.3,
 /// each with the rule that explains it. Behaviour of the package was established by running it (see
-/// node/decode-corpus.mjs); our side follows WMO-No. 306 FM 15 and DESIGN §4.1.
+/// node/decode-corpus.mjs); our side follows WMO-No. 306 FM 15 and docs/cli.md.
 /// </summary>
 internal static partial class NpmKnownDifferences
 {

@@ -35,7 +35,9 @@ public sealed class DemoSeedTests
         var profile = Demo();
         Assert.Equal("XDMO", profile.Aerodrome.Id);
         Assert.True(profile.Aerodrome.Illustrative);
-        Assert.Empty(profile.Confirm);
+        // docs/engine.md R14: the demo confirms active -> cancellation (the recommended choice); its scripted duty manager confirms
+        Assert.Equal([new TransitionRule(Phase.Active, Phase.Cancellation)], profile.Confirm);
+        Assert.True(profile.InForceNeedsSafeguards);
     }
 
     [Fact]
@@ -54,8 +56,8 @@ public sealed class DemoSeedTests
     public void ConfirmProfile_EqualsTheDemoProfilePlusItsConfirmList()
     {
         var confirm = ProfileValidator.LoadValidated(Path.Combine(SeedDir, "profile-confirm.json"));
-        // DESIGN R10, §5: the second demo profile needs confirmation of active.
-        TransitionRule[] expected = [new(Phase.Normal, Phase.Active), new(Phase.Preparation, Phase.Active)];
+        // docs/engine.md R10, §5: the second demo profile needs confirmation of active.
+        TransitionRule[] expected = [new(Phase.Normal, Phase.Active), new(Phase.Preparation, Phase.Active), new(Phase.Active, Phase.Cancellation)];
         Assert.Equal(expected, confirm.Confirm);
         var demoWithConfirm = Demo() with { Version = confirm.Version, Confirm = confirm.Confirm };
         Assert.Equal(ProfileLoader.Serialize(demoWithConfirm), ProfileLoader.Serialize(confirm));
@@ -150,6 +152,10 @@ public sealed class DemoSeedTests
             u => u.GetProperty("teams").EnumerateArray().Select(t => t.GetString()!).ToHashSet());
         var (header, rows) = ReadCsv("demo-night.actions.csv");
         Assert.Equal(["time", "actor", "action", "target", "value", "reason"], header);
+        // the scripted duty manager's confirmation of active -> cancellation (docs/engine.md R14)
+        var confirm = Assert.Single(rows, r => r[2] == "confirm");
+        Assert.Equal("duty_manager", users.RootElement.EnumerateArray().Single(u => u.GetProperty("name").GetString() == confirm[1]).GetProperty("role").GetString());
+        rows = rows.Where(r => r != confirm).ToList();
         foreach (var r in rows)
         {
             Assert.Equal("tick", r[2]);

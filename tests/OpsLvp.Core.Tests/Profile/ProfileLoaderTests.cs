@@ -57,6 +57,27 @@ public sealed class ProfileLoaderTests
     }
 
     [Fact]
+    public void MissingConfirm_IsAParseError_NamingIt_WhileAnEmptyListIsAccepted()
+    {
+        // docs/engine.md R14: each aerodrome decides explicitly which transitions need confirmation
+        var json = ValidJson();
+        json.Remove("confirm");
+        var ex = ParseFails(json);
+        Assert.Contains("'confirm'", ex.Message, StringComparison.Ordinal);
+        json["confirm"] = new JsonArray();
+        Assert.Empty(ProfileLoader.Parse(json.ToJsonString()).Confirm);
+    }
+
+    [Fact]
+    public void InForceNeedsSafeguards_DefaultsToTrue()
+    {
+        // docs/engine.md R13
+        var json = ValidJson();
+        json.Remove("inForceNeedsSafeguards");
+        Assert.True(ProfileLoader.Parse(json.ToJsonString()).InForceNeedsSafeguards);
+    }
+
+    [Fact]
     public void MissingSensorId_IsAParseErrorNamingTheSensor()
     {
         var json = ValidJson();

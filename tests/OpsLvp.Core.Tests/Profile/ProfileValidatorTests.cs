@@ -4,7 +4,7 @@ using OpsLvp.Core.Readings;
 
 namespace OpsLvp.Core.Tests.Profile;
 
-// Rules from DESIGN §3 R6–R11; the thresholds below are invented test values, not any aerodrome's.
+// Rules from docs/engine.md R6–R11; the thresholds below are invented test values, not any aerodrome's.
 public sealed class ProfileValidatorTests
 {
     private static ValidationProblem Single(AerodromeProfile profile)
@@ -376,7 +376,7 @@ public sealed class ProfileValidatorTests
     public void ConfirmRuleForATransitionR8DoesNotHave_NamesTheRule()
     {
         var p = ProfileFixtures.Valid() with { Confirm = [new TransitionRule(Phase.Preparation, Phase.Active), new TransitionRule(Phase.Active, Phase.Normal)] };
-        AssertProblem(p, "confirm[1]", "active → normal is not a transition of DESIGN R8");
+        AssertProblem(p, "confirm[1]", "active → normal is not a transition of docs/engine.md R8");
     }
 
     [Theory]
@@ -390,8 +390,9 @@ public sealed class ProfileValidatorTests
     [InlineData(Phase.Cancellation, Phase.Preparation)]
     public void ConfirmRuleForAnR8Transition_IsAccepted(Phase from, Phase to)
     {
-        var p = ProfileFixtures.Valid() with { Confirm = [new TransitionRule(from, to)] };
-        Assert.True(ProfileValidator.Validate(p).IsValid);
+        // normal -> active comes with preparation -> active (docs/engine.md R14)
+        var p = ProfileFixtures.Valid() with { Confirm = [new TransitionRule(from, to), new TransitionRule(Phase.Preparation, Phase.Active)] };
+        Assert.True(ProfileValidator.Validate(p with { Confirm = p.Confirm.Distinct().ToList() }).IsValid);
     }
 
     [Fact]

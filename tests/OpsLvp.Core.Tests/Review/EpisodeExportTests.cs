@@ -15,7 +15,7 @@ public sealed class EpisodeExportTests
         // Expected times: `opslvp replay` on the invented demo night (seed-demo/README.md, after RVR derivation).
         var episode = Assert.Single(Night.Episodes);
         Assert.Equal(
-            ["20:37:06 normal>preparation", "21:42:06 preparation>active", "00:42:36 active>cancellation", "01:25:00 cancellation>normal"],
+            ["20:37:06 normal>preparation", "21:42:06 preparation>active", "00:44:00 active>cancellation", "01:25:00 cancellation>normal"],
             episode.Transitions.Select(t => $"{t.At:HH:mm:ss} {Name(t.From)}>{Name(t.To)}"));
         Assert.Equal(Phase.Active, episode.DeepestPhase);
         Assert.NotNull(episode.End);

@@ -62,7 +62,7 @@ public sealed class EpisodeModelTests
 
         // 100 m is a failed reading and 50 m comes after the end: neither counts.
         Assert.Equal((350.0, "RVR07M"), (e.LowestRvrM!.Value, e.LowestRvrSensor!));
-        // Vertical visibility counts as ceiling (profile default, DESIGN R5).
+        // Vertical visibility counts as ceiling (profile default, docs/engine.md R5).
         Assert.Equal(200.0, e.LowestCeilingFt);
     }
 

@@ -2,7 +2,7 @@ namespace OpsLvp.EndToEnd.Tests.Infrastructure;
 
 /// <summary>
 /// Finds the machine's Chromium: <c>OPSLVP_CHROMIUM</c> when set, else <c>/usr/bin/chromium</c>. With
-/// <c>OPSLVP_REQUIRE_BROWSER=1</c> (CI) a missing browser fails the tests instead of skipping them (DESIGN §6).
+/// <c>OPSLVP_REQUIRE_BROWSER=1</c> (CI) a missing browser fails the tests instead of skipping them (DEVELOPERS.md "Tests").
 /// </summary>
 public static class ChromiumLocator
 {

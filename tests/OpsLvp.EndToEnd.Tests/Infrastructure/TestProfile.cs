@@ -49,6 +49,8 @@ public static class TestProfile
             "active": { "rvrBelowM": 550, "rvrRecoverM": 650, "ceilingBelowFt": 200, "ceilingRecoverFt": 250, "enterDwellSeconds": 0, "recoverDwellSeconds": 60 }
           },
           "confirm": [],
+          // browser flows push RVR straight to active; the safeguards rule (docs/engine.md R13) is tested in Core and Web.Tests
+          "inForceNeedsSafeguards": false,
           "checklists": {
             "preparation": [
               { "id": "prep-works", "text": "Stop airside works (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 20 },

@@ -60,7 +60,7 @@ public sealed class LvpCommandServiceTests
         Assert.Equal("manual_action", entry.Kind);
         Assert.Equal("active", LiveClient.Phase(await LiveClient.StateAsync(run.App)));
 
-        // ground staff tick only their own team's items (DESIGN R11; policy in CommandAuthorizer)
+        // ground staff tick only their own team's items (docs/engine.md R11; policy in CommandAuthorizer)
         var other = await run.Commands.ExecuteAsync(Caller("g.test", Roles.GroundStaff, LiveTestProfile.Team), new TickItem("x", LiveTestProfile.OtherTeam, "ta-1"));
         Assert.Equal(CommandOutcomeKind.Refused, other.Kind);
         var own = await run.Commands.ExecuteAsync(Caller("g.test", Roles.GroundStaff, LiveTestProfile.Team), new TickItem("x", "", "tp-1", "done (test)"));
@@ -71,6 +71,50 @@ public sealed class LvpCommandServiceTests
         var item = state.GetProperty("items").EnumerateArray().Single(i => i.GetProperty("itemId").GetString() == "tp-1");
         Assert.Equal("g.test", item.GetProperty("tick").GetProperty("user").GetString());
         await LiveClient.AssertChainVerifiesAsync(run.App);
+    }
+
+    [Fact]
+    public async Task WithSafeguardsOpen_ApiStateSaysSo_NotApplicableAndOverrideGoThroughTheServiceAndTheAudit()
+    {
+        // docs/engine.md R13 with the test profile's rule on: tp-1 is its one mandatory preparation item (invented)
+        await using var run = await Run.StartAsync(inForceNeedsSafeguards: true);
+        var refused = await run.Commands.ExecuteAsync(Manager, new DeclarePhase("x", Phase.Active, "fog bank approaching (test)"));
+        Assert.Equal(CommandOutcomeKind.Refused, refused.Kind);
+        Assert.Equal("safeguards incomplete: tp-1 open; declare active with an override reason to enter it anyway", refused.Message);
+
+        var now = DateTimeOffset.UtcNow;
+        await LiveClient.PushAsync(run.App, LiveClient.Item(now, LiveTestProfile.Tdz, "rvr", 300), LiveClient.Item(now, LiveTestProfile.Mid, "rvr", 300));
+        var state = await LiveClient.WaitForPhaseAsync(run.App, "preparation");
+        var deadline = DateTime.UtcNow + TimeSpan.FromSeconds(30);
+        while (!state.GetProperty("status").GetProperty("conditionsMetSafeguardsIncomplete").GetBoolean() && DateTime.UtcNow < deadline)
+        {
+            await Task.Delay(50);
+            state = await LiveClient.StateAsync(run.App);
+        }
+        Assert.True(state.GetProperty("status").GetProperty("conditionsMetSafeguardsIncomplete").GetBoolean());
+        Assert.Equal(["tp-1"], state.GetProperty("status").GetProperty("safeguardsOutstanding").EnumerateArray().Select(e => e.GetString()));
+
+        var blank = await run.Commands.ExecuteAsync(Manager, new MarkNotApplicable("x", "tp-1", " "));
+        Assert.Equal("a reason is required to mark an item not applicable", blank.Message);
+        var ground = await run.Commands.ExecuteAsync(Caller("g.test", Roles.GroundStaff, LiveTestProfile.Team), new MarkNotApplicable("x", "tp-1", "no works tonight (test)"));
+        Assert.Equal(CommandOutcomeKind.Refused, ground.Kind);
+        var marked = await run.Commands.ExecuteAsync(Manager, new MarkNotApplicable("x", "tp-1", "no works tonight (test)"));
+        Assert.Equal(CommandOutcomeKind.Applied, marked.Kind);
+        await LiveClient.WaitForPhaseAsync(run.App, "active");
+        var entries = await LiveClient.EntriesAsync(run.App);
+        Assert.Contains(entries, e => e.Kind == "item_not_applicable" && e.Actor == "dm.test");
+        await LiveClient.AssertChainVerifiesAsync(run.App);
+    }
+
+    [Fact]
+    public async Task DeclaringActiveOverOpenSafeguards_IsAppliedWithTheOverrideAudited()
+    {
+        await using var run = await Run.StartAsync(inForceNeedsSafeguards: true);
+        var outcome = await run.Commands.ExecuteAsync(Manager, new DeclarePhase("x", Phase.Active, "fog bank approaching (test)", "tower asks for LVP now (test)"));
+        Assert.Equal(CommandOutcomeKind.Applied, outcome.Kind);
+        var state = await LiveClient.WaitForPhaseAsync(run.App, "active");
+        Assert.Equal("dm.test", state.GetProperty("status").GetProperty("safeguardsOverride").GetProperty("actor").GetString());
+        Assert.Contains(await LiveClient.EntriesAsync(run.App), e => e.Kind == "manual_action" && e.PayloadJson.Contains("override_safeguards", StringComparison.Ordinal));
     }
 
     [Fact]
@@ -113,10 +157,11 @@ public sealed class LvpCommandServiceTests
 
         public ILvpCommandService Commands => App.Services.GetRequiredService<ILvpCommandService>();
 
-        public static Task<Run> StartAsync()
+        public static Task<Run> StartAsync(bool inForceNeedsSafeguards = false)
         {
             var folder = OpsLvpApp.NewDataFolder();
-            return Task.FromResult(new Run(folder, OpsLvpApp.Start(LiveTestProfile.Settings(LiveTestProfile.Write(folder)), folder)));
+            var profile = LiveTestProfile.Write(folder, inForceNeedsSafeguards: inForceNeedsSafeguards);
+            return Task.FromResult(new Run(folder, OpsLvpApp.Start(LiveTestProfile.Settings(profile), folder)));
         }
 
         public async Task SqlAsync(string sql)

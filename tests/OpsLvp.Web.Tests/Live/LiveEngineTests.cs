@@ -104,7 +104,7 @@ public sealed class LiveEngineTests
                 await Task.Delay(50);
                 rows = await store.GetReceivedAsync(now.AddHours(-1), now.AddHours(2));
             }
-            // reason codes of DESIGN R1/R2 (RejectReason)
+            // reason codes of docs/engine.md R1/R2 (RejectReason)
             Assert.Equal(
                 new[] { RejectReason.Malformed, RejectReason.OutOfRange, RejectReason.FutureDated, RejectReason.Duplicate, RejectReason.OlderThanLatest, RejectReason.UnknownSensor, RejectReason.StatusNotOk }.Order(),
                 rows.Where(r => !r.Accepted).Select(r => r.RejectReason!.Value).Order());
@@ -151,7 +151,7 @@ public sealed class LiveEngineTests
             var toActive = entries.Single(e => e.Kind == "transition" && e.PayloadJson.Contains("\"to\":\"active\"", StringComparison.Ordinal));
             var restarted = entries.Last(e => e.Kind == "engine_started");
             Assert.Contains("\"restored\":true", restarted.PayloadJson, StringComparison.Ordinal);
-            // fired by the first evaluation after the restart, stamped with the exact dwell completion (DESIGN R7)
+            // fired by the first evaluation after the restart, stamped with the exact dwell completion (docs/engine.md R7)
             Assert.True(restarted.Sequence < toActive.Sequence);
             Assert.True(restarted.Time > toActive.Time);
             Assert.Equal(TimeSpan.FromSeconds(dwell), toActive.Time - toPreparation.Time);

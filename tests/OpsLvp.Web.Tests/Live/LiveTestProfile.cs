@@ -18,7 +18,7 @@ public static class LiveTestProfile
 
     public const string OtherTeam = "t-fire";
 
-    public static string Write(string folder, int activeEnterDwellSeconds = 0, int recoverDwellSeconds = 1)
+    public static string Write(string folder, int activeEnterDwellSeconds = 0, int recoverDwellSeconds = 1, bool inForceNeedsSafeguards = false)
     {
         Directory.CreateDirectory(folder);
         var path = Path.Combine(folder, "test-profile.json");
@@ -38,6 +38,10 @@ public static class LiveTestProfile
                 "preparation": { "rvrBelowM": 1000, "rvrRecoverM": 1200, "enterDwellSeconds": 0, "recoverDwellSeconds": RECOVER },
                 "active": { "rvrBelowM": 550, "rvrRecoverM": 650, "enterDwellSeconds": ACTIVE, "recoverDwellSeconds": RECOVER }
               },
+              "confirm": [],
+              // these tests drive the live path (push, hub, commands), not the safeguards rule: the local choice of
+              // docs/engine.md R13 keeps active reachable by RVR alone; LvpCommandServiceTests turns it on where it tests it
+              "inForceNeedsSafeguards": SAFEGUARDS,
               "checklists": {
                 "preparation": [ { "id": "tp-1", "text": "Test preparation item", "team": "t-ops", "mandatory": true, "dueWithinMinutes": 10 } ],
                 "active": [ { "id": "ta-1", "text": "Test active item", "team": "t-fire", "mandatory": true, "dueWithinMinutes": 10 } ],
@@ -46,7 +50,8 @@ public static class LiveTestProfile
             }
             """
             .Replace("ACTIVE", activeEnterDwellSeconds.ToString(CultureInfo.InvariantCulture), StringComparison.Ordinal)
-            .Replace("RECOVER", recoverDwellSeconds.ToString(CultureInfo.InvariantCulture), StringComparison.Ordinal);
+            .Replace("RECOVER", recoverDwellSeconds.ToString(CultureInfo.InvariantCulture), StringComparison.Ordinal)
+            .Replace("SAFEGUARDS", inForceNeedsSafeguards ? "true" : "false", StringComparison.Ordinal);
         File.WriteAllText(path, json);
         return path;
     }

@@ -31,7 +31,12 @@ public static class ActionsCsv
                     "preparation" => Phase.Preparation,
                     "active" => Phase.Active,
                     _ => throw row.Error($"declare target must be preparation or active, not '{target}'"),
-                }, reason),
+                }, reason, value switch
+                {
+                    "" => null,
+                    "override" => reason,
+                    _ => throw row.Error($"declare value must be empty or override, not '{value}'"),
+                }),
                 "cancel" => new CancelLvp(actor, reason),
                 "release_hold" => new ReleaseHold(actor, reason),
                 "forecast" => new SetForecast(actor, value switch
@@ -45,6 +50,7 @@ public static class ActionsCsv
                 "confirm" => new ConfirmPending(actor, reason.Length == 0 ? null : reason),
                 "tick" => new TickItem(actor, Required(value, "value (team id)", row.Error), Required(target, "target (item id)", row.Error), reason.Length == 0 ? null : reason),
                 "untick" => new UntickItem(actor, Required(target, "target (item id)", row.Error), reason),
+                "not_applicable" => new MarkNotApplicable(actor, Required(target, "target (item id)", row.Error), reason),
                 "ack" => new AcknowledgeAlarm(actor, Required(target, "target (alarm key)", row.Error)),
                 var other => throw row.Error($"unknown action '{other}'"),
             };

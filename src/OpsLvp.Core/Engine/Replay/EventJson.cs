@@ -8,7 +8,7 @@ namespace OpsLvp.Core.Engine.Replay;
 /// One JSON object per event (JSON Lines, docs/replay.md): always <c>event</c> and <c>time</c> first;
 /// transitions are <c>{"event":"transition","time":…,"from":…,"to":…,"by":"auto"|"manual","reason":…}</c>
 /// followed by actor, proposed_at and the condition snapshot (values, sensors and, last, the thresholds in effect
-/// for both graded phases, DESIGN R12). Names snake_case, times UTC with Z.
+/// for both graded phases, docs/engine.md R12). Names snake_case, times UTC with Z.
 /// </summary>
 public static class EventJson
 {
@@ -25,6 +25,7 @@ public static class EventJson
         ChecklistOpened => "checklist_opened",
         ItemTicked => "item_ticked",
         ItemUnticked => "item_unticked",
+        ItemMarkedNotApplicable => "item_not_applicable",
         ItemsClosed => "items_closed",
         AlarmRaised => "alarm_raised",
         AlarmAcknowledged => "alarm_acknowledged",
@@ -105,6 +106,11 @@ public static class EventJson
                     w.WriteString("undone_tick_by", u.UndoneTick.User);
                     w.WriteString("undone_tick_at", Fmt.Time(u.UndoneTick.At));
                     break;
+                case ItemMarkedNotApplicable n:
+                    w.WriteString("item", n.ItemId);
+                    w.WriteString("actor", n.Actor);
+                    w.WriteString("reason", n.Reason);
+                    break;
                 case ItemsClosed c:
                     w.WriteString("status", c.Status == ItemStatus.Voided ? "voided" : "closed_not_done");
                     Strings(w, "items", c.ItemIds);
@@ -164,7 +170,7 @@ public static class EventJson
         w.WriteEndObject();
     }
 
-    /// <summary>The thresholds in effect for one phase (DESIGN R12 "thresholds"); null where the phase leaves an input out.</summary>
+    /// <summary>The thresholds in effect for one phase (docs/engine.md R12 "thresholds"); null where the phase leaves an input out.</summary>
     private static void Thresholds(Utf8JsonWriter w, string name, Profile.PhaseThresholds p)
     {
         w.WriteStartObject(name);

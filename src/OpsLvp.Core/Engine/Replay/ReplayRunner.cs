@@ -8,7 +8,7 @@ namespace OpsLvp.Core.Engine.Replay;
 /// Replays readings and actions through <see cref="LvpEngine"/> exactly as a live run would see them
 /// (the CLI's `opslvp replay` and the server's review and what-if use this):
 /// readings in the given (file) order, each evaluated at now = max(its time, previous now), so an
-/// out-of-order reading is ignored for state as it would be live (DESIGN R2); actions merged by time, a
+/// out-of-order reading is ignored for state as it would be live (docs/engine.md R2); actions merged by time, a
 /// reading first when times are equal. The engine starts at the first input's instant. Raw extinction and
 /// transmittance readings are turned into RVR by <see cref="RvrDerivation"/> and the derived RVR reading is
 /// evaluated with its raw reading, as the live host does.

@@ -1,6 +1,6 @@
 namespace OpsLvp.Web.Components.Shell;
 
-/// <summary>The permanent safety line shown on every page (DESIGN §1, "Safety framing").</summary>
+/// <summary>The permanent safety line shown on every page (README.md, "Safety").</summary>
 public static class SafetyNotice
 {
     public const string Text =

@@ -5,7 +5,7 @@ using OpsLvp.Core.Tests.Engine.Replay;
 
 namespace OpsLvp.Core.Tests.Cli.Commands;
 
-/// <summary>`opslvp replay` (DESIGN §4.1) over the invented scenario files.</summary>
+/// <summary>`opslvp replay` (docs/cli.md) over the invented scenario files.</summary>
 public class ReplayCommandTests
 {
     private static (int Code, string Out, string Err) Run(params string[] args)
@@ -93,7 +93,7 @@ public class ReplayCommandTests
     [Fact]
     public void Replay_InvalidProfile_FailsWithOneLineNamingTheFirstFieldAndCountingTheRest()
     {
-        // Two problems: a lower-case location indicator and a zero recovery dwell (DESIGN R6, R7; docs/profile.md rules)
+        // Two problems: a lower-case location indicator and a zero recovery dwell (docs/engine.md R6, R7; docs/profile.md rules)
         var file = EditedProfile(j => ZeroActiveRecoverDwell(j.Replace("\"id\": \"XDMO\"", "\"id\": \"xdmo\"", StringComparison.Ordinal)));
         try
         {

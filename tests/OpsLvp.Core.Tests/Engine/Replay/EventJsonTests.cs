@@ -7,7 +7,7 @@ namespace OpsLvp.Core.Tests.Engine.Replay;
 
 /// <summary>
 /// The condition snapshot of transition and proposal lines carries values, sensors and the thresholds in effect
-/// (DESIGN R12), after the DESIGN §4.1 fields. Check values are the invented scenario profile's own thresholds
+/// (docs/engine.md R12), after the docs/cli.md fields. Check values are the invented scenario profile's own thresholds
 /// (Scenarios/xdmo-profile.json, xdmo-confirm-profile.json).
 /// </summary>
 public class EventJsonTests
@@ -39,7 +39,7 @@ public class EventJsonTests
         var line = EventJson.ToLine(r.Events.OfType<PhaseTransition>().First());
         using var doc = JsonDocument.Parse(line);
         var names = doc.RootElement.EnumerateObject().Select(p => p.Name).ToList();
-        // DESIGN §4.1: event, time, from, to, by, reason first and in this order
+        // docs/cli.md: event, time, from, to, by, reason first and in this order
         Assert.Equal(["event", "time", "from", "to", "by", "reason"], names.Take(6));
         Assert.Equal("thresholds", names[^1]);
         var t = doc.RootElement.GetProperty("thresholds");

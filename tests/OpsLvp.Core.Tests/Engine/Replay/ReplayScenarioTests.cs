@@ -6,7 +6,7 @@ using OpsLvp.Core.Readings;
 namespace OpsLvp.Core.Tests.Engine.Replay;
 
 /// <summary>
-/// Scenario replays (files in Scenarios/, all invented; thresholds illustrative, DESIGN R4/R5 examples) with
+/// Scenario replays (files in Scenarios/, all invented; thresholds illustrative, docs/engine.md R4/R5 examples) with
 /// the transitions expected at exact times, run through the replay code the CLI and server use.
 /// </summary>
 public class ReplayScenarioTests

@@ -120,4 +120,20 @@ public sealed class WallViewModelTests
 
         Assert.DoesNotContain(vm.Runways[0].Positions, p => p.Lowest);
     }
+
+    [Fact]
+    public void SafeguardsIncompleteAndRelaxation_AreNotedBesideThePhase()
+    {
+        // docs/engine.md R13 and R15; people and items invented
+        var status = Status(Phase.Preparation) with
+        {
+            ConditionsMetSafeguardsIncomplete = true,
+            SafeguardsOutstanding = ["prep-works-stop"],
+            RelaxedAgainstConditions = new Relaxation("r.vale", Phase.Active, Phase.Cancellation, At.AddMinutes(-5), "test"),
+        };
+        var vm = WallViewModel.Build(Snapshot(status), At);
+        Assert.Equal("LVP conditions met — safeguards incomplete: prep-works-stop open", vm.PhaseNotes[0]);
+        Assert.StartsWith("relaxed by r.vale against conditions", vm.PhaseNotes[1], StringComparison.Ordinal);
+        Assert.Empty(WallViewModel.Build(Snapshot(Status(Phase.Preparation)), At).PhaseNotes);
+    }
 }

@@ -49,14 +49,14 @@ public partial class ActionItemCard
 
     private string CardClass => Item switch
     {
-        { Status: ItemStatus.Done } => "done",
+        { Status: ItemStatus.Done or ItemStatus.NotApplicable } => "done",
         { Overdue: true } => "overdue",
         _ => "open",
     };
 
     private string DueText => Item switch
     {
-        { Status: ItemStatus.Done } => $"was due {DisplayTime.Clock(Item.DueAt)}",
+        { Status: ItemStatus.Done or ItemStatus.NotApplicable } => $"was due {DisplayTime.Clock(Item.DueAt)}",
         { Overdue: true } => $"OVERDUE by {DisplayTime.Span(Now - Item.DueAt)} — was due {DisplayTime.Clock(Item.DueAt)}",
         _ => $"due {DisplayTime.Clock(Item.DueAt)} (in {DisplayTime.Span(Item.DueAt - Now)})",
     };
@@ -70,7 +70,8 @@ public partial class ActionItemCard
             _message = $"Already done by {tick.User} at {DisplayTime.ClockSeconds(tick.At)}";
             _messageSeverity = Severity.Info;
         }
-        else if ((_stage == TickStage.UndoReason && Item.Status != ItemStatus.Done) || (_stage == TickStage.Confirming && Item.Status != ItemStatus.Open))
+        else if ((_stage == TickStage.UndoReason && Item.Status is not (ItemStatus.Done or ItemStatus.NotApplicable))
+            || (_stage is TickStage.Confirming or TickStage.NotApplicableReason && Item.Status != ItemStatus.Open))
         {
             _stage = TickStage.Idle;
         }
@@ -96,7 +97,17 @@ public partial class ActionItemCard
         _stage = TickStage.UndoReason;
     }
 
+    private void AskNotApplicable()
+    {
+        _message = null;
+        _reason = null;
+        _stage = TickStage.NotApplicableReason;
+    }
+
     private void Back() => _stage = TickStage.Idle;
+
+    private Task NotApplicableAsync() =>
+        string.IsNullOrWhiteSpace(_reason) ? Task.CompletedTask : SendAsync(new MarkNotApplicable(Caller.Name, Item.ItemId, _reason.Trim()), ItemStatus.NotApplicable);
 
     private Task TickAsync() =>
         SendAsync(new TickItem(Caller.Name, Item.Team, Item.ItemId, string.IsNullOrWhiteSpace(_note) ? null : _note.Trim()), ItemStatus.Done);

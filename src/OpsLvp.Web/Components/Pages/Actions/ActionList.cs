@@ -26,9 +26,9 @@ public static class ActionList
             }
         }
         return latest.Values
-            .Where(i => i.Status is ItemStatus.Open or ItemStatus.Done)
+            .Where(i => i.Status is ItemStatus.Open or ItemStatus.Done or ItemStatus.NotApplicable)
             .OrderBy(Rank)
-            .ThenBy(i => i.Status == ItemStatus.Done ? -(i.Tick?.At.UtcTicks ?? 0) : i.DueAt.UtcTicks)
+            .ThenBy(i => i.Status is ItemStatus.Done or ItemStatus.NotApplicable ? -(i.Tick?.At.UtcTicks ?? 0) : i.DueAt.UtcTicks)
             .ThenBy(i => i.ItemId, StringComparer.Ordinal)
             .ToList();
     }

@@ -9,6 +9,8 @@ public enum TickStage
     Confirming,
     /// <summary>Asking for the mandatory reason to undo.</summary>
     UndoReason,
+    /// <summary>Asking a duty manager for the mandatory reason to mark the item not applicable (docs/engine.md R13).</summary>
+    NotApplicableReason,
     /// <summary>Sent; waiting for the command's outcome and then for the next snapshot.</summary>
     Sending,
 }

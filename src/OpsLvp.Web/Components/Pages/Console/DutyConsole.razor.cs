@@ -100,6 +100,12 @@ public partial class DutyConsole : LiveComponentBase
             $"Declare {Name(phase)}", phase == Phase.Active ? Color.Error : Color.Warning,
             reason => new DeclarePhase(_caller.Name, phase, reason));
 
+    private Task DeclareOverrideAsync() =>
+        AskAndRunAsync("Declare active over open safeguards",
+            "Declare active although mandatory preparation items are open. The override and its reason are audited and shown on every screen until the phase leaves active.",
+            "Declare active anyway", Color.Error,
+            reason => new DeclarePhase(_caller.Name, Phase.Active, reason, reason));
+
     private Task CancelAsync() =>
         AskAndRunAsync("Cancel LVP", "Cancel: active goes to cancellation, preparation goes to normal, even against the conditions.", "Cancel LVP", Color.Info,
             reason => new CancelLvp(_caller.Name, reason));

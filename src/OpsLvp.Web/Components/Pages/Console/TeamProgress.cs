@@ -26,7 +26,7 @@ public sealed record TeamProgress(string Team, string TeamName, int Done, int To
             .Select(g => new TeamProgress(
                 g.Key,
                 g.First().TeamName,
-                g.Count(i => i.Status == ItemStatus.Done),
+                g.Count(i => i.Status is ItemStatus.Done or ItemStatus.NotApplicable),
                 g.Count(),
                 g.Count(i => i.Status == ItemStatus.Open && i.Overdue)))
             .OrderBy(p => p.TeamName, StringComparer.Ordinal)

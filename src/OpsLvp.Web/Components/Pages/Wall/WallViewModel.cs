@@ -62,12 +62,15 @@ public sealed class WallViewModel
 
     public required WallFigure GoverningRvr { get; init; }
 
-    /// <summary>Null when the aerodrome has no ceilometer (DESIGN R5): the wall leaves it out.</summary>
+    /// <summary>Null when the aerodrome has no ceilometer (docs/engine.md R5): the wall leaves it out.</summary>
     public required WallFigure? Ceiling { get; init; }
 
     public required IReadOnlyList<WallThresholdRow> Thresholds { get; init; }
 
     public required IReadOnlyList<WallNotice> Notices { get; init; }
+
+    /// <summary>Notes shown beside the phase (<see cref="StatusNotes"/>): safeguards incomplete, override, relaxed against conditions.</summary>
+    public IReadOnlyList<string> PhaseNotes { get; init; } = [];
 
     public required IReadOnlyList<WallWait> Waiting { get; init; }
 
@@ -134,6 +137,7 @@ public sealed class WallViewModel
             Ceiling = status.CeilingConfigured ? Figure("Ceiling", status.Ceiling, "ft", drift, "no fresh ceiling") : null,
             Thresholds = [Row("Preparation", status.Thresholds.Preparation), Row("LVP in force", status.Thresholds.Active)],
             Notices = notices,
+            PhaseNotes = StatusNotes.For(status),
             Waiting = waiting,
             Teams = teams,
             ItemsSummary = summary,
@@ -314,7 +318,7 @@ public sealed class WallViewModel
 
     private static (List<WallTeam> Teams, string Summary) BuildTeams(IReadOnlyList<ChecklistItemView> items, DateTimeOffset now)
     {
-        var live = items.Where(i => i.Status is ItemStatus.Open or ItemStatus.Done).ToList();
+        var live = items.Where(i => i.Status is ItemStatus.Open or ItemStatus.Done or ItemStatus.NotApplicable).ToList();
         var open = live.Where(i => i.Status == ItemStatus.Open).ToList();
         var late = open.Count(i => i.Overdue);
         var summary = open.Count == 0

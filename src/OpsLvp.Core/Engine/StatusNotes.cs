@@ -1,0 +1,28 @@
+namespace OpsLvp.Core.Engine;
+
+/// <summary>
+/// The short notes every screen shows beside the phase (docs/engine.md R13, R15): one wording for wall, console and
+/// tablet. Empty when there is nothing to add to the phase name.
+/// </summary>
+public static class StatusNotes
+{
+    /// <summary>The notes for <paramref name="status"/>, most important first.</summary>
+    public static IReadOnlyList<string> For(EngineStatus status)
+    {
+        ArgumentNullException.ThrowIfNull(status);
+        var notes = new List<string>();
+        if (status.ConditionsMetSafeguardsIncomplete)
+        {
+            notes.Add($"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(", ", status.SafeguardsOutstanding)} open");
+        }
+        if (status.SafeguardsOverride is { } o)
+        {
+            notes.Add($"in force over open safeguards: override by {o.Actor} at {Fmt.Time(o.At)} ({o.Reason})");
+        }
+        if (status.RelaxedAgainstConditions is { } r)
+        {
+            notes.Add($"relaxed by {r.Actor} against conditions ({Fmt.Name(r.From)} -> {Fmt.Name(r.To)} at {Fmt.Time(r.At)})");
+        }
+        return notes;
+    }
+}
