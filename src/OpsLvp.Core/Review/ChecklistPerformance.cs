@@ -50,6 +50,16 @@ public sealed record ChecklistPerformance(
                         ticked.Outcome = "done";
                     }
                     break;
+                case "item_not_applicable":
+                    // counts as done for safeguards (docs/engine.md R13); the outcome says which
+                    if (Latest(items, e.Str("item")) is { } marked)
+                    {
+                        marked.DoneAt = e.At;
+                        marked.DoneBy = e.Str("actor");
+                        marked.DoneForTeam = null;
+                        marked.Outcome = "not_applicable";
+                    }
+                    break;
                 case "item_unticked":
                     if (Latest(items, e.Str("item")) is { } unticked)
                     {

@@ -25,11 +25,23 @@ public static class RecordedCommands
             {
                 "item_ticked" => new ActionRow(e.At, actor, "tick", e.Str("item") ?? "", e.Str("team") ?? "", e.Str("note") ?? ""),
                 "item_unticked" => new ActionRow(e.At, actor, "untick", e.Str("item") ?? "", "", e.Str("reason") ?? ""),
+                "item_not_applicable" => new ActionRow(e.At, actor, "not_applicable", e.Str("item") ?? "", "", e.Str("reason") ?? ""),
                 "confirmation" => new ActionRow(e.At, actor, "confirm", "", "", e.Str("reason") ?? ""),
                 "alarm_acknowledged" => new ActionRow(e.At, actor, "ack", e.Str("key") ?? "", "", ""),
+                "manual_action" when e.Str("action") == "override_safeguards" => null,
                 "manual_action" => Manual(e, actor),
                 _ => null,
             };
+            if (e.Name == "manual_action" && e.Str("action") == "override_safeguards")
+            {
+                // follows its declare at the same instant (docs/engine.md R13): the actions file says "override" there
+                var declare = rows.FindLastIndex(r => r.Action == "declare" && r.Time == e.At && r.Actor == actor);
+                if (declare < 0)
+                {
+                    throw new FormatException($"manual_action at {e.At:O}: override_safeguards without its declare");
+                }
+                rows[declare] = rows[declare] with { Value = "override" };
+            }
             if (row is not null)
             {
                 rows.Add(row);

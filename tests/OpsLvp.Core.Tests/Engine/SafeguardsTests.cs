@@ -117,4 +117,16 @@ public class SafeguardsTests
         var proposal = Assert.Single(d.Events.OfType<TransitionProposed>());
         Assert.Equal((EngineDriver.At(70), Phase.Preparation, Phase.Active), (proposal.At, proposal.From, proposal.To));
     }
+
+    [Fact]
+    public void UndoingASafeguardWhileActiveIsPending_WithdrawsTheProposalSayingWhy()
+    {
+        var d = new EngineDriver(TestProfiles.Safeguarded() with { Confirm = [new TransitionRule(Phase.Preparation, Phase.Active)] });
+        d.WeatherFromTo(0, 60, 500);
+        d.Run(70, new TickItem("kim (invented)", "airside", "P1"), new TickItem("lee (invented)", "lighting", "P2"));
+        Assert.NotNull(d.State.Pending);
+        var withdrawn = Assert.Single(d.Run(80, new UntickItem(Dm, "P2", "stop bar 3 unserviceable (invented)")).OfType<ProposalWithdrawn>());
+        Assert.Equal("LVP conditions met — safeguards incomplete: P2 open", withdrawn.Reason);
+        Assert.Equal(Phase.Preparation, d.State.Phase);
+    }
 }

@@ -142,6 +142,30 @@ public sealed class EpisodeModelTests
     }
 
     [Fact]
+    public void RecordedCommands_NotApplicableAndSafeguardsOverride_ReplayAsTheyWereGiven()
+    {
+        // docs/engine.md R13: the what-if replays an override as "declare active, override" and a not-applicable mark
+        List<RecordedEvent> events =
+        [
+            .. new EngineEvent[]
+            {
+                new ManualActionApplied(M(1), "dm.invented", "declare", "declared active (hold)", "fog (invented)"),
+                new ManualActionApplied(M(1), "dm.invented", "override_safeguards", "active declared with safeguards open: P1, P2", "fog (invented)"),
+                new ItemMarkedNotApplicable(M(2), "P2", "dm.invented", "no stop bars (invented)"),
+            }.Select(RecordedEvent.FromEvent),
+        ];
+        var rows = RecordedCommands.FromEvents(events);
+        Assert.Equal(["declare active override", "not_applicable P2 "], rows.Select(r => $"{r.Action} {r.Target} {r.Value}"));
+        var commands = RecordedCommands.ToCommands(rows, "test");
+        Assert.Equal("fog (invented)", Assert.IsType<DeclarePhase>(commands[0].Command).SafeguardsOverride);
+        Assert.Equal("no stop bars (invented)", Assert.IsType<MarkNotApplicable>(commands[1].Command).Reason);
+        var perf = ChecklistPerformance.Compute(
+            [RecordedEvent.FromEvent(new ChecklistOpened(M(1), Phase.Preparation, ["P1", "P2"])), .. events],
+            TestProfiles.Standard(), M(0), M(10));
+        Assert.Equal(("not_applicable", (DateTimeOffset?)M(2)), (perf.Items.Single(i => i.ItemId == "P2").Outcome, perf.Items.Single(i => i.ItemId == "P2").DoneAt));
+    }
+
+    [Fact]
     public void RecordedEvent_NotAnEvent_SaysWhatIsMissing()
     {
         var ex = Assert.Throws<FormatException>(() => RecordedEvent.Parse("{\"time\":\"2026-12-01T03:00:00Z\"}"));
