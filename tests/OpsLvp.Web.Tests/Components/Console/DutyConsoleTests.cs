@@ -200,4 +200,57 @@ public sealed class DutyConsoleTests : LiveComponentTest
         var cut = RenderConsole();
         Assert.Equal(expected, cut.Find("[data-testid=console-phase]").TextContent.Trim());
     }
+
+    [Fact]
+    public void DeclareOverOpenSafeguards_SendsDeclarePhaseWithTheOverrideReason()
+    {
+        // docs/engine.md R13
+        SignIn(Dm, Roles.DutyManager);
+        Live.Set(TestSnapshots.Make(1, phase: Phase.Preparation));
+        var cut = RenderConsole();
+
+        cut.Find("[data-testid=console-declare-override]").Click();
+        cut.WaitForElement("[data-testid=reason-dialog]");
+        TypeReason(cut, "tower asks for LVP now (invented)");
+        cut.Find("[data-testid=reason-submit]").Click();
+
+        cut.WaitForAssertion(() => Assert.Equal(
+            new DeclarePhase(Dm, Phase.Active, "tower asks for LVP now (invented)", "tower asks for LVP now (invented)"),
+            Assert.Single(Commands.Calls).Command));
+    }
+
+    [Fact]
+    public void ConditionsMetWithSafeguardsOpen_IsSaidBesideThePhase()
+    {
+        // docs/engine.md R13, R15 (StatusNotes wording)
+        SignIn(Dm, Roles.DutyManager);
+        var snapshot = TestSnapshots.Make(1, phase: Phase.Preparation);
+        Live.Set(snapshot with
+        {
+            Status = snapshot.Status with
+            {
+                ConditionsMetSafeguardsIncomplete = true,
+                SafeguardsOutstanding = ["P1"],
+                RelaxedAgainstConditions = null,
+            },
+        });
+        var cut = RenderConsole();
+        Assert.Equal("LVP conditions met — safeguards incomplete: P1 open", Assert.Single(cut.FindAll("[data-testid=console-phase-note]")).TextContent.Trim());
+    }
+
+    [Fact]
+    public void OpenSafeguard_CanBeMarkedNotApplicable_WithAReason()
+    {
+        SignIn(Dm, Roles.DutyManager);
+        var snapshot = TestSnapshots.Make(1, phase: Phase.Preparation);
+        Live.Set(snapshot with { Status = snapshot.Status with { SafeguardsOutstanding = ["P2"] } });
+        var cut = RenderConsole();
+
+        cut.Find("[data-testid=console-not-applicable]").Click();
+        cut.WaitForElement("[data-testid=reason-dialog]");
+        TypeReason(cut, "no stop bars on this runway (invented)");
+        cut.Find("[data-testid=reason-submit]").Click();
+
+        cut.WaitForAssertion(() => Assert.Equal(new MarkNotApplicable(Dm, "P2", "no stop bars on this runway (invented)"), Assert.Single(Commands.Calls).Command));
+    }
 }

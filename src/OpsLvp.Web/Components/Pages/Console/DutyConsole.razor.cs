@@ -106,6 +106,12 @@ public partial class DutyConsole : LiveComponentBase
             "Declare active anyway", Color.Error,
             reason => new DeclarePhase(_caller.Name, Phase.Active, reason, reason));
 
+    private Task NotApplicableAsync(string itemId) =>
+        AskAndRunAsync($"Mark {itemId} not applicable",
+            $"Mark the safeguard {itemId} not applicable. It then counts as done (docs/engine.md R13); the reason is audited.",
+            "Not applicable", Color.Warning,
+            reason => new MarkNotApplicable(_caller.Name, itemId, reason));
+
     private Task CancelAsync() =>
         AskAndRunAsync("Cancel LVP", "Cancel: active goes to cancellation, preparation goes to normal, even against the conditions.", "Cancel LVP", Color.Info,
             reason => new CancelLvp(_caller.Name, reason));
