@@ -40,4 +40,7 @@ public sealed record AerodromeProfile
     public IReadOnlyList<TransitionRule> Confirm { get; init; } = [];
 
     public ChecklistSet Checklists { get; init; } = new();
+
+    /// <summary>Optional: when forecasts (TAF, TREND) count as deterioration (docs/forecasts.md); null when not set.</summary>
+    public ForecastSettings? Forecast { get; init; }
 }
