@@ -95,6 +95,14 @@ public sealed class ForecastSettingsValidatorTests
     }
 
     [Fact]
+    public void DemoProfile_HasAValidForecastSection()
+    {
+        // seed-demo/profile.json: illustrative, invented values (docs/forecasts.md).
+        var demo = ProfileValidator.LoadValidated(Path.Combine(ProfileFixtures.RepoRoot(), "seed-demo", "profile.json"));
+        Assert.Equal(Good(), demo.Forecast);
+    }
+
+    [Fact]
     public void ForecastSection_RoundTripsThroughJson()
     {
         var json = ProfileLoader.Serialize(ProfileFixtures.Valid() with { Forecast = Good() });
