@@ -12,17 +12,16 @@ public static class ForecastTrigger
     /// <summary>
     /// Decides the automatic flag.
     /// <list type="number">
-    /// <item>Forecasts issued after <paramref name="now"/> are ignored. Of the rest, only the newest TAF (by issue time;
-    /// on a tie the later in the list) and the newest TREND are considered: an amended or later TAF replaces the one
-    /// before, a <c>CNL</c> TAF replaces it with nothing.</item>
-    /// <item>A considered forecast whose validity has ended (<c>ValidUntil ≤ now</c>) counts for nothing.</item>
+    /// <item>Forecasts issued after <paramref name="now"/> are ignored, and so is every part of a forecast whose
+    /// validity has ended (<c>ValidUntil ≤ now</c>): an expired forecast never counts.</item>
+    /// <item>For each instant, the newest forecast (by issue time; on a tie the later in the list) whose validity covers
+    /// it speaks for it, TAF or TREND alike: an amended or later TAF replaces the one before over its validity, a
+    /// <c>CNL</c> TAF replaces it with nothing, a newer TREND speaks for its two hours.</item>
     /// <item>A part counts when its kind is counted (base, <c>BECMG</c>, <c>FM</c> always; <c>TEMPO</c> when
     /// <see cref="ForecastSettings.CountTempo"/>; <c>PROB30</c>/<c>PROB40</c> when counted, and before <c>TEMPO</c> only
     /// when <c>TEMPO</c> counts too), its visibility is below <see cref="ForecastSettings.VisibilityBelowM"/> (an <c>M</c>
-    /// value at or below it) or its ceiling below <see cref="ForecastSettings.CeilingBelowFt"/>, and its window overlaps
-    /// [now, now + horizon).</item>
-    /// <item>Where the newer of the TAF and the TREND covers an instant, the older one does not speak for it: a part of the
-    /// older one counts only for time outside the newer one's validity.</item>
+    /// value at or below it) or its ceiling below <see cref="ForecastSettings.CeilingBelowFt"/>, and some instant of its
+    /// window within [now, now + horizon) is one its forecast speaks for.</item>
     /// </list>
     /// The flag is on when some part counts; the source is the part whose counted time starts first (list order on a tie).
     /// </summary>
@@ -32,25 +31,23 @@ public static class ForecastTrigger
     {
         ArgumentNullException.ThrowIfNull(forecasts);
         ArgumentNullException.ThrowIfNull(settings);
-        var received = forecasts.Where(f => f.IssuedAt <= now).ToList();
-        var newest = new[] { ForecastOrigin.Taf, ForecastOrigin.Trend }
-            .Select(o => received.LastOrDefault(f => f.Origin == o && f.IssuedAt == received.Where(x => x.Origin == o).Max(x => x.IssuedAt)))
-            .OfType<ResolvedForecast>()
-            .ToList();
-        var valid = newest.Where(f => f.ValidUntil > now && !f.Cancelled).ToList();
-        if (valid.Count == 0)
+        // Oldest first; a stable sort keeps list order on equal issue times, so the later entry counts as newer.
+        var received = forecasts.Where(f => f.IssuedAt <= now).OrderBy(f => f.IssuedAt).ToList();
+        var current = received.Where(f => f.ValidUntil > now).ToList();
+        if (current.Count == 0)
         {
-            return new ForecastTriggerResult(false, null, newest.Count == 0
+            return new ForecastTriggerResult(false, null, received.Count == 0
                 ? "no forecast received"
-                : $"no valid forecast: {string.Join("; ", newest.Select(f => $"{Name(f)} {(f.Cancelled ? "cancelled" : $"expired at {f.ValidUntil:ddHHmm}Z")}"))}");
+                : $"no valid forecast: the newest, {Name(received[^1])}, expired at {received[^1].ValidUntil:ddHHmm}Z");
         }
 
         var horizonEnd = now + TimeSpan.FromMinutes(settings.HorizonMinutes);
         ForecastTriggerSource? first = null;
         var firstStart = DateTimeOffset.MaxValue;
-        foreach (var forecast in valid)
+        for (var i = 0; i < current.Count; i++)
         {
-            var newer = valid.FirstOrDefault(o => !ReferenceEquals(o, forecast) && o.IssuedAt > forecast.IssuedAt);
+            var forecast = current[i];
+            var newer = current.Skip(i + 1).ToList();
             foreach (var part in forecast.Parts)
             {
                 if (!Counts(part.Change, settings))
@@ -63,14 +60,7 @@ public static class ForecastTrigger
                 {
                     continue;
                 }
-                var from = Max(part.From, now);
-                var until = Min(part.Until, horizonEnd);
-                if (newer is not null)
-                {
-                    // The newer forecast speaks for its own validity; keep the earliest stretch outside it.
-                    (from, until) = from < newer.ValidFrom ? (from, Min(until, newer.ValidFrom)) : (Max(from, newer.ValidUntil), until);
-                }
-                if (from < until && from < firstStart)
+                if (FirstSpokenInstant(Max(part.From, now), Min(part.Until, horizonEnd), newer) is { } from && from < firstStart)
                 {
                     firstStart = from;
                     first = new ForecastTriggerSource(forecast.Origin, forecast.Station, forecast.Text, part.Group, part.From, part.Until, visibility, ceiling);
@@ -79,8 +69,25 @@ public static class ForecastTrigger
         }
         return first is null
             ? new ForecastTriggerResult(false, null,
-                $"no counted part of {string.Join(" or ", valid.Select(Name))} forecasts deterioration before {horizonEnd:ddHHmm}Z")
+                $"no counted part of the newest forecasts ({string.Join(", ", current.Select(f => Name(f) + (f.Cancelled ? " cancelled" : "")))}) forecasts deterioration before {horizonEnd:ddHHmm}Z")
             : new ForecastTriggerResult(true, first, $"{first.ShortForm} from {first.ReportText}");
+    }
+
+    /// <summary>The first instant of [from, until) that no newer forecast's validity covers, or null.</summary>
+    private static DateTimeOffset? FirstSpokenInstant(DateTimeOffset from, DateTimeOffset until, IReadOnlyList<ResolvedForecast> newer)
+    {
+        var pieces = new List<(DateTimeOffset From, DateTimeOffset Until)>();
+        if (from < until)
+        {
+            pieces.Add((from, until));
+        }
+        foreach (var n in newer)
+        {
+            pieces = pieces.SelectMany(p => new[] { (p.From, Min(p.Until, n.ValidFrom)), (Max(p.From, n.ValidUntil), p.Until) })
+                .Where(p => p.Item1 < p.Item2)
+                .ToList();
+        }
+        return pieces.Count == 0 ? null : pieces.Min(p => p.From);
     }
 
     /// <summary>Whether parts from <paramref name="change"/> (null: the base forecast) can set the flag under <paramref name="settings"/>.</summary>

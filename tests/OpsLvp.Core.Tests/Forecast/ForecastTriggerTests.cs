@@ -178,6 +178,18 @@ public sealed class ForecastTriggerTests
     }
 
     [Fact]
+    public void NextTafIssuedBeforeItsValidity_TheOlderSpeaksUntilTheNewerBegins()
+    {
+        var older = Taf("TAF XDMO 010500Z 0106/0206 9999 SCT030 TEMPO 0111/0113 0300 FG", At(5, 2));
+        var next = Taf("TAF XDMO 011100Z 0112/0218 24008KT 9999 SCT030", At(11, 2));
+        var before = ForecastTrigger.Evaluate([older, next], At(11, 5), Settings());
+        Assert.True(before.On);
+        Assert.Equal(At(11), before.Source!.From);
+        // From 1200 the newer TAF covers the rest of the TEMPO window and forecasts no fog.
+        Assert.False(ForecastTrigger.Evaluate([older, next], At(12), Settings()).On);
+    }
+
+    [Fact]
     public void CancelledTaf_ClearsTheFlag()
     {
         var original = Taf(TempoFog, At(5, 2));
