@@ -55,6 +55,18 @@ public sealed class TrendDecoderTests
         Assert.Equal(new ForecastTime(null, 6, 40), change.Window.From);
     }
 
+    [Fact]
+    public void TrendJson_WritesEachChangeWithItsTimes()
+    {
+        var o = System.Text.Json.Nodes.JsonNode.Parse(TafJson.Write(TrendDecoder.Decode("BECMG AT0730 0600 FG NOSIG")))!;
+        var changes = o["changes"]!.AsArray();
+        Assert.Equal("BECMG", changes[0]!["kind"]!.GetValue<string>());
+        Assert.Equal("0730", changes[0]!["at"]!.GetValue<string>());
+        Assert.Null(changes[0]!["from"]);
+        Assert.Equal(600, changes[0]!["visibility_m"]!.GetValue<double>());
+        Assert.Equal("NOSIG", changes[1]!["kind"]!.GetValue<string>());
+    }
+
     [Theory]
     [InlineData("0400 FG", "does not start a TREND")]
     [InlineData("TEMPO FM2560 0400 FG", "out of range")]
