@@ -43,8 +43,9 @@ public readonly record struct ForecastTime
         var timeOfDay = TimeSpan.FromHours(Hour) + TimeSpan.FromMinutes(Minute);
         if (Day is not { } day)
         {
+            var wholeMinute = new DateTimeOffset(anchor.Year, anchor.Month, anchor.Day, anchor.Hour, anchor.Minute, 0, TimeSpan.Zero);
             var candidate = new DateTimeOffset(anchor.Date, TimeSpan.Zero) + timeOfDay;
-            return candidate >= anchor.AddSeconds(-anchor.Second).AddMilliseconds(-anchor.Millisecond) ? candidate : candidate.AddDays(1);
+            return candidate >= wholeMinute ? candidate : candidate.AddDays(1);
         }
         var month = new DateTime(anchor.Year, anchor.Month, 1, 0, 0, 0, DateTimeKind.Utc);
         DateTimeOffset? best = null;

@@ -19,6 +19,15 @@ public sealed class ResolvedForecastTests
     }
 
     [Fact]
+    public void Hour24_IsMidnightAtTheEndOfThatDay()
+    {
+        var f = ResolvedForecast.FromTaf(TafDecoder.Decode("TAF XDMO 010500Z 0106/0124 9999 SCT030 TEMPO 0120/0124 0300 FG"),
+            new DateTimeOffset(2026, 3, 1, 5, 0, 0, TimeSpan.Zero));
+        Assert.Equal(new DateTimeOffset(2026, 3, 2, 0, 0, 0, TimeSpan.Zero), f.ValidUntil);
+        Assert.Equal(new DateTimeOffset(2026, 3, 2, 0, 0, 0, TimeSpan.Zero), f.Parts[^1].Until);
+    }
+
+    [Fact]
     public void Becmg_OverlapsTheConditionsBeforeItDuringItsWindow()
     {
         var f = ResolvedForecast.FromTaf(
