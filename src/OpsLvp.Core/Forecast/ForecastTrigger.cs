@@ -24,6 +24,7 @@ public static class ForecastTrigger
     /// window within [now, now + horizon) is one its forecast speaks for.</item>
     /// </list>
     /// The flag is on when some part counts; the source is the part whose counted time starts first (list order on a tie).
+    /// Pass only the aerodrome's own forecasts: a forecast for another station would speak over them.
     /// </summary>
     /// <param name="countVerticalVisibility">Whether vertical visibility counts as ceiling (profile <c>verticalVisibilityIsCeiling</c>).</param>
     public static ForecastTriggerResult Evaluate(
