@@ -8,6 +8,7 @@ public static class CliApp
     [
         new Commands.RvrCommand(),
         new Commands.MetarDecodeCommand(),
+        new Commands.TafDecodeCommand(),
         new Commands.AuditVerifyCommand(),
         new Commands.ReplayCommand(),
     ];

@@ -52,4 +52,7 @@ public sealed record AerodromeProfile
     public bool InForceNeedsSafeguards { get; init; } = true;
 
     public ChecklistSet Checklists { get; init; } = new();
+
+    /// <summary>Optional: when forecasts (TAF, TREND) count as deterioration (docs/forecasts.md); null when not set.</summary>
+    public ForecastSettings? Forecast { get; init; }
 }

@@ -46,6 +46,7 @@ public static class ProfileValidator
         CheckThresholds(check, profile.Thresholds, profile, runways);
         CheckConfirm(check, profile.Confirm);
         CheckChecklists(check, profile.Checklists, teams);
+        problems.AddRange(ForecastSettingsValidator.Validate(profile.Forecast));
         return new ValidationResult(problems);
     }
 
