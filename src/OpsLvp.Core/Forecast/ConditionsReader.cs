@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using System.Text.RegularExpressions;
 using OpsLvp.Core.Metar;
 using OpsLvp.Core.Units;

@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Units;
 
@@ -117,11 +118,11 @@ public static class ForecastTrigger
 
     private static Metres? VisibilityBelow(ForecastConditions c, ForecastSettings settings)
     {
-        if (settings.VisibilityBelowM is not { } limit || c.Cavok || c.Visibility is not { } v || v.Qualifier == Metar.RvrQualifier.Above)
+        if (settings.VisibilityBelowM is not { } limit || c.Cavok || c.Visibility is not { } v || v.Qualifier == RvrQualifier.Above)
         {
             return null;
         }
-        var below = v.Qualifier == Metar.RvrQualifier.Below ? v.Distance.Value <= limit : v.Distance.Value < limit;
+        var below = v.Qualifier == RvrQualifier.Below ? v.Distance.Value <= limit : v.Distance.Value < limit;
         return below ? v.Distance : null;
     }
 

@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using System.Text;
 using System.Text.Json;
 using OpsLvp.Core.Metar;

@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using System.Globalization;
 using System.Text.RegularExpressions;
 using OpsLvp.Core.Units;

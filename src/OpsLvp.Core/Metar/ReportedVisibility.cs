@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Units;
 
 namespace OpsLvp.Core.Metar;

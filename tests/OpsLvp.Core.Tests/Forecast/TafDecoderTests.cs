@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Forecast;
 using OpsLvp.Core.Metar;
 using OpsLvp.Core.Units;
