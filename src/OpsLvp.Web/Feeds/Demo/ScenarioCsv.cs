@@ -65,7 +65,8 @@ public static class ScenarioCsv
 
                 var errors = new List<string>();
                 var stamp = ParseStamp(fields[0], ref absoluteStyle, errors);
-                for (var i = 1; i <= 3; i++)
+                // the target is the actions file's to ask for: confirm, cancel and the like have none (docs/replay.md)
+                for (var i = 1; i <= 2; i++)
                 {
                     if (fields[i].Length == 0)
                     {

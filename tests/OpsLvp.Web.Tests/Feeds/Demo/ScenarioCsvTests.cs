@@ -79,6 +79,17 @@ public sealed class ScenarioCsvTests
         Assert.Equal(TimeSpan.FromMinutes(3), scenario.Duration);
     }
 
+    [Fact]
+    public void ActionWithoutATarget_LikeTheDutyManagersConfirm_IsRead()
+    {
+        // the demo's scripted duty manager confirms active -> cancellation (seed-demo/scenarios/demo-night.actions.csv)
+        var scenario = ScenarioCsv.Load("time,sensor,kind,value,status\n00:00:00,T1,rvr,1500,ok\n",
+            "time,actor,action,target,value,reason\n00:05:00,r.vale,confirm,,,recovery held (invented)\n");
+
+        Assert.Equal(new ScenarioAction(TimeSpan.FromMinutes(5), "r.vale", "confirm", "", null, "recovery held (invented)"), Assert.Single(scenario.Actions));
+        Assert.Empty(scenario.ActionErrors);
+    }
+
     [Theory]
     [InlineData("sensor,time,kind,value,status\n", "readings CSV line 1: header must be 'time,sensor,kind,value,status'")]
     [InlineData("# only a comment\n", "readings CSV is empty: header 'time,sensor,kind,value,status' expected")]
