@@ -13,9 +13,10 @@ namespace OpsLvp.Core.Optics;
 /// <item>Each raw sample is assessed with <see cref="RvrCalculator"/>: the profile's light intensity at the step in
 /// use, the latest background luminance of the sensor's <see cref="SensorConfig.LuminanceSensor"/> (or of any
 /// luminance sensor when none is named) that is still fresh (the profile's maximum age for luminance, 120 s
-/// without one). With no fresh luminance the <see cref="LuminanceBand.Day"/> band is used: it gives the lowest
-/// lights range, so a missing luminance can only make RVR lower, never higher (common practice: fail towards
-/// caution).</item>
+/// without one). With no fresh luminance the threshold that gives the lowest lights range is used
+/// (<see cref="RvrInputs.WithUnknownLuminance"/>: the bright-day band, 10⁻³ lx), so a missing luminance can only make
+/// RVR lower, never higher, and the derived reading is flagged <see cref="ReadingFlags.LuminanceUnknown"/> when any
+/// sample of its 1-minute mean was assessed so (docs/engine.md D1; common practice: fail towards caution).</item>
 /// <item>The derived RVR is the 1-minute mean of the sensor's assessed samples ending at the raw reading's time
 /// (ICAO Annex 3, App 3, §4.3.5 — from memory), reported on the Annex 3 scale
 /// (<see cref="RvrReporting.Report"/>: rounded down, 50 m for "M0050", 2000 m for "P2000").</item>
@@ -34,6 +35,9 @@ public sealed class RvrDerivation(AerodromeProfile profile)
 
     private readonly Dictionary<string, Reading> _luminance = new(StringComparer.Ordinal);
     private readonly Dictionary<string, List<RvrSample>> _samples = new(StringComparer.Ordinal);
+
+    // Per sensor: times of the samples (still in the 1-minute window) assessed without a fresh luminance.
+    private readonly Dictionary<string, List<DateTimeOffset>> _unknownLuminance = new(StringComparer.Ordinal);
 
     /// <summary>The profile's light intensity at the step in use (10 000 cd when the step has none, the common top step).</summary>
     public Candela LightIntensity { get; } = new(profile.Lights.IntensityCdByStep.TryGetValue(profile.Lights.StepInUse, out var cd) ? cd : 10_000);
@@ -67,13 +71,14 @@ public sealed class RvrDerivation(AerodromeProfile profile)
         {
             return [];
         }
-        inputs = Luminance(sensor, reading.Time) is { } b
-            ? inputs with { BackgroundLuminance = b }
-            : inputs with { Period = LuminanceBand.Day };
-        if (profile.Lights.ContinuousThreshold)
-        {
-            inputs = inputs with { ThresholdModel = ThresholdModel.Continuous };
-        }
+        var luminance = Luminance(sensor, reading.Time);
+        inputs = luminance is { } b
+            ? inputs with
+            {
+                BackgroundLuminance = b,
+                ThresholdModel = profile.Lights.ContinuousThreshold ? ThresholdModel.Continuous : ThresholdModel.AnnexBands,
+            }
+            : inputs.WithUnknownLuminance();
         RvrAssessment assessment;
         try
         {
@@ -95,8 +100,19 @@ public sealed class RvrDerivation(AerodromeProfile profile)
         }
         samples.Add(new RvrSample(reading.Time, assessment.Rvr));
         samples.RemoveAll(s => s.Time <= reading.Time - RvrAveraging.OneMinute);
+        if (!_unknownLuminance.TryGetValue(sensor.Id, out var unknown))
+        {
+            unknown = [];
+            _unknownLuminance[sensor.Id] = unknown;
+        }
+        if (luminance is null)
+        {
+            unknown.Add(reading.Time);
+        }
+        unknown.RemoveAll(t => t <= reading.Time - RvrAveraging.OneMinute);
         var mean = RvrAveraging.OneMinuteMean(samples, reading.Time) ?? assessment.Rvr;
-        return [new Reading(reading.Time, sensor.Id, ReadingKind.Rvr, RvrReporting.Report(mean).Reported.Value)];
+        var flags = unknown.Count > 0 ? ReadingFlags.LuminanceUnknown : ReadingFlags.None;
+        return [new Reading(reading.Time, sensor.Id, ReadingKind.Rvr, RvrReporting.Report(mean).Reported.Value, Flags: flags)];
     }
 
     private CandelaPerSquareMetre? Luminance(SensorConfig sensor, DateTimeOffset at)

@@ -49,12 +49,59 @@ public sealed class RvrDerivationTests
     }
 
     [Fact]
-    public void NoFreshLuminance_UsesTheDayBand_WhichGivesALowerRvr()
+    public void NoFreshLuminance_UsesTheBrightDayThreshold_AndFlagsTheValueLuminanceUnknown()
+    {
+        // docs/engine.md D1. DOMAIN.md check (Allard's law, Annex 3 Att. D bands — from memory): forward-scatter MOR
+        // 300 m, 10 000 cd, luminance 20 000 cd/m² (bright day, 10⁻³ lx) gives report 0400; the normal-day band
+        // (10⁻⁴ lx) the old fallback used gave 0550.
+        var sigmaPerKm = -Math.Log(0.05) / 0.300;
+        var d = new RvrDerivation(Profile());
+        var derived = Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        Assert.Equal(400, derived.Value);
+        Assert.Equal(Expected(sigmaPerKm, 20_000), derived.Value);
+        Assert.Equal(550, Expected(sigmaPerKm, 4_000));
+        Assert.Equal(ReadingFlags.LuminanceUnknown, derived.Flags);
+    }
+
+    [Fact]
+    public void NoFreshLuminance_WithTheContinuousThresholdOption_StillUsesTheBrightDayBand()
+    {
+        var profile = Profile() with { Lights = Profile().Lights with { ContinuousThreshold = true } };
+        var sigmaPerKm = -Math.Log(0.05) / 0.300;
+        var derived = Assert.Single(new RvrDerivation(profile).Observe(new Reading(T0, "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        // same DOMAIN.md check as above: 0400
+        Assert.Equal(400, derived.Value);
+        Assert.Equal(ReadingFlags.LuminanceUnknown, derived.Flags);
+    }
+
+    [Fact]
+    public void FreshLuminance_GivesAnUnflaggedValue_AndTheFlagLeavesWithTheLastUnknownSampleOfTheMinute()
     {
         var d = new RvrDerivation(Profile());
-        var derived = Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10)));
-        Assert.Equal(Expected(10, 5_000), derived.Value);
-        Assert.True(derived.Value < 950);
+        Assert.Equal(ReadingFlags.LuminanceUnknown, Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10))).Flags);
+        d.Observe(new Reading(T0.AddSeconds(10), "lum", ReadingKind.BackgroundLuminance, 1.5));
+        // the 1-minute mean still holds the sample assessed without luminance
+        Assert.Equal(ReadingFlags.LuminanceUnknown, Assert.Single(d.Observe(new Reading(T0.AddSeconds(30), "fs1", ReadingKind.Extinction, 10))).Flags);
+        d.Observe(new Reading(T0.AddSeconds(70), "lum", ReadingKind.BackgroundLuminance, 1.5));
+        Assert.Equal(ReadingFlags.None, Assert.Single(d.Observe(new Reading(T0.AddSeconds(75), "fs1", ReadingKind.Extinction, 10))).Flags);
+    }
+
+    [Theory]
+    [InlineData(1.0)]
+    [InlineData(3.0)]
+    [InlineData(10.0)]
+    [InlineData(30.0)]
+    [InlineData(100.0)]
+    public void UnknownLuminanceFallback_IsNeverAboveTheRvrOfAnyBand(double sigmaPerKm)
+    {
+        // Allard's law: a higher E_T always shortens the lights range, so the fallback band bounds every band from below
+        var fallback = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(sigmaPerKm), LightIntensity = new(10_000) }.WithUnknownLuminance()).Rvr;
+        foreach (var band in Enum.GetValues<LuminanceBand>())
+        {
+            var rvr = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(sigmaPerKm), LightIntensity = new(10_000), Period = band }).Rvr;
+            Assert.True(fallback <= rvr, $"σ {sigmaPerKm}/km: fallback {fallback} above {band} {rvr}");
+        }
+        Assert.Equal(LuminanceBand.BrightDay, IlluminanceThreshold.UnknownLuminanceBand);
     }
 
     [Fact]
