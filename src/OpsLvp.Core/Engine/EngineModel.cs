@@ -29,7 +29,7 @@ internal sealed class EngineModel
         {
             var direction = DirectionInUse(runway);
             runwayPositions.Add((runway, direction));
-            foreach (var sensor in Sensors.Values.Where(s => ReadingScreen.GivesRvr(s.Type) && s.Runway == runway.Id))
+            foreach (var sensor in Sensors.Values.Where(s => SensorKinds.GivesRvr(s.Type) && s.Runway == runway.Id))
             {
                 if (sensor.Sites is not null && sensor.Sites.TryGetValue(direction, out var position)
                     && profile.GoverningPositions.Contains(position))
@@ -61,10 +61,10 @@ internal sealed class EngineModel
         CeilometerKeys = Ceilometers.Select(id => CeilingKinds.Select(k => Key(id, k)).ToArray()).ToArray();
         SensorEntries = Sensors.Values.Select(s => new SensorEntry(
             s,
-            ReadingScreen.KindsProduced(s.Type).ToArray(),
-            ReadingScreen.KindsProduced(s.Type).Select(k => Key(s.Id, k)).ToArray(),
+            SensorKinds.Produced(s.Type).ToArray(),
+            SensorKinds.Produced(s.Type).Select(k => Key(s.Id, k)).ToArray(),
             _keys[s.Id],
-            MaxAge(ReadingScreen.PrimaryKind(s.Type)),
+            MaxAge(SensorKinds.Primary(s.Type)),
             AlarmKeys.SensorSilent(s.Id),
             $"sensor {s.Id} silent past its maximum age")).ToArray();
         SensorsById = SensorEntries.ToDictionary(e => e.Sensor.Id, StringComparer.Ordinal);

@@ -4,7 +4,8 @@ using OpsLvp.Core.Readings;
 namespace OpsLvp.Core.Engine;
 
 /// <summary>
-/// The physical ranges and sensor capabilities the engine screens readings against (DESIGN R1). Ranges are
+/// The physical ranges the engine screens readings against (docs/engine.md R1; the kinds each sensor type
+/// produces are in <see cref="SensorKinds"/>). Ranges are
 /// inclusive, chosen wide enough for any real instrument and narrow enough to catch unit and parsing errors
 /// (common practice, not from a standard): RVR 0–10 000 m, visibility 0–100 000 m, cloud base and vertical
 /// visibility 0–50 000 ft, extinction 0–1000 per km, transmittance 0–1, background luminance 0–100 000 cd/m².
@@ -31,32 +32,4 @@ public static class ReadingScreen
         var (min, max) = Range(kind);
         return double.IsFinite(value) && value >= min && value <= max;
     }
-
-    /// <summary>
-    /// The kinds a sensor type may send. RVR-capable instruments may also send the RVR their own system
-    /// computed and a visibility (MOR); raw kinds (extinction, transmittance, luminance) are accepted and kept
-    /// but only <see cref="ReadingKind.Rvr"/> readings govern the phase.
-    /// </summary>
-    public static IReadOnlyList<ReadingKind> KindsProduced(SensorType type) => type switch
-    {
-        SensorType.RvrSystem => [ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.Transmissometer => [ReadingKind.Transmittance, ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.ForwardScatter => [ReadingKind.Extinction, ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.Ceilometer => [ReadingKind.CloudBase, ReadingKind.VerticalVisibility],
-        SensorType.Visibility => [ReadingKind.Visibility],
-        SensorType.Luminance => [ReadingKind.BackgroundLuminance],
-        _ => [],
-    };
-
-    /// <summary>The kind whose maximum age decides when a sensor that never reported counts as silent.</summary>
-    public static ReadingKind PrimaryKind(SensorType type) => type switch
-    {
-        SensorType.RvrSystem or SensorType.Transmissometer or SensorType.ForwardScatter => ReadingKind.Rvr,
-        SensorType.Ceilometer => ReadingKind.CloudBase,
-        SensorType.Luminance => ReadingKind.BackgroundLuminance,
-        _ => ReadingKind.Visibility,
-    };
-
-    /// <summary>Whether the sensor type can give an RVR reading.</summary>
-    public static bool GivesRvr(SensorType type) => type is SensorType.RvrSystem or SensorType.Transmissometer or SensorType.ForwardScatter;
 }

@@ -30,7 +30,7 @@ internal static class StatusBuilder
             foreach (var position in Enum.GetValues<RvrPosition>())
             {
                 var sensor = model.Sensors.Values.FirstOrDefault(s =>
-                    ReadingScreen.GivesRvr(s.Type) && s.Runway == runway.Id
+                    SensorKinds.GivesRvr(s.Type) && s.Runway == runway.Id
                     && s.Sites is not null && s.Sites.TryGetValue(direction, out var p) && p == position);
                 var label = $"{direction} {position.ToString().ToUpperInvariant()}";
                 positions.Add(new PositionRvr(

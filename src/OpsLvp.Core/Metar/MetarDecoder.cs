@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.RegularExpressions;
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Units;
 
 namespace OpsLvp.Core.Metar;
@@ -460,7 +461,7 @@ public static partial class MetarDecoder
             var runway = m.Groups[1].Value;
             if (!m.Groups[3].Success)
             {
-                return new MetarRvr(runway, null, null, null, null, null, RvrReportedUnit.Metres, null, null);
+                return new MetarRvr(runway, null, null, RvrQualifier.None, RvrQualifier.None, null, RvrReportedUnit.Metres, null, null);
             }
             var feet = m.Groups[6].Success;
             var reported = Int(m.Groups[3].Value);
@@ -485,8 +486,8 @@ public static partial class MetarDecoder
         private static Metres ToMetres(int value, bool feet) =>
             new(feet ? Math.Floor(new Feet(value).ToMetres().Value) : value);
 
-        private static RvrQualifier? Qualifier(Group g) =>
-            !g.Success ? null : g.Value == "M" ? RvrQualifier.Below : RvrQualifier.Above;
+        private static RvrQualifier Qualifier(Group g) =>
+            !g.Success ? RvrQualifier.None : g.Value == "M" ? RvrQualifier.Below : RvrQualifier.Above;
 
         private static MetarCloudLayer ToCloud(Match m)
         {

@@ -1,5 +1,6 @@
 using System.Text;
 using System.Text.Json;
+using OpsLvp.Core.Reporting;
 
 namespace OpsLvp.Core.Metar;
 
@@ -123,7 +124,7 @@ public static class MetarJson
         w.WriteEndObject();
     }
 
-    private static string? Code(RvrQualifier? q) => q switch
+    private static string? Code(RvrQualifier q) => q switch
     {
         RvrQualifier.Below => "M",
         RvrQualifier.Above => "P",

@@ -1,3 +1,4 @@
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Units;
 
 namespace OpsLvp.Core.Metar;
@@ -8,14 +9,15 @@ namespace OpsLvp.Core.Metar;
 /// for a varying group. Values reported in feet are converted to metres and rounded down to the whole metre
 /// (the conservative direction, as Annex 3 rounds reported RVR down); <see cref="ReportedValue"/> and
 /// <see cref="ReportedMax"/> keep the numbers as written in <see cref="ReportedUnit"/>. A missing group
-/// (<c>R09/////</c>) has <see cref="Value"/> null.
+/// (<c>R09/////</c>) has <see cref="Value"/> null. <see cref="Qualifier"/> and <see cref="MaxQualifier"/> are
+/// <see cref="RvrQualifier.None"/> when the group carries no <c>M</c>/<c>P</c> (or has no maximum).
 /// </summary>
 public sealed record MetarRvr(
     string Runway,
     Metres? Value,
     Metres? Max,
-    RvrQualifier? Qualifier,
-    RvrQualifier? MaxQualifier,
+    RvrQualifier Qualifier,
+    RvrQualifier MaxQualifier,
     RvrTendency? Tendency,
     RvrReportedUnit ReportedUnit,
     int? ReportedValue,

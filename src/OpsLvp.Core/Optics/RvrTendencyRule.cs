@@ -1,3 +1,5 @@
+using OpsLvp.Core.Reporting;
+
 namespace OpsLvp.Core.Optics;
 
 /// <summary>

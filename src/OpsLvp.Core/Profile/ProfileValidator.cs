@@ -128,7 +128,7 @@ public static class ProfileValidator
             var path = $"sensors[{i}]";
             var sensor = sensors[i];
             var type = Name(sensor.Type);
-            if (IsRvrSensor(sensor.Type))
+            if (SensorKinds.GivesRvr(sensor.Type))
             {
                 CheckRvrPlacement(check, path, sensor, runways);
             }
@@ -240,12 +240,12 @@ public static class ProfileValidator
                 check.Add($"maxAgeSeconds.{Name(kind)}", $"is {seconds}; expected a maximum reading age in seconds > 0");
             }
         }
-        var produced = sensors.SelectMany(s => KindsOf(s.Type)).Distinct().Order();
+        var produced = sensors.SelectMany(s => SensorKinds.Produced(s.Type)).Distinct().Order();
         foreach (var kind in produced)
         {
             if (!maxAges.ContainsKey(kind))
             {
-                var who = sensors.First(s => KindsOf(s.Type).Contains(kind));
+                var who = sensors.First(s => SensorKinds.Produced(s.Type).Contains(kind));
                 check.Add($"maxAgeSeconds.{Name(kind)}", $"is missing; sensor '{who.Id}' ({Name(who.Type)}) produces {Name(kind)} readings, so a maximum age in seconds > 0 is needed (DESIGN R2)");
             }
         }
@@ -296,7 +296,7 @@ public static class ProfileValidator
         }
 
         var lvpRunways = runways.Values.Where(r => r.Lvp).Select(r => r.Id).ToHashSet(StringComparer.Ordinal);
-        var governingRvr = profile.Sensors.Any(s => IsRvrSensor(s.Type) && s.Runway is not null && lvpRunways.Contains(s.Runway)
+        var governingRvr = profile.Sensors.Any(s => SensorKinds.GivesRvr(s.Type) && s.Runway is not null && lvpRunways.Contains(s.Runway)
             && s.Sites is not null && s.Sites.Values.Any(p => profile.GoverningPositions.Contains(p)));
         if (usesRvr && !governingRvr)
         {
@@ -423,21 +423,6 @@ public static class ProfileValidator
             }
         }
     }
-
-    private static bool IsRvrSensor(SensorType type) =>
-        type is SensorType.RvrSystem or SensorType.Transmissometer or SensorType.ForwardScatter;
-
-    /// <summary>Reading kinds a sensor of <paramref name="type"/> may send (RVR sensors also send RVR itself).</summary>
-    public static IReadOnlyList<ReadingKind> KindsOf(SensorType type) => type switch
-    {
-        SensorType.RvrSystem => [ReadingKind.Rvr],
-        SensorType.Transmissometer => [ReadingKind.Rvr, ReadingKind.Transmittance],
-        SensorType.ForwardScatter => [ReadingKind.Rvr, ReadingKind.Extinction],
-        SensorType.Ceilometer => [ReadingKind.CloudBase, ReadingKind.VerticalVisibility],
-        SensorType.Visibility => [ReadingKind.Visibility],
-        SensorType.Luminance => [ReadingKind.BackgroundLuminance],
-        _ => [],
-    };
 
     private static string Name<T>(T value) where T : struct, Enum => JsonNamingPolicy.CamelCase.ConvertName(value.ToString());
 

@@ -12,7 +12,7 @@ namespace OpsLvp.Web.Engine;
 /// </summary>
 public sealed class RvrTrends(AerodromeProfile profile)
 {
-    private readonly List<string> _sensors = profile.Sensors.Where(s => s is not null && OpsLvp.Core.Engine.ReadingScreen.GivesRvr(s.Type)).Select(s => s.Id).ToList();
+    private readonly List<string> _sensors = profile.Sensors.Where(s => s is not null && SensorKinds.GivesRvr(s.Type)).Select(s => s.Id).ToList();
     private readonly Dictionary<string, List<RvrSample>> _samples = new(StringComparer.Ordinal);
 
     /// <summary>Adds an accepted RVR reading (other kinds are ignored).</summary>

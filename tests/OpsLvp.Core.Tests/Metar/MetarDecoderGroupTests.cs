@@ -1,4 +1,5 @@
 using OpsLvp.Core.Metar;
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Units;
 
 namespace OpsLvp.Core.Tests.Metar;
@@ -141,7 +142,7 @@ public sealed class MetarDecoderGroupTests
         Assert.Equal("26L", rvr.Runway);
         Assert.Equal(new Metres(550), rvr.Value);
         Assert.Null(rvr.Max);
-        Assert.Null(rvr.Qualifier);
+        Assert.Equal(RvrQualifier.None, rvr.Qualifier);
         Assert.Equal(RvrTendency.NoChange, rvr.Tendency);
         Assert.Equal(RvrReportedUnit.Metres, rvr.ReportedUnit);
     }
@@ -176,7 +177,7 @@ public sealed class MetarDecoderGroupTests
     public void Rvr_VaryingWithQualifiedMaximum_KeepsMaxQualifier()
     {
         var rvr = Assert.Single(Body("0400 R20/0450VP2000U FG").Rvr);
-        Assert.Null(rvr.Qualifier);
+        Assert.Equal(RvrQualifier.None, rvr.Qualifier);
         Assert.Equal(RvrQualifier.Above, rvr.MaxQualifier);
         Assert.Equal(new Metres(2000), rvr.Max);
     }

@@ -1,4 +1,5 @@
 using OpsLvp.Core.Optics;
+using OpsLvp.Core.Reporting;
 using OpsLvp.Core.Units;
 
 namespace OpsLvp.Core.Tests.Optics;

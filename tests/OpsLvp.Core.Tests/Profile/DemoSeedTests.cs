@@ -74,7 +74,7 @@ public sealed class DemoSeedTests
         {
             Assert.True(sensors.TryGetValue(r[1], out var sensor), $"unknown sensor {r[1]}");
             Assert.Matches("^[a-z_]+$", r[2]);
-            Assert.Contains(Kind(r[2]), ProfileValidator.KindsOf(sensor!.Type));
+            Assert.Contains(Kind(r[2]), SensorKinds.Produced(sensor!.Type));
             Assert.True(double.TryParse(r[3], NumberStyles.Float, CultureInfo.InvariantCulture, out var value) && double.IsFinite(value), r[3]);
             Assert.Contains(r[4], new[] { "ok", "degraded", "failed", "maintenance" });
         }

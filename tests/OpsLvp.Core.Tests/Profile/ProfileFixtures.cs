@@ -28,6 +28,7 @@ internal static class ProfileFixtures
             [ReadingKind.Extinction] = 120,
             [ReadingKind.CloudBase] = 180,
             [ReadingKind.VerticalVisibility] = 180,
+            [ReadingKind.Visibility] = 180,
             [ReadingKind.BackgroundLuminance] = 300,
         },
         Thresholds = new ThresholdSet(

@@ -310,6 +310,15 @@ public sealed class ProfileValidatorTests
     }
 
     [Fact]
+    public void MaxAgeMissingForVisibilityFromAnRvrSensor_IsAsked_BecauseTheEngineAcceptsIt()
+    {
+        // the engine accepts visibility (MOR) from RVR instruments; the validator reads the same table (SensorKinds)
+        var p = ProfileFixtures.Valid();
+        p = p with { MaxAgeSeconds = p.MaxAgeSeconds.Where(kv => kv.Key != ReadingKind.Visibility).ToDictionary() };
+        AssertProblem(p, "maxAgeSeconds.visibility", "sensor 't-09' (transmissometer) produces visibility");
+    }
+
+    [Fact]
     public void MaxAgeZero_NamesTheKind()
     {
         var p = ProfileFixtures.Valid();

@@ -33,7 +33,7 @@ public static class LiveTestProfile
               ],
               "teams": [ { "id": "t-ops", "name": "Test operations" }, { "id": "t-fire", "name": "Test fire watch" } ],
               "lights": { "intensityCdByStep": { "5": 10000 }, "stepInUse": 5 },
-              "maxAgeSeconds": { "rvr": 600, "extinction": 600 },
+              "maxAgeSeconds": { "rvr": 600, "extinction": 600, "visibility": 600 },
               "thresholds": {
                 "preparation": { "rvrBelowM": 1000, "rvrRecoverM": 1200, "enterDwellSeconds": 0, "recoverDwellSeconds": RECOVER },
                 "active": { "rvrBelowM": 550, "rvrRecoverM": 650, "enterDwellSeconds": ACTIVE, "recoverDwellSeconds": RECOVER }

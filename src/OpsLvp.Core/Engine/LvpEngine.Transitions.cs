@@ -1,0 +1,210 @@
+using OpsLvp.Core.Profile;
+
+namespace OpsLvp.Core.Engine;
+
+public sealed partial class LvpEngine
+{
+    private sealed partial class Run
+    {
+        private void StepOnce(DateTimeOffset t)
+        {
+            for (var i = 0; i < MaxTransitionsPerInstant; i++)
+            {
+                var sit = SituateNow(t);
+                UpdateHolding(sit, t);
+                var desired = Desired(sit, t);
+                if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
+                {
+                    var why = desired is { } other
+                        ? $"superseded: {Fmt.Name(pending.From)} -> {Fmt.Name(other.To)} is due instead"
+                        : State.Hold is { } hold && Severity(pending.To) < Severity(hold.Phase)
+                            ? $"hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}"
+                            : "condition no longer holds";
+                    Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, why));
+                    State = State with { Pending = null };
+                }
+                if (desired is not { } d)
+                {
+                    break;
+                }
+                if (_model.NeedsConfirmation(State.Phase, d.To))
+                {
+                    if (State.Pending is null)
+                    {
+                        var snapshot = Snapshot(sit);
+                        State = State with { Pending = new PendingTransition(State.Phase, d.To, t, d.Reason, snapshot) };
+                        Events.Add(new TransitionProposed(t, State.Phase, d.To, d.Reason, snapshot));
+                    }
+                    break;
+                }
+                Transition(d.To, TransitionBy.Auto, null, d.Reason, sit, null, t);
+            }
+            ReconcileAlarms(SituateNow(t), t);
+        }
+
+        private bool HoldAtLeast(Phase phase) => State.Hold is { } h && Severity(h.Phase) >= Severity(phase);
+
+        private static int Severity(Phase phase) => phase switch
+        {
+            Phase.Active => 2,
+            Phase.Preparation => 1,
+            _ => 0,
+        };
+
+        /// <summary>The automatic transition due at <paramref name="t"/> (R8), ignoring confirmation.</summary>
+        private (Phase To, string Reason)? Desired(Situation sit, DateTimeOffset t)
+        {
+            switch (State.Phase)
+            {
+                case Phase.Normal:
+                    if (DwellDone(ConditionKind.Active, t))
+                    {
+                        return (Phase.Active, ActiveReason(sit));
+                    }
+                    if (DwellDone(ConditionKind.Preparation, t))
+                    {
+                        return (Phase.Preparation, PreparationReason(sit));
+                    }
+                    return null;
+                case Phase.Preparation:
+                    if (DwellDone(ConditionKind.Active, t))
+                    {
+                        return (Phase.Active, ActiveReason(sit));
+                    }
+                    if (DwellDone(ConditionKind.RecoveryFromPreparation, t) && !HoldAtLeast(Phase.Preparation))
+                    {
+                        return (Phase.Normal, RecoveryReason(sit, Thresholds.Preparation, ConditionKind.RecoveryFromPreparation));
+                    }
+                    return null;
+                case Phase.Active:
+                    if (DwellDone(ConditionKind.RecoveryFromActive, t) && !HoldAtLeast(Phase.Active))
+                    {
+                        return (Phase.Cancellation, RecoveryReason(sit, Thresholds.Active, ConditionKind.RecoveryFromActive));
+                    }
+                    return null;
+                case Phase.Cancellation:
+                    if (DwellDone(ConditionKind.Active, t))
+                    {
+                        return (Phase.Active, "re-instated: " + ActiveReason(sit));
+                    }
+                    if (!State.Items.Any(i => i.Phase == Phase.Cancellation && i.Mandatory && i.Status == ItemStatus.Open))
+                    {
+                        var recovered = DwellDone(ConditionKind.RecoveryFromPreparation, t) && !HoldAtLeast(Phase.Preparation);
+                        var what = _model.ItemsOf(Phase.Cancellation).Any(i => i.Mandatory)
+                            ? "mandatory cancellation items done"
+                            : "no mandatory cancellation items";
+                        return recovered
+                            ? (Phase.Normal, $"{what}; recovery from preparation held {Fmt.Span(_model.Dwell(ConditionKind.RecoveryFromPreparation))}")
+                            : (Phase.Preparation, $"{what}; {(HoldAtLeast(Phase.Preparation) ? "preparation hold in force" : "recovery from preparation not yet held its dwell")}");
+                    }
+                    return null;
+                default:
+                    return null;
+            }
+        }
+
+        private string ActiveReason(Situation sit)
+        {
+            var a = Thresholds.Active;
+            if (Below(sit.RvrM, a.RvrBelowM))
+            {
+                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m < {Fmt.N(a.RvrBelowM!.Value)} m";
+            }
+            if (Below(sit.CeilingFt, a.CeilingBelowFt))
+            {
+                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) < {Fmt.N(a.CeilingBelowFt!.Value)} ft";
+            }
+            return "active condition";
+        }
+
+        private string PreparationReason(Situation sit)
+        {
+            var p = Thresholds.Preparation;
+            if (Below(sit.RvrM, p.RvrBelowM))
+            {
+                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m < {Fmt.N(p.RvrBelowM!.Value)} m";
+            }
+            if (Below(sit.CeilingFt, p.CeilingBelowFt))
+            {
+                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) < {Fmt.N(p.CeilingBelowFt!.Value)} ft";
+            }
+            return sit.Forecast ? "deterioration forecast" : "preparation condition";
+        }
+
+        private string RecoveryReason(Situation sit, PhaseThresholds p, ConditionKind kind)
+        {
+            var parts = new List<string>();
+            if (_model.RvrConfigured && (p.RvrRecoverM ?? p.RvrBelowM) is { } rvrLimit && sit.RvrM is { } rvr)
+            {
+                parts.Add($"RVR {Fmt.N(rvr)} m >= {Fmt.N(rvrLimit)} m");
+            }
+            if (_model.CeilingConfigured && (p.CeilingRecoverFt ?? p.CeilingBelowFt) is { } ceilingLimit && sit.CeilingFt is { } ceiling)
+            {
+                parts.Add($"ceiling {Fmt.N(ceiling)} ft >= {Fmt.N(ceilingLimit)} ft");
+            }
+            var name = kind == ConditionKind.RecoveryFromActive ? "recovery from active" : "recovery from preparation";
+            return $"{name}: {string.Join(", ", parts)} held {Fmt.Span(_model.Dwell(kind))}";
+        }
+
+        private ConditionSnapshot Snapshot(Situation sit) => new(
+            sit.At,
+            sit.RvrM,
+            sit.RvrSensor?.SensorId,
+            sit.CeilingFt,
+            sit.CeilingSensor,
+            sit.Forecast,
+            sit.RvrMissing.Count == 0 && sit.CeilingMissing.Count == 0 && (sit.RvrM is not null || !_model.RvrConfigured),
+            Thresholds);
+
+        private void Transition(Phase to, TransitionBy by, string? actor, string reason, Situation sit, DateTimeOffset? proposedAt, DateTimeOffset t)
+        {
+            var from = State.Phase;
+            if (State.Pending is { } pending && proposedAt is null)
+            {
+                Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, $"superseded by transition to {Fmt.Name(to)}"));
+            }
+            Events.Add(new PhaseTransition(t, from, to, by, actor, reason, Snapshot(sit), proposedAt));
+            if (from == Phase.Normal)
+            {
+                var id = $"{_model.Profile.Aerodrome.Id}-{t.UtcDateTime:yyyyMMdd'T'HHmmss}Z";
+                State = State with { Episode = new Episode(id, t, to), Items = [] };
+                Events.Add(new EpisodeStarted(t, id));
+            }
+            State = State with { Phase = to, PhaseSince = t, Pending = null };
+            if (State.Episode is { } episode && Severity(to) > Severity(episode.DeepestPhase))
+            {
+                State = State with { Episode = episode with { DeepestPhase = to } };
+            }
+            switch (to)
+            {
+                case Phase.Preparation:
+                    OpenItems(Phase.Preparation, t);
+                    break;
+                case Phase.Active:
+                    if (from == Phase.Cancellation)
+                    {
+                        CloseOpenItems(i => i.Phase == Phase.Cancellation, ItemStatus.Voided, t);
+                    }
+                    if (from == Phase.Normal)
+                    {
+                        OpenItems(Phase.Preparation, t);
+                    }
+                    OpenItems(Phase.Active, t);
+                    break;
+                case Phase.Cancellation:
+                    OpenItems(Phase.Cancellation, t);
+                    break;
+                case Phase.Normal:
+                    CloseOpenItems(_ => true, ItemStatus.ClosedNotDone, t);
+                    if (State.Episode is { } ended)
+                    {
+                        Events.Add(new EpisodeEnded(t, ended.Id, ended.Start, ended.DeepestPhase));
+                    }
+                    State = State with { Episode = null, Hold = null };
+                    break;
+                default:
+                    break;
+            }
+        }
+    }
+}
