@@ -12,7 +12,7 @@ namespace OpsLvp.Cli.Commands;
 /// or period. Output <c>{ "mor_m", "lights_m", "object_m", "rvr_m", "report", "luminance_unknown" }</c>; the four
 /// distances are the unrounded values rounded DOWN to 0.1 m (so a shown value never exceeds the assessed one), the
 /// report is the Annex 3 reported value of the unrounded RVR. With neither luminance nor period the threshold that
-/// gives the lowest lights range is used, as the server does (docs/engine.md D1), and <c>luminance_unknown</c> is true.
+/// gives the lowest lights range is used, as the server does (docs/engine.md R19), and <c>luminance_unknown</c> is true.
 /// </summary>
 public sealed class RvrCommand : ICliCommand
 {

@@ -18,7 +18,7 @@ public sealed record MetarReport
     /// <summary>
     /// RVR is reported when the visibility or the RVR is below this (1500 m; from memory, DOMAIN "Runway visual range").
     /// A report whose visibility is at least this and that has no RVR group for a runway therefore says that runway's RVR
-    /// was not required: 1500 m or more (docs/engine.md D4).
+    /// was not required: 1500 m or more (docs/engine.md R22).
     /// </summary>
     public static readonly Metres RvrReportingVisibility = new(1500);
 
@@ -158,7 +158,7 @@ public sealed record MetarReport
     }
 
     /// <summary>
-    /// True when the report says RVR was not required (docs/engine.md D4): not NIL, no <c>RVRNO</c>, a visibility of
+    /// True when the report says RVR was not required (docs/engine.md R22): not NIL, no <c>RVRNO</c>, a visibility of
     /// at least <see cref="RvrReportingVisibility"/> not given as "less than", and no minimum visibility below it.
     /// </summary>
     public bool RvrNotRequired =>
@@ -173,10 +173,10 @@ public sealed record MetarReport
     /// visibility, the base of <see cref="CeilingLayer"/> as <see cref="ReadingKind.CloudBase"/>, and the vertical
     /// visibility. A NIL report gives none.
     /// <para>When <see cref="RvrNotRequired"/>, every mapped runway without an RVR group gets an RVR reading of
-    /// 1500 m flagged <see cref="ReadingFlags.OrMore"/> ("RVR 1500 m or more", docs/engine.md D4), so recovery is not
+    /// 1500 m flagged <see cref="ReadingFlags.OrMore"/> ("RVR 1500 m or more", docs/engine.md R22), so recovery is not
     /// blocked forever when METAR is the only RVR source. When <see cref="CeilingStatus"/> is
     /// <see cref="Metar.CeilingStatus.Unknown"/>, no cloud-base or vertical-visibility reading is given at all: a known
-    /// base above an unknown one must not satisfy recovery (docs/engine.md D7).</para>
+    /// base above an unknown one must not satisfy recovery (docs/engine.md R24).</para>
     /// </summary>
     public IReadOnlyList<Reading> ToReadings(DateTimeOffset observedAt, MetarSensorMap map)
     {

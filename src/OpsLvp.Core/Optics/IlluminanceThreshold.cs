@@ -23,7 +23,7 @@ public static class IlluminanceThreshold
     public static readonly Lux BrightDay = new(1e-3);
 
     /// <summary>
-    /// The band to use when no valid background luminance is known (docs/engine.md D1): the one whose threshold is the
+    /// The band to use when no valid background luminance is known (docs/engine.md R19): the one whose threshold is the
     /// highest, so the lights range is the lowest (Allard's law: a higher E_T always shortens the range; common practice
     /// to fail towards the lower RVR). Chosen by comparing the thresholds, not by name: it is
     /// <see cref="LuminanceBand.BrightDay"/>, 10⁻³ lx.

@@ -35,7 +35,7 @@ public sealed record RvrInputs
     public ThresholdModel ThresholdModel { get; init; } = ThresholdModel.AnnexBands;
 
     /// <summary>
-    /// These inputs with no background luminance known (docs/engine.md D1): the period
+    /// These inputs with no background luminance known (docs/engine.md R19): the period
     /// <see cref="IlluminanceThreshold.UnknownLuminanceBand"/> under the Annex 3 bands, whose threshold gives the lowest
     /// lights range of all bands. A caller that uses this must flag the result "luminance unknown".
     /// </summary>

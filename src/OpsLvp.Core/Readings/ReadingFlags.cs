@@ -1,7 +1,7 @@
 namespace OpsLvp.Core.Readings;
 
 /// <summary>
-/// What a reading's value stands for besides the number (docs/engine.md D1–D4). A flagged value is still used as a
+/// What a reading's value stands for besides the number (docs/engine.md R19–R22). A flagged value is still used as a
 /// value by the engine; each flag marks the conservative side it was taken from, and screens and events say so.
 /// </summary>
 [Flags]
@@ -12,19 +12,19 @@ public enum ReadingFlags
 
     /// <summary>
     /// The quantity is this value or more (a lower bound), e.g. "RVR 1500 m or more" from a METAR without an RVR
-    /// group (docs/engine.md D4). Used as the value itself, the lower end, which can only escalate.
+    /// group (docs/engine.md R22). Used as the value itself, the lower end, which can only escalate.
     /// </summary>
     OrMore = 1,
 
     /// <summary>
     /// RVR derived with no fresh background luminance: the illuminance threshold giving the lowest lights range was
-    /// used (docs/engine.md D1), so the value may be lower than the RVR actually is.
+    /// used (docs/engine.md R19), so the value may be lower than the RVR actually is.
     /// </summary>
     LuminanceUnknown = 2,
 
     /// <summary>
     /// RVR derived with the runway-light step in use unknown: the lowest configured intensity was used
-    /// (docs/engine.md D3), so the value may be lower than the RVR actually is.
+    /// (docs/engine.md R20), so the value may be lower than the RVR actually is.
     /// </summary>
     LightStepUnknown = 4,
 }

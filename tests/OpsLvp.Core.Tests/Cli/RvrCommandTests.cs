@@ -94,7 +94,7 @@ public sealed class RvrCommandTests
     [Fact]
     public void Rvr_WithoutLuminanceOrPeriod_UsesTheBrightDayThresholdAndSaysLuminanceUnknown()
     {
-        // docs/engine.md D1. DOMAIN.md check (Allard's law; Annex 3 Att. D bands — from memory): MOR 300 m, 10 000 cd,
+        // docs/engine.md R19. DOMAIN.md check (Allard's law; Annex 3 Att. D bands — from memory): MOR 300 m, 10 000 cd,
         // 20 000 cd/m² (bright day) gives 0400; the normal-day band gave 0550.
         var unknown = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000");
         var bright = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--background-luminance", "20000");

@@ -70,7 +70,7 @@ public sealed class MetarReadingsTests
         Assert.DoesNotContain(r.ToReadings(s_at, clear), x => x.Kind == ReadingKind.CloudBase);
     }
 
-    // --- docs/engine.md D4: RVR is reported when visibility or RVR is below 1500 m (from memory, DOMAIN.md "Runway
+    // --- docs/engine.md R22: RVR is reported when visibility or RVR is below 1500 m (from memory, DOMAIN.md "Runway
     // visual range"), so a report with visibility of 1500 m or more and no RVR group says "RVR 1500 m or more".
 
     [Fact]
@@ -125,7 +125,7 @@ public sealed class MetarReadingsTests
         Assert.Equal(3, readings.Count(x => x.Kind == ReadingKind.Rvr && x.Flags == ReadingFlags.OrMore));
     }
 
-    // --- docs/engine.md D7: an unknown ceiling gives nothing that could satisfy recovery
+    // --- docs/engine.md R24: an unknown ceiling gives nothing that could satisfy recovery
 
     [Theory]
     [InlineData("0300 FG BKN/// OVC030")]
