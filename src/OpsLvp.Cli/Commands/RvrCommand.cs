@@ -9,9 +9,10 @@ namespace OpsLvp.Cli.Commands;
 
 /// <summary>
 /// <c>opslvp rvr</c> (docs/cli.md): one RVR assessment from MOR, σ or T+b, light intensity and background luminance
-/// or period. Output <c>{ "mor_m", "lights_m", "object_m", "rvr_m", "report" }</c>; the four distances are the
-/// unrounded values rounded DOWN to 0.1 m (so a shown value never exceeds the assessed one), the report is the
-/// Annex 3 reported value of the unrounded RVR.
+/// or period. Output <c>{ "mor_m", "lights_m", "object_m", "rvr_m", "report", "luminance_unknown" }</c>; the four
+/// distances are the unrounded values rounded DOWN to 0.1 m (so a shown value never exceeds the assessed one), the
+/// report is the Annex 3 reported value of the unrounded RVR. With neither luminance nor period the threshold that
+/// gives the lowest lights range is used, as the server does (docs/engine.md R19), and <c>luminance_unknown</c> is true.
 /// </summary>
 public sealed class RvrCommand : ICliCommand
 {
@@ -29,9 +30,10 @@ public sealed class RvrCommand : ICliCommand
     /// <inheritdoc />
     public string Usage =>
         "rvr (--mor-m M | --extinction-per-km S | --transmittance T --baseline-m B) --light-intensity-cd I "
-        + "(--background-luminance CD_PER_M2 | --period night|intermediate|day|bright) [--continuous-threshold] "
-        + "-> {mor_m, lights_m, object_m, rvr_m (metres, rounded down to 0.1), report (\"0550\", \"M0050\", \"P2000\")}; "
-        + "periods stand for 1, 200, 4000, 20000 cd/m2";
+        + "[--background-luminance CD_PER_M2 | --period night|intermediate|day|bright] [--continuous-threshold] "
+        + "-> {mor_m, lights_m, object_m, rvr_m (metres, rounded down to 0.1), report (\"0550\", \"M0050\", \"P2000\"), "
+        + "luminance_unknown}; periods stand for 1, 200, 4000, 20000 cd/m2; with neither, luminance is unknown and the "
+        + "bright-day threshold (lowest lights range) is used";
 
     /// <inheritdoc />
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
@@ -60,12 +62,11 @@ public sealed class RvrCommand : ICliCommand
         }
         var hasLuminance = options.ContainsKey("--background-luminance");
         var hasPeriod = options.ContainsKey("--period");
-        if (hasLuminance == hasPeriod)
+        if (hasLuminance && hasPeriod)
         {
-            throw new CliUsageException(hasLuminance
-                ? "give --background-luminance or --period, not both"
-                : "missing --background-luminance or --period");
+            throw new CliUsageException("give --background-luminance or --period, not both");
         }
+        var luminanceUnknown = !hasLuminance && !hasPeriod;
 
         var inputs = new RvrInputs
         {
@@ -86,6 +87,10 @@ public sealed class RvrCommand : ICliCommand
         {
             throw new ArgumentException("--background-luminance must be greater than 0 with --continuous-threshold");
         }
+        if (luminanceUnknown)
+        {
+            inputs = inputs.WithUnknownLuminance();
+        }
 
         var result = RvrCalculator.Calculate(inputs);
 
@@ -98,6 +103,7 @@ public sealed class RvrCommand : ICliCommand
             json.WriteNumber("object_m", DownToTenth(result.ObjectRange));
             json.WriteNumber("rvr_m", DownToTenth(result.Rvr));
             json.WriteString("report", result.Report.ToMetar());
+            json.WriteBoolean("luminance_unknown", luminanceUnknown);
             json.WriteEndObject();
         }
         stdout.WriteLine(Encoding.UTF8.GetString(buffer.WrittenSpan));

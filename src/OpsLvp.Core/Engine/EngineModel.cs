@@ -51,6 +51,9 @@ internal sealed class EngineModel
         {
             _maxAge[(int)kind] = ComputeMaxAge(kind);
         }
+        _sensorMaxAge = Sensors.Values
+            .Where(s => s.MaxAgeSeconds is > 0)
+            .ToDictionary(s => s.Id, s => TimeSpan.FromSeconds(s.MaxAgeSeconds!.Value), StringComparer.Ordinal);
         _keys = new Dictionary<string, string[]>(StringComparer.Ordinal);
         foreach (var id in Sensors.Keys)
         {
@@ -64,7 +67,7 @@ internal sealed class EngineModel
             SensorKinds.Produced(s.Type).ToArray(),
             SensorKinds.Produced(s.Type).Select(k => Key(s.Id, k)).ToArray(),
             _keys[s.Id],
-            MaxAge(SensorKinds.Primary(s.Type)),
+            MaxAge(s.Id, SensorKinds.Primary(s.Type)),
             AlarmKeys.SensorSilent(s.Id),
             $"sensor {s.Id} silent past its maximum age")).ToArray();
         SensorsById = SensorEntries.ToDictionary(e => e.Sensor.Id, StringComparer.Ordinal);
@@ -88,6 +91,7 @@ internal sealed class EngineModel
     public static readonly ConditionKind[] AllConditions = Enum.GetValues<ConditionKind>();
 
     private readonly TimeSpan[] _maxAge;
+    private readonly Dictionary<string, TimeSpan> _sensorMaxAge;
     private readonly TimeSpan[] _dwell;
     private readonly Dictionary<string, string[]> _keys;
     private readonly HashSet<(Phase From, Phase To)> _confirm;
@@ -148,8 +152,12 @@ internal sealed class EngineModel
     private TimeSpan ComputeMaxAge(ReadingKind kind) =>
         TimeSpan.FromSeconds(Profile.MaxAgeSeconds.TryGetValue(kind, out var s) && s > 0 ? s : DefaultMaxAgeSeconds);
 
-    /// <summary>Fresh from the reading's time until (exclusive) time + the kind's maximum age (docs/engine.md R2).</summary>
-    public bool IsFresh(Reading reading, DateTimeOffset t) => t < reading.Time + MaxAge(reading.Kind);
+    /// <summary>The maximum age of a sensor's readings of a kind: the sensor's own value when set, else the kind's (docs/engine.md R21).</summary>
+    public TimeSpan MaxAge(string sensorId, ReadingKind kind) =>
+        _sensorMaxAge.Count > 0 && sensorId is not null && _sensorMaxAge.TryGetValue(sensorId, out var own) ? own : MaxAge(kind);
+
+    /// <summary>Fresh from the reading's time until (exclusive) time + its sensor's or kind's maximum age (docs/engine.md R2, R21).</summary>
+    public bool IsFresh(Reading reading, DateTimeOffset t) => t < reading.Time + MaxAge(reading.SensorId, reading.Kind);
 
     public IReadOnlyList<ChecklistItemConfig> ItemsOf(Phase phase) => phase switch
     {

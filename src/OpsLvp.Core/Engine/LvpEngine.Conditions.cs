@@ -65,12 +65,15 @@ public sealed partial class LvpEngine
             }
         }
         var forecast = state.DeteriorationForecast;
-        var active = Below(rvr, thresholds.Active.RvrBelowM) || Below(ceiling, thresholds.Active.CeilingBelowFt);
-        var preparation = forecast || Below(rvr, thresholds.Preparation.RvrBelowM) || Below(ceiling, thresholds.Preparation.CeilingBelowFt);
-        bool Recovered(PhaseThresholds p)
+        // Entry per phase: below, or at or below (docs/engine.md R18).
+        var a = thresholds.Active;
+        var p = thresholds.Preparation;
+        var active = a.Enters(rvr, a.RvrBelowM) || a.Enters(ceiling, a.CeilingBelowFt);
+        var preparation = forecast || p.Enters(rvr, p.RvrBelowM) || p.Enters(ceiling, p.CeilingBelowFt);
+        bool Recovered(PhaseThresholds phase)
         {
-            var rvrLimit = p.RvrRecoverM ?? p.RvrBelowM;
-            var ceilingLimit = p.CeilingRecoverFt ?? p.CeilingBelowFt;
+            var rvrLimit = phase.RvrRecoverM ?? phase.RvrBelowM;
+            var ceilingLimit = phase.CeilingRecoverFt ?? phase.CeilingBelowFt;
             var rvrOk = !model.RvrConfigured || rvrLimit is null || (rvr is { } v && rvrMissing.Count == 0 && v >= rvrLimit);
             var ceilingOk = !model.CeilingConfigured || ceilingLimit is null || (ceiling is { } c && ceilingMissing.Count == 0 && c >= ceilingLimit);
             return rvrOk && ceilingOk;
@@ -81,8 +84,6 @@ public sealed partial class LvpEngine
     }
 
     internal static IEnumerable<ReadingKind> CeilingKinds(EngineModel model) => model.CeilingKinds;
-
-    private static bool Below(double? value, double? threshold) => value is { } v && threshold is { } limit && v < limit;
 
     private sealed partial class Run
     {

@@ -42,7 +42,7 @@ public sealed partial class LvpEngine
             }
             foreach (var r in State.Latest.Values)
             {
-                Consider(r.Time + _model.MaxAge(r.Kind));
+                Consider(r.Time + _model.MaxAge(r.SensorId, r.Kind));
             }
             foreach (var sensor in _model.SensorEntries)
             {

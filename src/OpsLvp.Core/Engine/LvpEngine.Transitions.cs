@@ -1,5 +1,6 @@
 using OpsLvp.Core.Checklists;
 using OpsLvp.Core.Profile;
+using OpsLvp.Core.Readings;
 
 namespace OpsLvp.Core.Engine;
 
@@ -133,13 +134,13 @@ public sealed partial class LvpEngine
         private string ActiveReason(Situation sit)
         {
             var a = Thresholds.Active;
-            if (Below(sit.RvrM, a.RvrBelowM))
+            if (a.Enters(sit.RvrM, a.RvrBelowM))
             {
-                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m < {Fmt.N(a.RvrBelowM!.Value)} m";
+                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m {a.EntrySign} {Fmt.N(a.RvrBelowM!.Value)} m";
             }
-            if (Below(sit.CeilingFt, a.CeilingBelowFt))
+            if (a.Enters(sit.CeilingFt, a.CeilingBelowFt))
             {
-                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) < {Fmt.N(a.CeilingBelowFt!.Value)} ft";
+                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) {a.EntrySign} {Fmt.N(a.CeilingBelowFt!.Value)} ft";
             }
             return "active condition";
         }
@@ -147,13 +148,13 @@ public sealed partial class LvpEngine
         private string PreparationReason(Situation sit)
         {
             var p = Thresholds.Preparation;
-            if (Below(sit.RvrM, p.RvrBelowM))
+            if (p.Enters(sit.RvrM, p.RvrBelowM))
             {
-                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m < {Fmt.N(p.RvrBelowM!.Value)} m";
+                return $"RVR {sit.RvrSensor!.Label} {Fmt.N(sit.RvrM!.Value)} m {p.EntrySign} {Fmt.N(p.RvrBelowM!.Value)} m";
             }
-            if (Below(sit.CeilingFt, p.CeilingBelowFt))
+            if (p.Enters(sit.CeilingFt, p.CeilingBelowFt))
             {
-                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) < {Fmt.N(p.CeilingBelowFt!.Value)} ft";
+                return $"ceiling {Fmt.N(sit.CeilingFt!.Value)} ft ({sit.CeilingSensor}) {p.EntrySign} {Fmt.N(p.CeilingBelowFt!.Value)} ft";
             }
             return sit.Forecast ? "deterioration forecast" : "preparation condition";
         }
@@ -181,7 +182,8 @@ public sealed partial class LvpEngine
             sit.CeilingSensor,
             sit.Forecast,
             sit.RvrMissing.Count == 0 && sit.CeilingMissing.Count == 0 && (sit.RvrM is not null || !_model.RvrConfigured),
-            Thresholds);
+            Thresholds,
+            sit.RvrSensor is { } g && State.Latest.TryGetValue(_model.Key(g.SensorId, ReadingKind.Rvr), out var r) ? r.Flags : ReadingFlags.None);
 
         private void Transition(Phase to, TransitionBy by, string? actor, string reason, Situation sit, DateTimeOffset? proposedAt, DateTimeOffset t)
         {

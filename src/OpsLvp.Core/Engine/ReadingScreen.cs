@@ -8,7 +8,8 @@ namespace OpsLvp.Core.Engine;
 /// produces are in <see cref="SensorKinds"/>). Ranges are
 /// inclusive, chosen wide enough for any real instrument and narrow enough to catch unit and parsing errors
 /// (common practice, not from a standard): RVR 0–10 000 m, visibility 0–100 000 m, cloud base and vertical
-/// visibility 0–50 000 ft, extinction 0–1000 per km, transmittance 0–1, background luminance 0–100 000 cd/m².
+/// visibility 0–50 000 ft, extinction 0–1000 per km, transmittance 0–1, background luminance 0–100 000 cd/m²,
+/// light step 0–100.
 /// NaN and infinities are always out of range.
 /// </summary>
 public static class ReadingScreen
@@ -23,6 +24,7 @@ public static class ReadingScreen
         ReadingKind.Extinction => (0, 1_000),
         ReadingKind.Transmittance => (0, 1),
         ReadingKind.BackgroundLuminance => (0, 100_000),
+        ReadingKind.LightStep => (0, 100),
         _ => (double.NaN, double.NaN),
     };
 

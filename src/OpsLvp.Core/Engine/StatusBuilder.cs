@@ -12,7 +12,7 @@ internal static class StatusBuilder
         var sit = LvpEngine.Situate(model, state, now);
         MeasuredValue? Measured(string sensorId, ReadingKind kind, string label) =>
             state.Latest.TryGetValue(EngineState.SensorKey(sensorId, kind), out var r)
-                ? new MeasuredValue(r.Value, sensorId, label, r.Time, (now - r.Time).TotalSeconds, !model.IsFresh(r, now))
+                ? new MeasuredValue(r.Value, sensorId, label, r.Time, (now - r.Time).TotalSeconds, !model.IsFresh(r, now), r.Flags)
                 : null;
         var rvr = sit.RvrSensor is { } g ? Measured(g.SensorId, ReadingKind.Rvr, g.Label) : null;
         MeasuredValue? ceiling = null;

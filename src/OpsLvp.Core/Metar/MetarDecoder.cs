@@ -7,8 +7,8 @@ namespace OpsLvp.Core.Metar;
 
 /// <summary>
 /// Decodes the groups of a METAR or SPECI that low-visibility procedures need (WMO-No. 306, code forms FM 15/16):
-/// report type, COR, AUTO, NIL, location indicator, time, visibility, RVR, present weather, cloud and vertical
-/// visibility. Wind, temperature, QNH, runway state, wind shear and sea groups are recognised and skipped. The first
+/// report type, COR, AUTO, NIL, location indicator, time, visibility (metres, or statute miles as North American
+/// reports write it), RVR and <c>RVRNO</c>, present weather, cloud and vertical visibility. Wind, temperature, QNH, runway state, wind shear and sea groups are recognised and skipped. The first
 /// trend group (NOSIG, BECMG, TEMPO) or RMK ends the decoded part. Groups matching no known form are skipped and
 /// listed in <see cref="MetarReport.UnknownGroups"/>. Input is matched case-insensitively; a trailing <c>=</c> is ignored.
 /// </summary>
@@ -72,6 +72,15 @@ public static partial class MetarDecoder
 
     [GeneratedRegex(@"^////(NDV)?$")]
     private static partial Regex MissingVisibilityRegex();
+
+    [GeneratedRegex(@"^([MP])?(?:([0-9]{1,2})|([0-9]{1,2})/([0-9]{1,2}))SM$")]
+    private static partial Regex StatuteMilesRegex();
+
+    [GeneratedRegex(@"^[0-9]{1,2}$")]
+    private static partial Regex WholeMilesRegex();
+
+    [GeneratedRegex(@"^[0-9]{1,2}/[0-9]{1,2}SM$")]
+    private static partial Regex FractionMilesRegex();
 
     [GeneratedRegex(@"^([0-9]{4})(N|NE|E|SE|S|SW|W|NW)$")]
     private static partial Regex MinimumVisibilityRegex();
@@ -170,6 +179,15 @@ public static partial class MetarDecoder
             MetarMinimumVisibility? minimum = null;
             var ndv = false;
             var visibilitySeen = false;
+            var visibilityStatus = VisibilityStatus.Absent;
+            var visibilityUnit = VisibilityUnit.Metres;
+            VisibilityQualifier? visibilityQualifier = null;
+            string? visibilityGroup = null;
+            // True once a group that follows the visibility in FM 15 order (RVR, weather, cloud) was read: an unknown
+            // group before that point stands where the visibility belongs.
+            var pastVisibility = false;
+            var rvrNotAvailable = false;
+            var cloudNotObservable = false;
             var cavok = false;
             Feet? verticalVisibility = null;
             var obscured = false;
@@ -209,6 +227,8 @@ public static partial class MetarDecoder
                     cavok = true;
                     visibility = new Metres(10_000);
                     visibilitySeen = true;
+                    visibilityStatus = VisibilityStatus.Reported;
+                    visibilityGroup = g;
                 }
                 else if (WindRegex().IsMatch(g) || WindVariationRegex().IsMatch(g))
                 {
@@ -220,11 +240,22 @@ public static partial class MetarDecoder
                     visibility = new Metres(value == 9999 ? 10_000 : value);
                     ndv = m.Groups[2].Success;
                     visibilitySeen = true;
+                    visibilityStatus = VisibilityStatus.Reported;
+                    visibilityGroup = g;
                 }
                 else if (!visibilitySeen && (m = MissingVisibilityRegex().Match(g)).Success)
                 {
                     ndv = m.Groups[1].Success;
                     visibilitySeen = true;
+                    visibilityStatus = VisibilityStatus.NotObserved;
+                    visibilityGroup = g;
+                }
+                else if (!visibilitySeen && !pastVisibility && ReadStatuteMiles(g) is { } miles)
+                {
+                    (visibility, visibilityQualifier, visibilityGroup) = miles;
+                    visibilityUnit = VisibilityUnit.StatuteMiles;
+                    visibilitySeen = true;
+                    visibilityStatus = VisibilityStatus.Reported;
                 }
                 else if (visibilitySeen && minimum is null && (m = MinimumVisibilityRegex().Match(g)).Success)
                 {
@@ -233,6 +264,13 @@ public static partial class MetarDecoder
                 else if ((m = RvrRegex().Match(g)).Success)
                 {
                     _rvr.Add(ToRvr(m));
+                    pastVisibility = true;
+                }
+                else if (g == "RVRNO")
+                {
+                    // RVR should be reported but is not available (FAA FMH-1 — from memory).
+                    rvrNotAvailable = true;
+                    pastVisibility = true;
                 }
                 else if (RunwayStateRegex().IsMatch(g))
                 {
@@ -241,20 +279,25 @@ public static partial class MetarDecoder
                 else if (g is "NSC" or "NCD" or "SKC" or "CLR")
                 {
                     sky = g;
+                    pastVisibility = true;
                 }
                 else if ((m = CloudRegex().Match(g)).Success)
                 {
-                    if (m.Groups[1].Value == "///" && m.Groups[2].Value == "///")
+                    pastVisibility = true;
+                    if (m.Groups[1].Value == "///" && m.Groups[2].Value == "///" && m.Groups[3].Value is not ("CB" or "TCU"))
                     {
-                        // "//////": cloud not observable by the automatic system; no layer to report.
+                        // "//////": cloud not observable by the automatic system; no layer to report, ceiling unknown.
+                        cloudNotObservable = true;
                         continue;
                     }
+                    // "//////CB" keeps its layer: a CB or TCU was detected, amount and height not determinable.
                     _clouds.Add(ToCloud(m));
                 }
                 else if ((m = VerticalVisibilityRegex().Match(g)).Success)
                 {
                     obscured = true;
                     verticalVisibility = m.Groups[1].Value == "///" ? null : new Feet(Int(m.Groups[1].Value) * 100);
+                    pastVisibility = true;
                 }
                 else if (g is "//" or "NSW")
                 {
@@ -263,6 +306,7 @@ public static partial class MetarDecoder
                 else if ((m = WeatherRegex().Match(g)).Success && (m.Groups[3].Success || m.Groups[4].Length > 0))
                 {
                     (m.Groups[1].Success ? _recentWeather : _weather).Add(ToWeather(m));
+                    pastVisibility = true;
                 }
                 else if (TemperatureRegex().IsMatch(g) || PressureRegex().IsMatch(g) || SeaRegex().IsMatch(g))
                 {
@@ -275,6 +319,11 @@ public static partial class MetarDecoder
                 else
                 {
                     _unknown.Add(g);
+                    if (!visibilitySeen && !pastVisibility && visibilityStatus == VisibilityStatus.Absent)
+                    {
+                        visibilityStatus = VisibilityStatus.Unreadable;
+                        visibilityGroup = g;
+                    }
                 }
             }
 
@@ -286,13 +335,19 @@ public static partial class MetarDecoder
                 Corrected = corrected,
                 Automatic = automatic,
                 Visibility = visibility,
+                VisibilityStatus = visibilityStatus,
+                VisibilityUnit = visibilityUnit,
+                VisibilityQualifier = visibilityQualifier,
+                VisibilityGroup = visibilityGroup,
                 MinimumVisibility = minimum,
                 NoDirectionalVariation = ndv,
                 Cavok = cavok,
                 Rvr = _rvr,
+                RvrNotAvailable = rvrNotAvailable,
                 Weather = _weather,
                 RecentWeather = _recentWeather,
                 Clouds = _clouds,
+                CloudNotObservable = cloudNotObservable,
                 VerticalVisibility = verticalVisibility,
                 SkyObscured = obscured,
                 SkyCondition = sky,
@@ -303,6 +358,50 @@ public static partial class MetarDecoder
         }
 
         private string? Peek() => _index < _groups.Count ? _groups[_index] : null;
+
+        /// <summary>
+        /// A statute-mile visibility starting at the group just taken (<paramref name="g"/>): <c>3SM</c>, <c>1/4SM</c>,
+        /// <c>M1/4SM</c>, <c>P6SM</c>, or a whole number followed by a fraction group (<c>1 1/2SM</c>, which then takes the
+        /// next group too). Converted at 1609.344 m per mile (the international mile, exact) and rounded down to the
+        /// whole metre, the conservative direction. Null when the group is no such form (or divides by zero).
+        /// </summary>
+        private (Metres Value, VisibilityQualifier? Qualifier, string Group)? ReadStatuteMiles(string g)
+        {
+            if (WholeMilesRegex().IsMatch(g) && Peek() is { } next && FractionMilesRegex().IsMatch(next)
+                && ReadStatuteMiles(next, Int(g)) is { } mixed)
+            {
+                _index++;
+                return (mixed.Value, mixed.Qualifier, g + " " + next);
+            }
+            return ReadStatuteMiles(g, 0) is { } plain ? (plain.Value, plain.Qualifier, g) : null;
+        }
+
+        private static (Metres Value, VisibilityQualifier? Qualifier)? ReadStatuteMiles(string g, int whole)
+        {
+            var m = StatuteMilesRegex().Match(g);
+            if (!m.Success)
+            {
+                return null;
+            }
+            double miles;
+            if (m.Groups[2].Success)
+            {
+                miles = Int(m.Groups[2].Value);
+            }
+            else
+            {
+                var denominator = Int(m.Groups[4].Value);
+                if (denominator == 0)
+                {
+                    return null;
+                }
+                miles = (double)Int(m.Groups[3].Value) / denominator;
+            }
+            VisibilityQualifier? qualifier = m.Groups[1].Success
+                ? m.Groups[1].Value == "M" ? VisibilityQualifier.LessThan : VisibilityQualifier.MoreThan
+                : null;
+            return (new Metres(Math.Floor((whole + miles) * MetarReport.MetresPerStatuteMile)), qualifier);
+        }
 
         private string? Next() => _index < _groups.Count ? _groups[_index++] : null;
 

@@ -5,10 +5,12 @@ using OpsLvp.Core.Reporting;
 namespace OpsLvp.Core.Metar;
 
 /// <summary>
-/// The JSON form of a decoded report, docs/cli.md: <c>station, visibility_m, cavok, rvr[], clouds[],
-/// vertical_visibility_ft, ceiling_ft, weather[]</c> in that order, then extra fields (type, time, cor, auto, nil,
-/// min_visibility_m, min_visibility_direction, ndv, sky_obscured, sky_condition, recent_weather, trend, remarks,
-/// unknown_groups). Codes are written as in the report (<c>"M"</c>, <c>"U"</c>, <c>"BKN"</c>, <c>"CB"</c>).
+/// The JSON form of a decoded report, docs/cli.md; <c>station, visibility_m, cavok, rvr[], clouds[],
+/// vertical_visibility_ft, ceiling_ft, weather[]</c> in that order, then extra fields (ceiling_status,
+/// visibility_status, visibility_unit, visibility_qualifier, visibility_group, rvr_not_available, cloud_not_observable,
+/// type, time, cor, auto, nil, min_visibility_m, min_visibility_direction, ndv, sky_obscured, sky_condition,
+/// recent_weather, trend, remarks, unknown_groups); docs/metar.md. Codes are written as in the report (<c>"M"</c>,
+/// <c>"U"</c>, <c>"BKN"</c>, <c>"CB"</c>).
 /// </summary>
 public static class MetarJson
 {
@@ -77,6 +79,29 @@ public static class MetarJson
         Number(w, "vertical_visibility_ft", r.VerticalVisibility?.Value);
         Number(w, "ceiling_ft", r.Ceiling?.Value);
         Strings(w, "weather", r.Weather.Select(x => x.Code));
+        w.WriteString("ceiling_status", r.CeilingStatus switch
+        {
+            CeilingStatus.None => "none",
+            CeilingStatus.Reported => "reported",
+            _ => "unknown",
+        });
+        w.WriteString("visibility_status", r.VisibilityStatus switch
+        {
+            VisibilityStatus.Reported => "reported",
+            VisibilityStatus.NotObserved => "not_observed",
+            VisibilityStatus.Unreadable => "unreadable",
+            _ => "absent",
+        });
+        w.WriteString("visibility_unit", r.VisibilityStatus != VisibilityStatus.Reported ? null : r.VisibilityUnit == VisibilityUnit.StatuteMiles ? "SM" : "m");
+        w.WriteString("visibility_qualifier", r.VisibilityQualifier switch
+        {
+            VisibilityQualifier.LessThan => "M",
+            VisibilityQualifier.MoreThan => "P",
+            _ => null,
+        });
+        w.WriteString("visibility_group", r.VisibilityGroup);
+        w.WriteBoolean("rvr_not_available", r.RvrNotAvailable);
+        w.WriteBoolean("cloud_not_observable", r.CloudNotObservable);
         w.WriteString("type", r.Type switch
         {
             MetarReportType.Metar => "METAR",

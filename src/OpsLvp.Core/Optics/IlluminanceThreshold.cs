@@ -22,6 +22,14 @@ public static class IlluminanceThreshold
     /// <summary>Bright-day threshold, 10⁻³ lx (Annex 3, Attachment D — from memory).</summary>
     public static readonly Lux BrightDay = new(1e-3);
 
+    /// <summary>
+    /// The band to use when no valid background luminance is known (docs/engine.md R19): the one whose threshold is the
+    /// highest, so the lights range is the lowest (Allard's law: a higher E_T always shortens the range; common practice
+    /// to fail towards the lower RVR). Chosen by comparing the thresholds, not by name: it is
+    /// <see cref="LuminanceBand.BrightDay"/>, 10⁻³ lx.
+    /// </summary>
+    public static LuminanceBand UnknownLuminanceBand { get; } = Enum.GetValues<LuminanceBand>().MaxBy(b => ForBand(b).Value);
+
     /// <summary>The band of a background luminance. B must be finite and ≥ 0 cd/m², else <see cref="ArgumentOutOfRangeException"/>.</summary>
     public static LuminanceBand BandOf(CandelaPerSquareMetre background)
     {

@@ -33,4 +33,12 @@ public sealed record RvrInputs
 
     /// <summary>How E_T follows from luminance; the Annex 3 bands by default.</summary>
     public ThresholdModel ThresholdModel { get; init; } = ThresholdModel.AnnexBands;
+
+    /// <summary>
+    /// These inputs with no background luminance known (docs/engine.md R19): the period
+    /// <see cref="IlluminanceThreshold.UnknownLuminanceBand"/> under the Annex 3 bands, whose threshold gives the lowest
+    /// lights range of all bands. A caller that uses this must flag the result "luminance unknown".
+    /// </summary>
+    public RvrInputs WithUnknownLuminance() =>
+        this with { BackgroundLuminance = null, Period = IlluminanceThreshold.UnknownLuminanceBand, ThresholdModel = ThresholdModel.AnnexBands };
 }

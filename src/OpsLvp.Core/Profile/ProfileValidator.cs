@@ -11,6 +11,10 @@ namespace OpsLvp.Core.Profile;
 /// </summary>
 public static class ProfileValidator
 {
+    private static readonly double MaxReportableRvrM = Reporting.RvrReporting.UpperLimit.Value;
+
+    private static readonly double CeilingLimitFt = Metar.MetarReport.CeilingLimit.Value;
+
     /// <summary>The transitions docs/engine.md R8 defines; only these can be set to need confirmation (R10).</summary>
     public static IReadOnlyList<TransitionRule> LegalTransitions { get; } =
     [
@@ -159,6 +163,10 @@ public static class ProfileValidator
             {
                 check.Add($"{path}.baselineM", $"is set on a {type} sensor; only transmissometers have a baseline");
             }
+            if (sensor.MaxAgeSeconds is { } ownAge && ownAge <= 0)
+            {
+                check.Add($"{path}.maxAgeSeconds", $"is {ownAge}; expected this sensor's maximum reading age in seconds > 0, or no value to use the per-kind maxAgeSeconds");
+            }
             if (sensor.LuminanceSensor is not null)
             {
                 if (sensor.Type is not (SensorType.Transmissometer or SensorType.ForwardScatter))
@@ -241,12 +249,14 @@ public static class ProfileValidator
                 check.Add($"maxAgeSeconds.{Name(kind)}", $"is {seconds}; expected a maximum reading age in seconds > 0");
             }
         }
-        var produced = sensors.SelectMany(s => SensorKinds.Produced(s.Type)).Distinct().Order();
+        // A sensor with its own maxAgeSeconds needs no per-kind value (docs/engine.md R21).
+        var perKind = sensors.Where(s => s.MaxAgeSeconds is null).ToList();
+        var produced = perKind.SelectMany(s => SensorKinds.Produced(s.Type)).Distinct().Order();
         foreach (var kind in produced)
         {
             if (!maxAges.ContainsKey(kind))
             {
-                var who = sensors.First(s => SensorKinds.Produced(s.Type).Contains(kind));
+                var who = perKind.First(s => SensorKinds.Produced(s.Type).Contains(kind));
                 check.Add($"maxAgeSeconds.{Name(kind)}", $"is missing; sensor '{who.Id}' ({Name(who.Type)}) produces {Name(kind)} readings, so a maximum age in seconds > 0 is needed (docs/engine.md R2)");
             }
         }
@@ -314,6 +324,32 @@ public static class ProfileValidator
     {
         CheckPair(check, path, "rvrBelowM", phase.RvrBelowM, "rvrRecoverM", phase.RvrRecoverM, "m");
         CheckPair(check, path, "ceilingBelowFt", phase.CeilingBelowFt, "ceilingRecoverFt", phase.CeilingRecoverFt, "ft");
+        if (!Enum.IsDefined(phase.EntryComparison))
+        {
+            check.Add($"{path}.entryComparison", $"is {(int)phase.EntryComparison}; expected below or atOrBelow");
+        }
+        else if (phase.EntryComparison == EntryComparison.AtOrBelow)
+        {
+            // At or below: a value equal to both the entry and the recovery threshold would meet both (docs/engine.md R18).
+            CheckRecoverAboveEntry(check, path, "rvrBelowM", phase.RvrBelowM, "rvrRecoverM", phase.RvrRecoverM, "m");
+            CheckRecoverAboveEntry(check, path, "ceilingBelowFt", phase.CeilingBelowFt, "ceilingRecoverFt", phase.CeilingRecoverFt, "ft");
+        }
+        // Thresholds no input can reach (docs/engine.md R23): RVR is reported up to 2000 m (ICAO Annex 3, App 3,
+        // §4.3.6; WMO BUFR code table 0 08 014), and a ceiling is a layer below 20 000 ft (ICAO/EASA definition).
+        foreach (var (name, value) in new[] { ("rvrBelowM", phase.RvrBelowM), ("rvrRecoverM", phase.RvrRecoverM) })
+        {
+            if (value is { } v && double.IsFinite(v) && v > MaxReportableRvrM)
+            {
+                check.Add($"{path}.{name}", $"is {v} m, above the highest reportable RVR ({MaxReportableRvrM} m, reported as P2000), so no RVR reading can reach it; expected at most {MaxReportableRvrM} m");
+            }
+        }
+        foreach (var (name, value) in new[] { ("ceilingBelowFt", phase.CeilingBelowFt), ("ceilingRecoverFt", phase.CeilingRecoverFt) })
+        {
+            if (value is { } v && double.IsFinite(v) && v >= CeilingLimitFt)
+            {
+                check.Add($"{path}.{name}", $"is {v} ft, at or above the ceiling definition's limit ({CeilingLimitFt} ft: a ceiling is a BKN/OVC layer below it), so no ceiling can reach it; expected less than {CeilingLimitFt} ft");
+            }
+        }
         if (phase.EnterDwellSeconds < 0)
         {
             check.Add($"{path}.enterDwellSeconds", $"is {phase.EnterDwellSeconds}; expected 0 or more seconds");
@@ -341,6 +377,14 @@ public static class ProfileValidator
             // Equal is allowed: entry is strict (< below) and recovery inclusive (≥ recover), so no value meets both,
             // and the recover dwell (> 0) still keeps the phase from flapping.
             check.Add($"{path}.{recoverName}", $"is {recover} {unit}, below {belowName} ({below} {unit}); expected a recovery value ≥ {belowName}");
+        }
+    }
+
+    private static void CheckRecoverAboveEntry(Checker check, string path, string belowName, double? below, string recoverName, double? recover, string unit)
+    {
+        if (below is { } b && recover is { } r && double.IsFinite(b) && double.IsFinite(r) && r == b)
+        {
+            check.Add($"{path}.{recoverName}", $"is {r} {unit}, equal to {belowName} with entryComparison atOrBelow, so {r} {unit} would both enter and recover; expected a recovery value > {belowName}");
         }
     }
 

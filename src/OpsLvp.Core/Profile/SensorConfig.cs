@@ -11,10 +11,16 @@ namespace OpsLvp.Core.Profile;
 /// <param name="Sites">Direction → position, for RVR sensors.</param>
 /// <param name="BaselineM">Transmissometer baseline in metres (required for transmissometers).</param>
 /// <param name="LuminanceSensor">Id of the luminance sensor used for this RVR sensor's computation; null: any.</param>
+/// <param name="MaxAgeSeconds">
+/// Maximum age of this sensor's readings, every kind, in seconds (&gt; 0); overrides the profile's per-kind
+/// <c>maxAgeSeconds</c> so a half-hourly METAR source and a 15-second sensor can both be right (docs/engine.md R21).
+/// Null: the per-kind value.
+/// </param>
 public sealed record SensorConfig(
     string Id,
     SensorType Type,
     string? Runway = null,
     IReadOnlyDictionary<string, RvrPosition>? Sites = null,
     double? BaselineM = null,
-    string? LuminanceSensor = null);
+    string? LuminanceSensor = null,
+    int? MaxAgeSeconds = null);

@@ -20,6 +20,7 @@ public static class SensorKinds
         SensorType.Ceilometer => [ReadingKind.CloudBase, ReadingKind.VerticalVisibility],
         SensorType.Visibility => [ReadingKind.Visibility],
         SensorType.Luminance => [ReadingKind.BackgroundLuminance],
+        SensorType.Lighting => [ReadingKind.LightStep],
         _ => [],
     };
 
@@ -29,6 +30,7 @@ public static class SensorKinds
         SensorType.RvrSystem or SensorType.Transmissometer or SensorType.ForwardScatter => ReadingKind.Rvr,
         SensorType.Ceilometer => ReadingKind.CloudBase,
         SensorType.Luminance => ReadingKind.BackgroundLuminance,
+        SensorType.Lighting => ReadingKind.LightStep,
         _ => ReadingKind.Visibility,
     };
 

@@ -15,4 +15,6 @@ public enum SensorType
     Visibility,
     /// <summary>Background luminance meter (cd/m²).</summary>
     Luminance,
+    /// <summary>The airfield lighting control: the runway-light intensity step in use (docs/engine.md R20).</summary>
+    Lighting,
 }

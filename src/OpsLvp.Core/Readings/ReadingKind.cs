@@ -17,4 +17,8 @@ public enum ReadingKind
     Transmittance,
     /// <summary>Background luminance, cd/m².</summary>
     BackgroundLuminance,
+    /// <summary>
+    /// Runway-light intensity step in use (a whole number; 0 = lights off), from a lighting sensor (docs/engine.md R20).
+    /// </summary>
+    LightStep,
 }

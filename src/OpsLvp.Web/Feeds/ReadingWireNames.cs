@@ -14,6 +14,7 @@ public static class ReadingWireNames
         ["extinction"] = ReadingKind.Extinction,
         ["transmittance"] = ReadingKind.Transmittance,
         ["background_luminance"] = ReadingKind.BackgroundLuminance,
+        ["light_step"] = ReadingKind.LightStep,
     };
 
     private static readonly Dictionary<string, ReadingStatus> s_statuses = new(StringComparer.Ordinal)

@@ -87,7 +87,21 @@ public sealed class RvrCommandTests
         var json = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--period", "night");
 
         // docs/cli.md
-        Assert.Equal(["mor_m", "lights_m", "object_m", "rvr_m", "report"], json.EnumerateObject().Select(p => p.Name).ToArray());
+        Assert.Equal(["mor_m", "lights_m", "object_m", "rvr_m", "report", "luminance_unknown"], json.EnumerateObject().Select(p => p.Name).ToArray());
+        Assert.False(json.GetProperty("luminance_unknown").GetBoolean());
+    }
+
+    [Fact]
+    public void Rvr_WithoutLuminanceOrPeriod_UsesTheBrightDayThresholdAndSaysLuminanceUnknown()
+    {
+        // docs/engine.md R19. DOMAIN.md check (Allard's law; Annex 3 Att. D bands — from memory): MOR 300 m, 10 000 cd,
+        // 20 000 cd/m² (bright day) gives 0400; the normal-day band gave 0550.
+        var unknown = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000");
+        var bright = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--background-luminance", "20000");
+        Assert.Equal("0400", unknown.GetProperty("report").GetString());
+        Assert.Equal(bright.GetProperty("rvr_m").GetDouble(), unknown.GetProperty("rvr_m").GetDouble());
+        Assert.True(unknown.GetProperty("luminance_unknown").GetBoolean());
+        Assert.False(bright.GetProperty("luminance_unknown").GetBoolean());
     }
 
     [Theory]
@@ -96,7 +110,6 @@ public sealed class RvrCommandTests
     [InlineData(2, "give only one of", "rvr", "--mor-m", "300", "--extinction-per-km", "10", "--light-intensity-cd", "1", "--period", "day")]
     [InlineData(2, "go together", "rvr", "--transmittance", "0.7", "--light-intensity-cd", "1", "--period", "day")]
     [InlineData(2, "go together", "rvr", "--mor-m", "300", "--baseline-m", "75", "--light-intensity-cd", "1", "--period", "day")]
-    [InlineData(2, "missing --background-luminance or --period", "rvr", "--mor-m", "300", "--light-intensity-cd", "1")]
     [InlineData(2, "not both", "rvr", "--mor-m", "300", "--light-intensity-cd", "1", "--period", "day", "--background-luminance", "5")]
     [InlineData(2, "unknown option '--fog'", "rvr", "--fog", "thick")]
     [InlineData(2, "--mor-m needs a value", "rvr", "--mor-m")]

@@ -139,11 +139,19 @@ public sealed class MetarCrossCheckTests(ITestOutputHelper output)
         {
             visibility = 10_000.0;
         }
-        else if (m["visibility"] is JsonObject v)
+        else if (m["visibility"] is JsonObject v && v["value"] is not null)
         {
+            // (the package gives a null value for a group it cannot compute, e.g. 1/0SM; ours is null too)
             var value = v["value"]!.GetValue<double>();
             var unit = v["unit"]!.GetValue<string>();
-            visibility = unit == "m" ? (value == 9999 ? 10_000.0 : value) : JsonValue.Create(value.ToString(System.Globalization.CultureInfo.InvariantCulture) + unit);
+            // Statute miles with the same arithmetic as ours (1609.344 m per mile, rounded down to the metre), so that
+            // the package's reading of the group (whole, fraction, mixed "1 1/2SM", M/P) is what is compared.
+            visibility = unit switch
+            {
+                "m" => value == 9999 ? 10_000.0 : value,
+                "SM" => Math.Floor(value * 1609.344),
+                _ => JsonValue.Create(value.ToString(System.Globalization.CultureInfo.InvariantCulture) + unit),
+            };
         }
         var rvr = new JsonArray();
         foreach (var r in m["runwaysInfo"]!.AsArray().Select(n => n!.AsObject()).Where(o => o["minRange"] is not null))

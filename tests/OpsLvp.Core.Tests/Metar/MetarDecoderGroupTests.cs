@@ -459,8 +459,8 @@ public sealed class MetarDecoderGroupTests
     [Fact]
     public void UnknownGroups_AreSkippedAndListed()
     {
-        var r = Body("1/2SM R20/ FG XYZ123 OVC002");
-        Assert.Equal(["1/2SM", "R20/", "XYZ123"], r.UnknownGroups);
+        var r = Body("04O0 R20/ FG XYZ123 OVC002");
+        Assert.Equal(["04O0", "R20/", "XYZ123"], r.UnknownGroups);
         Assert.Equal(new Feet(200), r.Ceiling);
     }
 

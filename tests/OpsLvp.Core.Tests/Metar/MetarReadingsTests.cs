@@ -57,7 +57,7 @@ public sealed class MetarReadingsTests
     public void Readings_NoCeilingGivesConfiguredClearValueOnlyWhenAsked()
     {
         var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT CAVOK 12/05 Q1018");
-        Assert.Equal([new Reading(s_at, "METAR-VIS", ReadingKind.Visibility, 10_000)], r.ToReadings(s_at, s_map));
+        Assert.DoesNotContain(r.ToReadings(s_at, s_map), x => x.Kind == ReadingKind.CloudBase);
         var clear = s_map with { NoCeilingCloudBaseFeet = 20_000 };
         Assert.Contains(new Reading(s_at, "METAR-CLOUD", ReadingKind.CloudBase, 20_000), r.ToReadings(s_at, clear));
     }
@@ -68,6 +68,76 @@ public sealed class MetarReadingsTests
         var clear = s_map with { NoCeilingCloudBaseFeet = 20_000 };
         var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT 0100 FG VV///");
         Assert.DoesNotContain(r.ToReadings(s_at, clear), x => x.Kind == ReadingKind.CloudBase);
+    }
+
+    // --- docs/engine.md R22: RVR is reported when visibility or RVR is below 1500 m (from memory, DOMAIN.md "Runway
+    // visual range"), so a report with visibility of 1500 m or more and no RVR group says "RVR 1500 m or more".
+
+    [Fact]
+    public void Readings_VisibilityAtLeast1500AndNoRvrGroup_GiveRvr1500OrMoreForEveryMappedRunway()
+    {
+        var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT 1500 BR SCT010 08/07 Q1021");
+        var rvr = r.ToReadings(s_at, s_map).Where(x => x.Kind == ReadingKind.Rvr).ToList();
+        Assert.Equal(
+            [
+                new Reading(s_at, "METAR-RVR-08", ReadingKind.Rvr, 1500, Flags: ReadingFlags.OrMore),
+                new Reading(s_at, "METAR-RVR-26L", ReadingKind.Rvr, 1500, Flags: ReadingFlags.OrMore),
+                new Reading(s_at, "METAR-RVR-26R", ReadingKind.Rvr, 1500, Flags: ReadingFlags.OrMore),
+            ],
+            rvr);
+    }
+
+    [Fact]
+    public void Readings_RunwayWithItsOwnGroup_KeepsTheReportedValueOnly()
+    {
+        var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT 2000 R26L/1800N BR 08/07 Q1021");
+        var rvr = r.ToReadings(s_at, s_map).Where(x => x.Kind == ReadingKind.Rvr).ToList();
+        Assert.Contains(new Reading(s_at, "METAR-RVR-26L", ReadingKind.Rvr, 1800), rvr);
+        Assert.Single(rvr, x => x.SensorId == "METAR-RVR-26L");
+        Assert.Equal(2, rvr.Count(x => x.Flags == ReadingFlags.OrMore));
+    }
+
+    [Theory]
+    // visibility below 1500 m: RVR should have been reported, its absence says nothing
+    [InlineData("1400 BR SCT010")]
+    // a minimum visibility below 1500 m in some direction
+    [InlineData("3000 1400NE BR SCT010")]
+    // RVRNO: RVR should be reported but is not available (FAA FMH-1 — from memory)
+    [InlineData("5000 RVRNO BR SCT010")]
+    // visibility not observed or unreadable
+    [InlineData("//// BR SCT010")]
+    [InlineData("04O0 BR SCT010")]
+    // "less than 1 statute mile" (1609 m): the true value may be below 1500 m
+    [InlineData("M1SM BR SCT010")]
+    public void Readings_NoRvr1500OrMore_WhenTheReportDoesNotShowRvrWasNotRequired(string groups)
+    {
+        var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT " + groups);
+        Assert.DoesNotContain(r.ToReadings(s_at, s_map), x => x.Kind == ReadingKind.Rvr);
+    }
+
+    [Fact]
+    public void Readings_StatuteMileVisibility_CountsInMetres()
+    {
+        // 1 statute mile = 1609.344 m (the international mile): 1SM is at least 1500 m
+        var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT 1SM BR SCT010 08/07 A3012");
+        var readings = r.ToReadings(s_at, s_map);
+        Assert.Contains(new Reading(s_at, "METAR-VIS", ReadingKind.Visibility, 1609), readings);
+        Assert.Equal(3, readings.Count(x => x.Kind == ReadingKind.Rvr && x.Flags == ReadingFlags.OrMore));
+    }
+
+    // --- docs/engine.md R24: an unknown ceiling gives nothing that could satisfy recovery
+
+    [Theory]
+    [InlineData("0300 FG BKN/// OVC030")]
+    [InlineData("0300 FG ///002 OVC030")]
+    [InlineData("0300 FG //////CB OVC030")]
+    [InlineData("0300 FG ////// VV005")]
+    public void Readings_CeilingUnknown_GiveNoCloudBaseOrVerticalVisibility(string groups)
+    {
+        var clear = s_map with { NoCeilingCloudBaseFeet = 20_000 };
+        var r = MetarDecoder.Decode("METAR XDMO 010620Z 24004KT " + groups);
+        Assert.Equal(CeilingStatus.Unknown, r.CeilingStatus);
+        Assert.DoesNotContain(r.ToReadings(s_at, clear), x => x.Kind is ReadingKind.CloudBase or ReadingKind.VerticalVisibility);
     }
 
     [Fact]

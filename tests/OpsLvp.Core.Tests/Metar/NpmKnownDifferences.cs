@@ -1,4 +1,3 @@
-using System.Globalization;
 using System.Text.Json.Nodes;
 using System.Text.RegularExpressions;
 
@@ -69,8 +68,9 @@ internal static partial class NpmKnownDifferences
                 return v;
             }),
         new("NpmDropsCoverUnknownLayer", "clouds",
-            "the package ignores ///hhh (cover not determinable by an automatic system); we keep the layer with cover null "
-            + "because its base may matter, and never count it as ceiling",
+            "the package ignores ///hhh (cover not determinable by an automatic system) and //////CB (a CB or TCU detected, "
+            + "amount and height not determinable); we keep the layer with cover null because its base or type may matter, "
+            + "and never count it as ceiling",
             (v, _, _) => Remove(v, o => o["cover"] is null)),
         new("NpmDropsZeroCloudBase", "clouds",
             "the package gives no height for a base of 000 (OVC000, SCT000): it treats 0 as absent; WMO-No. 306 FM 15 "
@@ -94,14 +94,6 @@ internal static partial class NpmKnownDifferences
                 var min = layers.Append(ours["vertical_visibility_ft"]?.GetValue<double>()).Min();
                 return min is { } m ? JsonValue.Create(m) : null;
             }),
-        new("NpmDecodesStatuteMiles", "visibility_m",
-            "the package decodes North American visibility in statute miles (1/2SM); WMO-No. 306 FM 15 visibility is in "
-            + "metres, so we list the group as unknown and give visibility_m null",
-            (v, ours, _) =>
-            {
-                var sm = ours["unknown_groups"]!.AsArray().Select(n => n!.GetValue<string>()).FirstOrDefault(g => StatuteMiles().IsMatch(g));
-                return v is null && sm is not null ? JsonValue.Create(Miles(sm) + "SM") : v;
-            }),
     ];
 
     private static JsonNode? Remove(JsonNode? v, Func<JsonObject, bool> drop)
@@ -119,18 +111,6 @@ internal static partial class NpmKnownDifferences
     private static string Token(string text, string prefix) =>
         text.ToUpperInvariant().Split(' ', StringSplitOptions.RemoveEmptyEntries).FirstOrDefault(t => t.StartsWith(prefix, StringComparison.Ordinal)) ?? "";
 
-    private static string Miles(string group)
-    {
-        var m = StatuteMiles().Match(group);
-        var value = m.Groups[2].Success
-            ? double.Parse(m.Groups[1].Value, CultureInfo.InvariantCulture) / double.Parse(m.Groups[2].Value, CultureInfo.InvariantCulture)
-            : double.Parse(m.Groups[1].Value, CultureInfo.InvariantCulture);
-        return value.ToString(CultureInfo.InvariantCulture);
-    }
-
     [GeneratedRegex(@"(^|\s)/////KT\s+\d{3}V\d{3}(\s|$)")]
     private static partial Regex MissingWindWithVariation();
-
-    [GeneratedRegex(@"^(\d+)(?:/(\d+))?SM$")]
-    private static partial Regex StatuteMiles();
 }

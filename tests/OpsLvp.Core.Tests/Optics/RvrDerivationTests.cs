@@ -49,12 +49,136 @@ public sealed class RvrDerivationTests
     }
 
     [Fact]
-    public void NoFreshLuminance_UsesTheDayBand_WhichGivesALowerRvr()
+    public void NoFreshLuminance_UsesTheBrightDayThreshold_AndFlagsTheValueLuminanceUnknown()
+    {
+        // docs/engine.md R19. DOMAIN.md check (Allard's law, Annex 3 Att. D bands — from memory): forward-scatter MOR
+        // 300 m, 10 000 cd, luminance 20 000 cd/m² (bright day, 10⁻³ lx) gives report 0400; the normal-day band
+        // (10⁻⁴ lx) the old fallback used gave 0550.
+        var sigmaPerKm = -Math.Log(0.05) / 0.300;
+        var d = new RvrDerivation(Profile());
+        var derived = Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        Assert.Equal(400, derived.Value);
+        Assert.Equal(Expected(sigmaPerKm, 20_000), derived.Value);
+        Assert.Equal(550, Expected(sigmaPerKm, 4_000));
+        Assert.Equal(ReadingFlags.LuminanceUnknown, derived.Flags);
+    }
+
+    [Fact]
+    public void NoFreshLuminance_WithTheContinuousThresholdOption_StillUsesTheBrightDayBand()
+    {
+        var profile = Profile() with { Lights = Profile().Lights with { ContinuousThreshold = true } };
+        var sigmaPerKm = -Math.Log(0.05) / 0.300;
+        var derived = Assert.Single(new RvrDerivation(profile).Observe(new Reading(T0, "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        // same DOMAIN.md check as above: 0400
+        Assert.Equal(400, derived.Value);
+        Assert.Equal(ReadingFlags.LuminanceUnknown, derived.Flags);
+    }
+
+    [Fact]
+    public void FreshLuminance_GivesAnUnflaggedValue_AndTheFlagLeavesWithTheLastUnknownSampleOfTheMinute()
     {
         var d = new RvrDerivation(Profile());
-        var derived = Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10)));
-        Assert.Equal(Expected(10, 5_000), derived.Value);
-        Assert.True(derived.Value < 950);
+        Assert.Equal(ReadingFlags.LuminanceUnknown, Assert.Single(d.Observe(new Reading(T0, "fs1", ReadingKind.Extinction, 10))).Flags);
+        d.Observe(new Reading(T0.AddSeconds(10), "lum", ReadingKind.BackgroundLuminance, 1.5));
+        // the 1-minute mean still holds the sample assessed without luminance
+        Assert.Equal(ReadingFlags.LuminanceUnknown, Assert.Single(d.Observe(new Reading(T0.AddSeconds(30), "fs1", ReadingKind.Extinction, 10))).Flags);
+        d.Observe(new Reading(T0.AddSeconds(70), "lum", ReadingKind.BackgroundLuminance, 1.5));
+        Assert.Equal(ReadingFlags.None, Assert.Single(d.Observe(new Reading(T0.AddSeconds(75), "fs1", ReadingKind.Extinction, 10))).Flags);
+    }
+
+    [Theory]
+    [InlineData(1.0)]
+    [InlineData(3.0)]
+    [InlineData(10.0)]
+    [InlineData(30.0)]
+    [InlineData(100.0)]
+    public void UnknownLuminanceFallback_IsNeverAboveTheRvrOfAnyBand(double sigmaPerKm)
+    {
+        // Allard's law: a higher E_T always shortens the lights range, so the fallback band bounds every band from below
+        var fallback = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(sigmaPerKm), LightIntensity = new(10_000) }.WithUnknownLuminance()).Rvr;
+        foreach (var band in Enum.GetValues<LuminanceBand>())
+        {
+            var rvr = RvrCalculator.Calculate(new RvrInputs { Extinction = ExtinctionCoefficient.FromPerKm(sigmaPerKm), LightIntensity = new(10_000), Period = band }).Rvr;
+            Assert.True(fallback <= rvr, $"σ {sigmaPerKm}/km: fallback {fallback} above {band} {rvr}");
+        }
+        Assert.Equal(LuminanceBand.BrightDay, IlluminanceThreshold.UnknownLuminanceBand);
+    }
+
+    // --- docs/engine.md R20: lights in use. Steps and intensities invented; step 0 = lights off gives RVR = MOR
+    // (ICAO Annex 3, App 3, §4.3.5 — from memory); an unknown step takes the lowest intensity (common practice).
+
+    private static AerodromeProfile WithLighting() => Profile() with
+    {
+        Sensors = [.. Profile().Sensors, new SensorConfig("agl", SensorType.Lighting)],
+        Lights = new LightsConfig { IntensityCdByStep = new Dictionary<int, double> { [1] = 100, [3] = 1000, [5] = 10_000 }, StepInUse = 5 },
+        MaxAgeSeconds = new Dictionary<ReadingKind, int> { [ReadingKind.LightStep] = 600 },
+    };
+
+    private static double ExpectedAt(double perKm, double luminance, double candela) =>
+        RvrCalculator.Calculate(new RvrInputs
+        {
+            Extinction = ExtinctionCoefficient.FromPerKm(perKm),
+            LightIntensity = new Candela(candela),
+            BackgroundLuminance = new CandelaPerSquareMetre(luminance),
+        }).Report.Reported.Value;
+
+    [Fact]
+    public void LightsOff_StepZero_GivesRvrEqualToMor()
+    {
+        var sigmaPerKm = -Math.Log(0.05) / 0.300; // MOR 300 m (WMO-No. 8: MOR = −ln 0.05 / σ)
+        var d = new RvrDerivation(WithLighting());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        d.Observe(new Reading(T0, "agl", ReadingKind.LightStep, 0));
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(5), "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        // MOR 300 m reported on the 25 m scale below 400 m: 0300 (ICAO Annex 3, App 3, §4.3.6 — from memory); with the
+        // lights at step 5 (10 000 cd) at night the same air gives 0900 (DOMAIN.md worked check)
+        Assert.Equal(300, derived.Value);
+        Assert.Equal(ReadingFlags.None, derived.Flags);
+        Assert.Equal(900, ExpectedAt(sigmaPerKm, 1.5, 10_000));
+    }
+
+    [Fact]
+    public void LightStepReading_SetsTheIntensityInUse()
+    {
+        var d = new RvrDerivation(WithLighting());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        Assert.Equal(ExpectedAt(10, 1.5, 10_000), Assert.Single(d.Observe(new Reading(T0.AddSeconds(1), "fs1", ReadingKind.Extinction, 10))).Value);
+        d.Observe(new Reading(T0.AddSeconds(2), "agl", ReadingKind.LightStep, 3));
+        Assert.Equal(new Candela(1000), d.IntensityAt(T0.AddSeconds(3), out var unknown));
+        Assert.False(unknown);
+        // a minute later, so the 1-minute mean holds only step-3 samples
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(70), "fs1", ReadingKind.Extinction, 10)));
+        Assert.Equal(ExpectedAt(10, 1.5, 1000), derived.Value);
+        Assert.True(ExpectedAt(10, 1.5, 1000) < ExpectedAt(10, 1.5, 10_000));
+    }
+
+    [Theory]
+    // a step the profile has no intensity for
+    [InlineData(4.0)]
+    // not a whole step
+    [InlineData(2.5)]
+    public void UnknownStep_UsesTheLowestIntensityAndFlagsIt(double step)
+    {
+        var d = new RvrDerivation(WithLighting());
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        d.Observe(new Reading(T0, "agl", ReadingKind.LightStep, step));
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(1), "fs1", ReadingKind.Extinction, 10)));
+        Assert.Equal(ExpectedAt(10, 1.5, 100), derived.Value);
+        Assert.Equal(ReadingFlags.LightStepUnknown, derived.Flags);
+    }
+
+    [Fact]
+    public void StaleLightStep_IsUnknown_WhileTheStartingValueServesUntilTheFirstReading()
+    {
+        var d = new RvrDerivation(WithLighting());
+        Assert.Equal(new Candela(10_000), d.IntensityAt(T0, out var beforeAny));
+        Assert.False(beforeAny);
+        d.Observe(new Reading(T0, "agl", ReadingKind.LightStep, 5));
+        Assert.Equal(new Candela(10_000), d.IntensityAt(T0.AddSeconds(599), out var fresh));
+        Assert.False(fresh);
+        // light_step maximum age 600 s (invented): fresh until, exclusive, time + age (docs/engine.md R2)
+        Assert.Equal(new Candela(100), d.IntensityAt(T0.AddSeconds(600), out var stale));
+        Assert.True(stale);
     }
 
     [Fact]

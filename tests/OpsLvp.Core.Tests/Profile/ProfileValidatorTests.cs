@@ -48,6 +48,85 @@ public sealed class ProfileValidatorTests
         Assert.True(ProfileValidator.Validate(p).IsValid);
     }
 
+    // --- docs/engine.md R23: thresholds no input can reach
+
+    [Fact]
+    public void RvrThresholdAboveTheHighestReportableRvr_IsRefusedNamingTheField()
+    {
+        // RVR upper reporting limit 2000 m, reported as P2000 (ICAO Annex 3, App 3, §4.3.6; WMO BUFR code table 0 08 014)
+        var p = ProfileFixtures.Valid().WithPrep(x => x with { RvrRecoverM = 2100 });
+        AssertProblem(p, "thresholds.preparation.rvrRecoverM", "above the highest reportable RVR (2000 m");
+    }
+
+    [Fact]
+    public void RvrThresholdAtTheHighestReportableRvr_IsAllowed()
+    {
+        var p = ProfileFixtures.Valid().WithPrep(x => x with { RvrBelowM = 1500, RvrRecoverM = 2000 });
+        Assert.True(ProfileValidator.Validate(p).IsValid, ProfileValidator.Validate(p).ToString());
+    }
+
+    [Fact]
+    public void CeilingThresholdAtTheCeilingLimit_IsRefusedNamingTheField()
+    {
+        // ceiling: lowest BKN/OVC layer below 20 000 ft (ICAO/EASA definition of ceiling)
+        var p = ProfileFixtures.Valid().WithPrep(x => x with { CeilingRecoverFt = 20_000 });
+        AssertProblem(p, "thresholds.preparation.ceilingRecoverFt", "at or above the ceiling definition's limit (20000 ft");
+    }
+
+    [Fact]
+    public void CeilingThresholdJustBelowTheCeilingLimit_IsAllowed()
+    {
+        var p = ProfileFixtures.Valid().WithPrep(x => x with { CeilingRecoverFt = 19_900 });
+        Assert.True(ProfileValidator.Validate(p).IsValid, ProfileValidator.Validate(p).ToString());
+    }
+
+    // --- docs/engine.md R18: entry comparison
+
+    [Fact]
+    public void AtOrBelowWithRecoverEqualToEntry_IsRefusedNamingTheRecoverField()
+    {
+        var p = ProfileFixtures.Valid().WithActive(a => a with { EntryComparison = EntryComparison.AtOrBelow, CeilingRecoverFt = 200 });
+        AssertProblem(p, "thresholds.active.ceilingRecoverFt", "equal to ceilingBelowFt with entryComparison atOrBelow");
+    }
+
+    [Fact]
+    public void AtOrBelowWithRecoverAboveEntry_IsAllowed()
+    {
+        var p = ProfileFixtures.Valid().WithActive(a => a with { EntryComparison = EntryComparison.AtOrBelow });
+        Assert.True(ProfileValidator.Validate(p).IsValid, ProfileValidator.Validate(p).ToString());
+    }
+
+    [Fact]
+    public void EntryComparison_IsReadFromTheProfileJsonAndUnknownWordsAreRefused()
+    {
+        var json = File.ReadAllText(Path.Combine(ProfileFixtures.RepoRoot(), "seed-demo", "profile.json"));
+        var atOrBelow = json.Replace("\"active\": {", "\"active\": { \"entryComparison\": \"atOrBelow\",", StringComparison.Ordinal);
+        Assert.NotEqual(json, atOrBelow);
+        Assert.Equal(EntryComparison.AtOrBelow, ProfileLoader.Parse(atOrBelow).Thresholds.Active.EntryComparison);
+        Assert.Equal(EntryComparison.Below, ProfileLoader.Parse(json).Thresholds.Active.EntryComparison);
+        var bad = json.Replace("\"active\": {", "\"active\": { \"entryComparison\": \"atOrUnder\",", StringComparison.Ordinal);
+        Assert.Throws<ProfileException>(() => ProfileLoader.Parse(bad));
+    }
+
+    // --- docs/engine.md R21: maximum age per sensor
+
+    [Fact]
+    public void SensorMaxAgeNotPositive_IsRefusedNamingTheField()
+    {
+        var p = ProfileFixtures.Valid().WithSensor(3, s => s with { MaxAgeSeconds = 0 });
+        AssertProblem(p, "sensors[3].maxAgeSeconds", "expected this sensor's maximum reading age in seconds > 0");
+    }
+
+    [Fact]
+    public void SensorWithItsOwnMaxAge_NeedsNoPerKindValue()
+    {
+        var valid = ProfileFixtures.Valid();
+        var ages = valid.MaxAgeSeconds.Where(p => p.Key is not (ReadingKind.CloudBase or ReadingKind.VerticalVisibility)).ToDictionary();
+        Assert.False(ProfileValidator.Validate(valid with { MaxAgeSeconds = ages }).IsValid);
+        var p = (valid with { MaxAgeSeconds = ages }).WithSensor(3, s => s with { MaxAgeSeconds = 1800 });
+        Assert.True(ProfileValidator.Validate(p).IsValid, ProfileValidator.Validate(p).ToString());
+    }
+
     [Fact]
     public void RecoverMissingWhileEnterSet_NamesTheRecoverField()
     {

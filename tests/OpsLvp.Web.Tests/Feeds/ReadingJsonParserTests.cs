@@ -20,6 +20,7 @@ public sealed class ReadingJsonParserTests
     [InlineData("extinction", ReadingKind.Extinction)]
     [InlineData("transmittance", ReadingKind.Transmittance)]
     [InlineData("background_luminance", ReadingKind.BackgroundLuminance)]
+    [InlineData("light_step", ReadingKind.LightStep)]
     public void EveryDocumentedKind_IsRead(string wire, ReadingKind expected)
     {
         var result = Parse(Item(kind: $"\"{wire}\""));
@@ -110,7 +111,7 @@ public sealed class ReadingJsonParserTests
     {
         var rejection = Assert.Single(Parse("""{ "readings": [ { "sensor": "S1", "kind": "fog", "value": "x" } ] }""").Rejections);
 
-        Assert.Equal("time is missing; status is missing; kind 'fog' is not one of rvr, visibility, cloud_base, vertical_visibility, extinction, transmittance, background_luminance; value must be a number (got a string)", rejection.Detail);
+        Assert.Equal("time is missing; status is missing; kind 'fog' is not one of rvr, visibility, cloud_base, vertical_visibility, extinction, transmittance, background_luminance, light_step; value must be a number (got a string)", rejection.Detail);
         Assert.Equal("S1", rejection.SensorId);
     }
 

@@ -66,4 +66,35 @@ public sealed class MetarFeedTests
         var rejection = Assert.Single(batch.Rejections);
         Assert.Equal(RejectReason.Malformed, rejection.Reason);
     }
+
+    [Fact]
+    public void ToBatch_UnknownCeiling_GivesNoCeilingReadingThatCouldRelax_EvenWithAClearValueConfigured()
+    {
+        // docs/engine.md R24: BKN/// (height not determinable) could lie below OVC030; VV/// is sky obscured, height unknown
+        var now = new DateTimeOffset(2026, 1, 15, 4, 10, 0, TimeSpan.Zero);
+        var feed = new MetarFeedOptions
+        {
+            Name = "unit",
+            CloudBaseSensorId = "ceil",
+            VerticalVisibilitySensorId = "ceil",
+            NoCeilingCloudBaseFeet = 20_000,
+        };
+        var batch = MetarFeedPoller.ToBatch(
+            "METAR XTST 150400Z 00000KT 0800 BR BKN/// OVC030 03/03 Q1021=\nMETAR XTST 150405Z 00000KT 0200 FG VV/// 03/03 Q1021=\n",
+            feed,
+            now);
+        Assert.DoesNotContain(batch.Readings, r => r.Kind is ReadingKind.CloudBase or ReadingKind.VerticalVisibility);
+        Assert.Empty(batch.Rejections);
+    }
+
+    [Fact]
+    public void ToBatch_VisibilityAtLeast1500WithoutRvrGroup_GivesRvr1500OrMore()
+    {
+        // docs/engine.md R22; RVR reported when visibility or RVR below 1500 m (from memory, DOMAIN.md)
+        var now = new DateTimeOffset(2026, 1, 15, 4, 10, 0, TimeSpan.Zero);
+        var feed = new MetarFeedOptions { Name = "unit", RvrSensorByRunway = new Dictionary<string, string> { ["09"] = "r09" } };
+        var batch = MetarFeedPoller.ToBatch("METAR XTST 150400Z 00000KT 6000 BR SCT010 03/03 Q1021=\n", feed, now);
+        var at = new DateTimeOffset(2026, 1, 15, 4, 0, 0, TimeSpan.Zero);
+        Assert.Equal([new Reading(at, "r09", ReadingKind.Rvr, 1500, Flags: ReadingFlags.OrMore)], batch.Readings);
+    }
 }

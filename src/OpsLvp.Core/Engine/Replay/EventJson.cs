@@ -1,6 +1,7 @@
 using System.Text;
 using System.Text.Encodings.Web;
 using System.Text.Json;
+using OpsLvp.Core.Readings;
 
 namespace OpsLvp.Core.Engine.Replay;
 
@@ -160,6 +161,16 @@ public static class EventJson
     {
         NullableNumber(w, "governing_rvr_m", s.GoverningRvrM);
         Optional(w, "governing_rvr_sensor", s.GoverningRvrSensor, writeNull: true);
+        if (s.GoverningRvrFlags != ReadingFlags.None)
+        {
+            // only when flagged, so unflagged lines stay as they were (docs/engine.md R19–R22)
+            w.WriteStartArray("governing_rvr_flags");
+            foreach (var word in ReadingFlagText.Words(s.GoverningRvrFlags))
+            {
+                w.WriteStringValue(word);
+            }
+            w.WriteEndArray();
+        }
         NullableNumber(w, "ceiling_ft", s.CeilingFt);
         Optional(w, "ceiling_sensor", s.CeilingSensor, writeNull: true);
         w.WriteBoolean("forecast", s.DeteriorationForecast);

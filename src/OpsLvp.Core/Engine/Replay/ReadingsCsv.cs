@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Engine.Replay;
 /// <summary>
 /// Readings CSV (docs/replay.md): header <c>time,sensor,kind,value,status</c>; time ISO 8601 with Z or an
 /// offset; kind rvr | visibility | cloud_base | vertical_visibility | extinction | transmittance |
-/// background_luminance; value a number with a point; status ok | degraded | failed | maintenance.
+/// background_luminance | light_step; value a number with a point; status ok | degraded | failed | maintenance.
 /// Syntax errors throw <see cref="FormatException"/> naming the file and line; screening (ranges,
 /// sensors) is the engine's job, so a well-formed but implausible line parses and is rejected there.
 /// </summary>
@@ -49,6 +49,7 @@ public static class ReadingsCsv
         ReadingKind.Extinction => "extinction",
         ReadingKind.Transmittance => "transmittance",
         ReadingKind.BackgroundLuminance => "background_luminance",
+        ReadingKind.LightStep => "light_step",
         _ => kind.ToString().ToLowerInvariant(),
     };
 

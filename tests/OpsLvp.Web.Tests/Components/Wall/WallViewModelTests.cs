@@ -1,4 +1,5 @@
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Readings;
 using OpsLvp.Web.Components.Pages.Wall;
 using static OpsLvp.Web.Tests.Components.Wall.WallSnapshots;
 
@@ -60,6 +61,21 @@ public sealed class WallViewModelTests
         Assert.Null(vm.Ceiling);
         Assert.Equal("UNKNOWN", vm.GoverningRvr.ValueText);
         Assert.Equal("wall-fig-unknown", vm.GoverningRvr.CssClass);
+    }
+
+    [Fact]
+    public void FlaggedGoverningRvr_SaysLuminanceUnknownAndOrMoreBesideTheValue()
+    {
+        // docs/engine.md R19 and R22: a value derived without luminance, and METAR's "RVR 1500 m or more" (invented values)
+        var unknownLuminance = Status() with { GoverningRvr = Rvr(400, "rvr-tdz", "07L TDZ") with { Flags = ReadingFlags.LuminanceUnknown } };
+        var vm = WallViewModel.Build(Snapshot(unknownLuminance), At);
+        Assert.Equal("400 m", vm.GoverningRvr.ValueText);
+        Assert.EndsWith("· luminance unknown", vm.GoverningRvr.Detail, StringComparison.Ordinal);
+
+        var orMore = Status() with { GoverningRvr = Rvr(1500, "metar-07l", "07L TDZ") with { Flags = ReadingFlags.OrMore } };
+        vm = WallViewModel.Build(Snapshot(orMore), At);
+        Assert.Equal("≥ 1500 m", vm.GoverningRvr.ValueText);
+        Assert.DoesNotContain("unknown", vm.GoverningRvr.Detail, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -1,6 +1,7 @@
 using System.Globalization;
 using OpsLvp.Core.Engine;
 using OpsLvp.Core.Profile;
+using OpsLvp.Core.Readings;
 using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Components.Pages.Wall;
@@ -262,8 +263,15 @@ public sealed class WallViewModel
     private static WallFigure Figure(string label, MeasuredValue? value, string unit, double drift, string unknown) => value switch
     {
         null => new(label, "UNKNOWN", unknown, "wall-fig-unknown"),
-        { Stale: true } v => new(label, $"{N(v.Value)} {unit}", $"STALE · {v.Label}", "wall-fig-stale"),
-        var v => new(label, $"{N(v.Value)} {unit}", $"{v.Label} · {Duration(TimeSpan.FromSeconds(v.AgeSeconds + drift))} old", "wall-fig-fresh"),
+        { Stale: true } v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{N(v.Value)} {unit}", $"STALE · {v.Label}{FlagNote(v.Flags)}", "wall-fig-stale"),
+        var v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{N(v.Value)} {unit}", $"{v.Label} · {Duration(TimeSpan.FromSeconds(v.AgeSeconds + drift))} old{FlagNote(v.Flags)}", "wall-fig-fresh"),
+    };
+
+    // "luminance unknown" and the like beside the value (docs/engine.md R19–R22); "or more" is the value's "≥" prefix.
+    private static string FlagNote(ReadingFlags flags) => (flags & ~ReadingFlags.OrMore) switch
+    {
+        ReadingFlags.None => "",
+        var rest => " · " + ReadingFlagText.Describe(rest),
     };
 
     private static WallThresholdRow Row(string phase, PhaseThresholds t)
