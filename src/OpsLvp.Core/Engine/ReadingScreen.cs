@@ -12,6 +12,62 @@ namespace OpsLvp.Core.Engine;
 /// </summary>
 public static class ReadingScreen
 {
+    private static readonly ReadingKind[] s_rvrSystem = [ReadingKind.Rvr, ReadingKind.Visibility];
+    private static readonly ReadingKind[] s_transmissometer = [ReadingKind.Transmittance, ReadingKind.Rvr, ReadingKind.Visibility];
+    private static readonly ReadingKind[] s_forwardScatter = [ReadingKind.Extinction, ReadingKind.Rvr, ReadingKind.Visibility];
+    private static readonly ReadingKind[] s_ceilometer = [ReadingKind.CloudBase, ReadingKind.VerticalVisibility];
+    private static readonly ReadingKind[] s_visibility = [ReadingKind.Visibility];
+    private static readonly ReadingKind[] s_luminance = [ReadingKind.BackgroundLuminance];
+
+    /// <summary>
+    /// The checks of one reading that need no earlier reading, in the engine's order (docs/engine.md R1): unknown
+    /// sensor (<paramref name="sensor"/> is null), a kind the sensor type does not produce, a status other than ok,
+    /// a value outside the kind's range, a time more than <paramref name="futureSkew"/> after <paramref name="now"/>.
+    /// Null when the reading passes. Duplicate and older-than-latest need the engine state and are the engine's.
+    /// The engine screens with this function and the push ingest answers with it, so both give the same reason.
+    /// </summary>
+    public static (RejectReason Reason, string Detail)? Check(Reading reading, SensorConfig? sensor, DateTimeOffset now, TimeSpan futureSkew)
+    {
+        ArgumentNullException.ThrowIfNull(reading);
+        if (sensor is null)
+        {
+            return (RejectReason.UnknownSensor, $"sensor '{reading.SensorId}' is not in the profile");
+        }
+        if (!Produces(sensor.Type, reading.Kind))
+        {
+            return (RejectReason.KindNotProduced, $"a {sensor.Type} sensor does not produce {reading.Kind}");
+        }
+        if (reading.Status != ReadingStatus.Ok)
+        {
+            return (RejectReason.StatusNotOk, $"status {reading.Status.ToString().ToLowerInvariant()}");
+        }
+        if (!InRange(reading.Kind, reading.Value))
+        {
+            var (min, max) = Range(reading.Kind);
+            return (RejectReason.OutOfRange, $"{Fmt.N(reading.Value)} outside {Fmt.N(min)}..{Fmt.N(max)} for {reading.Kind}");
+        }
+        if (reading.Time > now + futureSkew)
+        {
+            return (RejectReason.FutureDated, $"time {Fmt.Time(reading.Time)} is more than {Fmt.N(futureSkew.TotalSeconds)} s after {Fmt.Time(now)}");
+        }
+        return null;
+    }
+
+    /// <summary>
+    /// <see cref="Check(Reading, SensorConfig?, DateTimeOffset, TimeSpan)"/> against a profile: the first sensor with
+    /// the reading's id and the profile's future skew (negative counts as zero).
+    /// </summary>
+    public static (RejectReason Reason, string Detail)? Check(Reading reading, AerodromeProfile profile, DateTimeOffset now)
+    {
+        ArgumentNullException.ThrowIfNull(reading);
+        ArgumentNullException.ThrowIfNull(profile);
+        var sensor = profile.Sensors.FirstOrDefault(s => s is not null && string.Equals(s.Id, reading.SensorId, StringComparison.Ordinal));
+        return Check(reading, sensor, now, TimeSpan.FromSeconds(Math.Max(0, profile.FutureSkewSeconds)));
+    }
+
+    /// <summary>Whether a sensor of <paramref name="type"/> sends readings of <paramref name="kind"/> (<see cref="KindsProduced"/>).</summary>
+    public static bool Produces(SensorType type, ReadingKind kind) => Array.IndexOf(Kinds(type), kind) >= 0;
+
     /// <summary>Inclusive physical range of a kind, in its unit.</summary>
     public static (double Min, double Max) Range(ReadingKind kind) => kind switch
     {
@@ -37,14 +93,16 @@ public static class ReadingScreen
     /// computed and a visibility (MOR); raw kinds (extinction, transmittance, luminance) are accepted and kept
     /// but only <see cref="ReadingKind.Rvr"/> readings govern the phase.
     /// </summary>
-    public static IReadOnlyList<ReadingKind> KindsProduced(SensorType type) => type switch
+    public static IReadOnlyList<ReadingKind> KindsProduced(SensorType type) => Array.AsReadOnly(Kinds(type));
+
+    private static ReadingKind[] Kinds(SensorType type) => type switch
     {
-        SensorType.RvrSystem => [ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.Transmissometer => [ReadingKind.Transmittance, ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.ForwardScatter => [ReadingKind.Extinction, ReadingKind.Rvr, ReadingKind.Visibility],
-        SensorType.Ceilometer => [ReadingKind.CloudBase, ReadingKind.VerticalVisibility],
-        SensorType.Visibility => [ReadingKind.Visibility],
-        SensorType.Luminance => [ReadingKind.BackgroundLuminance],
+        SensorType.RvrSystem => s_rvrSystem,
+        SensorType.Transmissometer => s_transmissometer,
+        SensorType.ForwardScatter => s_forwardScatter,
+        SensorType.Ceilometer => s_ceilometer,
+        SensorType.Visibility => s_visibility,
+        SensorType.Luminance => s_luminance,
         _ => [],
     };
 

@@ -105,6 +105,11 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             errors.Add(Msg($"Feeds:Push:MaxBodyBytes must be between 1024 and 67108864 (got {options.Push.MaxBodyBytes})."));
         }
 
+        if (options.Push.MaxReadings is < 1 or > ReadingJsonParser.MaxItems)
+        {
+            errors.Add(Msg($"Feeds:Push:MaxReadings must be between 1 and {ReadingJsonParser.MaxItems} (got {options.Push.MaxReadings})."));
+        }
+
         return errors;
     }
 
