@@ -8,6 +8,7 @@ using Microsoft.AspNetCore.Identity;
 using Microsoft.AspNetCore.SignalR;
 using Microsoft.Extensions.Options;
 using OpsLvp.Data;
+using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Live;
 using OpsLvp.Data.Entities;
 using OpsLvp.Data.Stores;
@@ -35,6 +36,7 @@ public static class AccessServiceCollectionExtensions
     {
         services.AddOptions<AccessOptions>()
             .Bind(configuration.GetSection(AccessOptions.SectionName))
+            .ValidateShape(configuration, AccessOptions.SectionName)
             .Validate(o => o.RevalidationInterval >= TimeSpan.FromSeconds(1) && o.RevalidationInterval <= TimeSpan.FromSeconds(60),
                 "Access:RevalidationInterval must be between 00:00:01 and 00:01:00.")
             .Validate(o => o.SessionLifetime >= TimeSpan.FromMinutes(5) && o.SessionLifetime <= TimeSpan.FromDays(7),

@@ -21,6 +21,7 @@ public static class EngineServiceCollectionExtensions
         services.AddOpsLvpData(configuration, sp => $"Data Source={Path.Combine(sp.GetRequiredService<AppPaths>().DataFolder, DatabaseFileName)}");
         services.AddOptions<EngineOptions>()
             .Bind(configuration.GetSection(EngineOptions.SectionName))
+            .ValidateShape(configuration, EngineOptions.SectionName)
             .Validate(o => !string.IsNullOrWhiteSpace(o.ProfilePath), "Engine:ProfilePath must be set.")
             .Validate(o => o.TickInterval > TimeSpan.Zero && o.TickInterval <= TimeSpan.FromSeconds(1), "Engine:TickInterval must be between 00:00:00.001 and 00:00:01.")
             .Validate(o => o.StateFlushInterval > TimeSpan.Zero && o.StateFlushInterval <= TimeSpan.FromMinutes(5), "Engine:StateFlushInterval must be between 00:00:00.001 and 00:05:00.")
