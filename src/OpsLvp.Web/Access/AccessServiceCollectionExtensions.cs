@@ -153,12 +153,11 @@ public static class AccessServiceCollectionExtensions
     }
 
     /// <summary>
-    /// Security headers, HTTPS redirection and HSTS when <c>Access:HttpsRedirection</c> is on, authentication and
-    /// authorisation. Call before <c>UseAntiforgery</c>.
+    /// HTTPS redirection and HSTS when <c>Access:HttpsRedirection</c> is on, authentication and authorisation. Call
+    /// before <c>UseAntiforgery</c>; <see cref="SecurityHeaders.UseSecurityHeaders"/> goes first in the pipeline.
     /// </summary>
     public static WebApplication UseAccess(this WebApplication app)
     {
-        app.UseSecurityHeaders();
         if (app.Services.GetRequiredService<IOptions<AccessOptions>>().Value.HttpsRedirection)
         {
             app.UseHsts();
