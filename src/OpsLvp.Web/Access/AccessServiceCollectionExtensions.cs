@@ -114,7 +114,7 @@ public static class AccessServiceCollectionExtensions
             .AddPolicy(AccessPolicies.Console, p => p.RequireRole(Roles.DutyManager))
             .AddPolicy(AccessPolicies.Actions, p => p.RequireRole(Roles.GroundStaff, Roles.DutyManager))
             .AddPolicy(AccessPolicies.Admin, p => p.RequireRole(Roles.Administrator))
-            .AddPolicy(AccessPolicies.Wall, p => p.RequireAssertion(c => HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken)))
+            .AddPolicy(AccessPolicies.Wall, p => p.RequireAssertion(c => AccessPolicies.MayViewLiveData(c.User)))
             .AddPolicy(AccessPolicies.Review, p => p.RequireAssertion(c => HasAnyRole(c.User)))
             .AddPolicy(AccessPolicies.HubRead, p => p.RequireAssertion(c =>
                 HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken) || c.User.HasClaim(AccessClaims.Scope, ApiKeyStore.HubReadScope)))
