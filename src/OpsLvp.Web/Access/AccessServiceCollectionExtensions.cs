@@ -1,4 +1,6 @@
+using System.Globalization;
 using System.Security.Claims;
+using System.Threading.RateLimiting;
 using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Authentication.Cookies;
 using Microsoft.AspNetCore.Components.Authorization;
@@ -39,8 +41,16 @@ public static class AccessServiceCollectionExtensions
             .ValidateShape(configuration, AccessOptions.SectionName)
             .Validate(o => o.RevalidationInterval >= TimeSpan.FromSeconds(1) && o.RevalidationInterval <= TimeSpan.FromSeconds(60),
                 "Access:RevalidationInterval must be between 00:00:01 and 00:01:00.")
-            .Validate(o => o.SessionLifetime >= TimeSpan.FromMinutes(5) && o.SessionLifetime <= TimeSpan.FromDays(7),
-                "Access:SessionLifetime must be between 00:05:00 and 7.00:00:00.")
+            .Validate(o => o.SessionLifetime >= TimeSpan.FromSeconds(1) && o.SessionLifetime <= TimeSpan.FromDays(7),
+                "Access:SessionLifetime must be between 00:00:01 and 7.00:00:00.")
+            .Validate(o => o.SessionIdleTimeout >= TimeSpan.FromSeconds(1) && o.SessionIdleTimeout <= o.SessionLifetime,
+                "Access:SessionIdleTimeout must be between 00:00:01 and Access:SessionLifetime.")
+            .Validate(o => o.SignInPerAddressPerMinute is >= 1 and <= 10_000,
+                "Access:SignInPerAddressPerMinute must be between 1 and 10000.")
+            .Validate(o => o.SignInAttemptsPerAccount is >= 1 and <= 1000,
+                "Access:SignInAttemptsPerAccount must be between 1 and 1000.")
+            .Validate(o => o.SignInAccountWindow >= TimeSpan.FromSeconds(1) && o.SignInAccountWindow <= TimeSpan.FromDays(1),
+                "Access:SignInAccountWindow must be between 00:00:01 and 1.00:00:00.")
             .Validate(o => o.DisplayLifetime >= TimeSpan.FromHours(1) && o.DisplayLifetime <= TimeSpan.FromDays(400),
                 "Access:DisplayLifetime must be between 01:00:00 and 400.00:00:00.")
             .Validate(o => string.IsNullOrEmpty(o.SetupSecret) || o.SetupSecret.Trim().Length >= 16,
@@ -83,10 +93,18 @@ public static class AccessServiceCollectionExtensions
             .AddIdentityCookies();
         services.AddOptions<CookieAuthenticationOptions>(IdentityConstants.ApplicationScheme).Configure<IOptions<AccessOptions>>((o, access) =>
         {
-            ConfigureCookie(o, AccessSchemes.SessionCookieName, access.Value.SessionLifetime);
+            ConfigureCookie(o, AccessSchemes.SessionCookieName, access.Value.SessionIdleTimeout);
             o.LoginPath = "/signin";
             o.LogoutPath = "/signout";
             o.AccessDeniedPath = "/access-denied";
+            // Replaces Identity's interval-based stamp check: every request is checked, so a sign-out, a password or
+            // role change, or a disabled account ends a copied cookie at once (docs/access.md, "Sessions").
+            o.Events.OnSigningIn = context =>
+            {
+                context.Properties.Items.TryAdd(SessionStartedItem, TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture));
+                return Task.CompletedTask;
+            };
+            o.Events.OnValidatePrincipal = ValidateSessionAsync;
         });
         services.AddOptions<CookieAuthenticationOptions>(AccessSchemes.Display).Configure<IOptions<AccessOptions>>((o, access) =>
         {
@@ -123,6 +141,20 @@ public static class AccessServiceCollectionExtensions
         services.AddCascadingAuthenticationState();
         services.AddScoped<AuthenticationStateProvider, AccessRevalidatingAuthenticationStateProvider>();
         services.AddSingleton<AccessValidator>();
+        services.AddSingleton<SignInThrottle>();
+        services.AddSingleton<SignInFailureAudit>();
+        services.AddHostedService(sp => sp.GetRequiredService<SignInFailureAudit>());
+        services.AddRateLimiter(o =>
+        {
+            o.RejectionStatusCode = StatusCodes.Status429TooManyRequests;
+            o.GlobalLimiter = PartitionedRateLimiter.Create<HttpContext, string>(SignInRateLimit);
+            o.OnRejected = async (context, cancellationToken) =>
+            {
+                context.HttpContext.Response.Headers.RetryAfter = "60";
+                context.HttpContext.Response.ContentType = "text/plain; charset=utf-8";
+                await context.HttpContext.Response.WriteAsync("Too many sign-in attempts from this address; wait a minute and try again.", cancellationToken);
+            };
+        });
         services.AddSingleton<AccessAudit>();
         services.AddSingleton<SetupGate>();
         services.AddSingleton<DemoAccounts>();
@@ -163,9 +195,57 @@ public static class AccessServiceCollectionExtensions
             app.UseHsts();
             app.UseHttpsRedirection();
         }
+        app.UseRateLimiter();
         app.UseAuthentication();
         app.UseAuthorization();
         return app;
+    }
+
+    /// <summary>Authentication property holding when the session began (UTC, round-trip text); survives sliding renewal.</summary>
+    public const string SessionStartedItem = ".opslvp.signedInAt";
+
+    /// <summary>
+    /// The per-address sign-in limit (ASP.NET Core rate limiting): form posts to <c>/signin</c>, counted per client
+    /// address in one-minute windows (<see cref="AccessOptions.SignInPerAddressPerMinute"/>); every other request passes.
+    /// </summary>
+    public static RateLimitPartition<string> SignInRateLimit(HttpContext context)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        if (!HttpMethods.IsPost(context.Request.Method) || !context.Request.Path.Equals("/signin", StringComparison.OrdinalIgnoreCase))
+        {
+            return RateLimitPartition.GetNoLimiter("");
+        }
+        var limit = context.RequestServices.GetRequiredService<IOptions<AccessOptions>>().Value.SignInPerAddressPerMinute;
+        return RateLimitPartition.GetFixedWindowLimiter(context.Connection.RemoteIpAddress?.ToString() ?? "unknown", _ => new FixedWindowRateLimiterOptions
+        {
+            PermitLimit = limit,
+            Window = TimeSpan.FromMinutes(1),
+            QueueLimit = 0,
+            AutoReplenishment = true,
+        });
+    }
+
+    /// <summary>
+    /// Every request with a session cookie: past <see cref="AccessOptions.SessionLifetime"/> since the sign-in, or no longer
+    /// valid for <see cref="AccessValidator"/> (signed out, password or roles changed, disabled, removed), the cookie is
+    /// rejected and cleared.
+    /// </summary>
+    private static async Task ValidateSessionAsync(CookieValidatePrincipalContext context)
+    {
+        var services = context.HttpContext.RequestServices;
+        var lifetime = services.GetRequiredService<IOptions<AccessOptions>>().Value.SessionLifetime;
+        var started = context.Properties.Items.TryGetValue(SessionStartedItem, out var text)
+            && DateTimeOffset.TryParse(text, CultureInfo.InvariantCulture, DateTimeStyles.RoundtripKind, out var at)
+                ? at
+                : context.Properties.IssuedUtc;
+        var valid = started is { } s && TimeProvider.System.GetUtcNow() - s <= lifetime
+            && context.Principal is not null
+            && await services.GetRequiredService<AccessValidator>().IsStillValidAsync(context.Principal, context.HttpContext.RequestAborted);
+        if (!valid)
+        {
+            context.RejectPrincipal();
+            await context.HttpContext.SignOutAsync(IdentityConstants.ApplicationScheme);
+        }
     }
 
     internal static bool HasAnyRole(ClaimsPrincipal user) => AccessStartup.AllRoles.Any(user.IsInRole);
