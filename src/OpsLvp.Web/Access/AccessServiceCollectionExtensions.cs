@@ -4,6 +4,7 @@ using System.Threading.RateLimiting;
 using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Authentication.Cookies;
 using Microsoft.AspNetCore.Components.Authorization;
+using Microsoft.AspNetCore.DataProtection;
 using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Http.Features;
 using Microsoft.AspNetCore.Identity;
@@ -137,6 +138,12 @@ public static class AccessServiceCollectionExtensions
             .AddPolicy(AccessPolicies.HubRead, p => p.RequireAssertion(c =>
                 HasAnyRole(c.User) || c.User.HasClaim(h => h.Type == AccessClaims.DisplayToken) || c.User.HasClaim(AccessClaims.Scope, ApiKeyStore.HubReadScope)))
             .AddPolicy(AccessPolicies.Ingest, p => p.RequireClaim(AccessClaims.Scope, ApiKeyStore.IngestScope));
+
+        // The key ring that protects session cookies and antiforgery tokens lives in the database (table
+        // data_protection_keys), not the user profile: a re-created container keeps everyone signed in and forms valid.
+        services.AddDataProtection()
+            .SetApplicationName("OpsLvp")
+            .PersistKeysToDbContext<OpsLvpDbContext>();
 
         services.AddCascadingAuthenticationState();
         services.AddScoped<AuthenticationStateProvider, AccessRevalidatingAuthenticationStateProvider>();
