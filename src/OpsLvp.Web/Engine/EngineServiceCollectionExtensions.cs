@@ -26,6 +26,11 @@ public static class EngineServiceCollectionExtensions
             .Validate(o => o.TickInterval > TimeSpan.Zero && o.TickInterval <= TimeSpan.FromSeconds(1), "Engine:TickInterval must be between 00:00:00.001 and 00:00:01.")
             .Validate(o => o.StateFlushInterval > TimeSpan.Zero && o.StateFlushInterval <= TimeSpan.FromMinutes(5), "Engine:StateFlushInterval must be between 00:00:00.001 and 00:05:00.")
             .ValidateOnStart();
+        services.AddOptions<LiveOptions>()
+            .Bind(configuration.GetSection(LiveOptions.SectionName))
+            .ValidateShape(configuration, LiveOptions.SectionName)
+            .Validate(o => o.MaxStatesPerSecond is >= 0.01 and <= 1000, "Live:MaxStatesPerSecond must be between 0.01 and 1000.")
+            .ValidateOnStart();
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
         services.AddSingleton<LiveEngineHost>();
