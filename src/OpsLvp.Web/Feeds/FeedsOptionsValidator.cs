@@ -23,6 +23,11 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             errors.Add(Msg($"Feeds:PipelineCapacity must be between 1 and 1000000 (got {options.PipelineCapacity})."));
         }
 
+        if (options.HealthAuditInterval < TimeSpan.Zero || options.HealthAuditInterval > TimeSpan.FromHours(1))
+        {
+            errors.Add("Feeds:HealthAuditInterval must be between 00:00:00 and 01:00:00.");
+        }
+
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < options.Http.Count; i++)
         {
