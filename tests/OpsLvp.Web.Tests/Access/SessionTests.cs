@@ -1,5 +1,6 @@
 using System.Net;
 using Microsoft.AspNetCore.Identity;
+using Microsoft.AspNetCore.SignalR.Client;
 using Microsoft.Extensions.DependencyInjection;
 using OpsLvp.Data.Entities;
 using OpsLvp.Web.Access;
@@ -54,6 +55,25 @@ public sealed class SessionTests
         Assert.Equal(HttpStatusCode.Unauthorized, await StateStatusAsync(copy));
         using var page = await copy.GetAsync(new Uri("/admin/users", UriKind.Relative));
         Assert.Equal(HttpStatusCode.Redirect, page.StatusCode);
+    }
+
+    [Fact]
+    public async Task SignOut_KeepsACopiedCookieOffTheHub()
+    {
+        await using var app = AccessApp.Start(s_slowRevalidation);
+        await app.CreateUserAsync("v.hub", Roles.Viewer);
+        using var person = await SignedInAsync(app, "v.hub");
+        var cookie = person.Cookies.GetAllCookies().Single(c => c.Name == AccessSchemes.SessionCookieName);
+        var copied = new CookieContainer();
+        copied.Add(new Cookie(cookie.Name, cookie.Value, "/", app.BaseAddress.Host));
+
+        (await person.SignOutAsync()).Dispose();
+
+        await using var hub = new HubConnectionBuilder()
+            .WithUrl(new Uri(app.BaseAddress, Web.Live.LiveApi.HubPath), o => o.Cookies = copied)
+            .Build();
+        var refused = await Assert.ThrowsAsync<HttpRequestException>(() => hub.StartAsync());
+        Assert.Equal(HttpStatusCode.Unauthorized, refused.StatusCode);
     }
 
     [Fact]
