@@ -113,6 +113,11 @@ public sealed class SignInFailureAudit(AccessAudit audit, ILogger<SignInFailureA
             // Refused either way; the audit health shows the storage fault.
             logger.LogWarning(ex, "Failed sign-in could not be audited");
         }
+        catch (ObjectDisposedException ex)
+        {
+            // The server is shutting down and its database services are gone; say what was not written.
+            logger.LogWarning(ex, "Failed sign-in entry {Kind} not audited: the server is stopping", kind);
+        }
         finally
         {
             _writer.Release();
@@ -148,9 +153,7 @@ public sealed class SignInFailureAudit(AccessAudit audit, ILogger<SignInFailureA
         await FlushAsync(all: true, cancellationToken);
     }
 
-    public void Dispose()
-    {
-        _timer?.Dispose();
-        _writer.Dispose();
-    }
+    // _writer is not disposed: a write still finishing at shutdown must be able to release it (a SemaphoreSlim
+    // without a wait handle holds nothing to free).
+    public void Dispose() => _timer?.Dispose();
 }
