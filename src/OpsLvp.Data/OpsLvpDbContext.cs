@@ -1,4 +1,5 @@
 using System.Text;
+using Microsoft.AspNetCore.DataProtection.EntityFrameworkCore;
 using Microsoft.AspNetCore.Identity;
 using Microsoft.AspNetCore.Identity.EntityFrameworkCore;
 using Microsoft.EntityFrameworkCore;
@@ -8,11 +9,14 @@ namespace OpsLvp.Data;
 
 /// <summary>
 /// The OpsLvp database: readings, the audit chain, the engine state row, feed health, and access control (the
-/// ASP.NET Core Identity tables, display tokens, API keys). Tables and columns are snake_case. Configure with
+/// ASP.NET Core Identity tables, display tokens, API keys) and the data-protection key ring (so a re-created container
+/// keeps sessions and forms valid). Tables and columns are snake_case. Configure with
 /// <see cref="OpsLvpDatabase"/>; migrations live in this assembly.
 /// </summary>
-public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) : IdentityDbContext<OpsLvpUser>(options)
+public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) : IdentityDbContext<OpsLvpUser>(options), IDataProtectionKeyContext
 {
+    public DbSet<DataProtectionKey> DataProtectionKeys => Set<DataProtectionKey>();
+
     public DbSet<ReadingRow> Readings => Set<ReadingRow>();
 
     public DbSet<AuditEntryRow> AuditEntries => Set<AuditEntryRow>();
@@ -34,6 +38,13 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
     {
         base.OnModelCreating(modelBuilder);
         MapIdentityTables(modelBuilder);
+        modelBuilder.Entity<DataProtectionKey>(e =>
+        {
+            e.ToTable("data_protection_keys");
+            e.Property(k => k.Id).HasColumnName("id");
+            e.Property(k => k.FriendlyName).HasColumnName("friendly_name");
+            e.Property(k => k.Xml).HasColumnName("xml");
+        });
         modelBuilder.Entity<ReadingRow>(e =>
         {
             e.ToTable("readings");

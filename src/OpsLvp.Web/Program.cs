@@ -26,6 +26,8 @@ builder.Services.AddAccess(builder.Configuration);
 
 var app = builder.Build();
 
+// First, so static assets, error pages and re-executed status pages carry the headers too (docs/access.md).
+app.UseSecurityHeaders();
 if (!app.Environment.IsDevelopment())
 {
     app.UseExceptionHandler("/Error", createScopeForErrors: true);

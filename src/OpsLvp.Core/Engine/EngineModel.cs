@@ -120,6 +120,10 @@ internal sealed class EngineModel
 
     public IReadOnlyDictionary<string, SensorEntry> SensorsById { get; }
 
+    /// <summary>The profile sensor with this id; null for an unknown or missing id.</summary>
+    public SensorConfig? SensorOf(string? sensorId) =>
+        sensorId is not null && SensorsById.TryGetValue(sensorId, out var entry) ? entry.Sensor : null;
+
     /// <summary>The accepted future skew of reading times (negative profile values count as zero).</summary>
     public TimeSpan FutureSkew { get; }
 

@@ -24,28 +24,9 @@ public sealed partial class LvpEngine
             {
                 return (RejectReason.Malformed, "no reading");
             }
-            if (reading.SensorId is null || !_model.SensorsById.TryGetValue(reading.SensorId, out var entry))
+            if (ReadingScreen.Check(reading, _model.SensorOf(reading.SensorId), now, _model.FutureSkew) is { } stateless)
             {
-                return (RejectReason.UnknownSensor, $"sensor '{reading.SensorId}' is not in the profile");
-            }
-            var sensor = entry.Sensor;
-            if (Array.IndexOf(entry.KindsProduced, reading.Kind) < 0)
-            {
-                return (RejectReason.KindNotProduced, $"a {sensor.Type} sensor does not produce {reading.Kind}");
-            }
-            if (reading.Status != ReadingStatus.Ok)
-            {
-                return (RejectReason.StatusNotOk, $"status {reading.Status.ToString().ToLowerInvariant()}");
-            }
-            if (!ReadingScreen.InRange(reading.Kind, reading.Value))
-            {
-                var (min, max) = ReadingScreen.Range(reading.Kind);
-                return (RejectReason.OutOfRange, $"{Fmt.N(reading.Value)} outside {Fmt.N(min)}..{Fmt.N(max)} for {reading.Kind}");
-            }
-            var skew = _model.FutureSkew;
-            if (reading.Time > now + skew)
-            {
-                return (RejectReason.FutureDated, $"time {Fmt.Time(reading.Time)} is more than {Fmt.N(skew.TotalSeconds)} s after {Fmt.Time(now)}");
+                return stateless;
             }
             if (State.Latest.TryGetValue(_model.Key(reading.SensorId, reading.Kind), out var latest))
             {

@@ -5,6 +5,7 @@ public static class AccessAuditKinds
 {
     public const string SignIn = "sign-in";
     public const string SignInFailed = "sign-in-failed";
+    public const string SignInFailedSummary = "sign-in-failed-summary";
     public const string SignOut = "sign-out";
     public const string SetupAdministrator = "setup-administrator";
     public const string UserCreated = "user-created";

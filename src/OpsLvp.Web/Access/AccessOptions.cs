@@ -14,8 +14,29 @@ public sealed class AccessOptions
     /// </summary>
     public TimeSpan RevalidationInterval { get; set; } = TimeSpan.FromSeconds(30);
 
-    /// <summary>Sign-in session lifetime, sliding; default 12 h (one operations shift with margin).</summary>
+    /// <summary>
+    /// Absolute sign-in session lifetime from the sign-in, however busy the session; default 12 h (one operations shift
+    /// with margin). 1 s to 7 days (values under a minute are for tests).
+    /// </summary>
     public TimeSpan SessionLifetime { get; set; } = TimeSpan.FromHours(12);
+
+    /// <summary>
+    /// A session with no request for this long ends (sliding); default 4 h. At most <see cref="SessionLifetime"/>. An
+    /// open screen keeps its circuit; the next page load after the idle time asks for the sign-in again.
+    /// </summary>
+    public TimeSpan SessionIdleTimeout { get; set; } = TimeSpan.FromHours(4);
+
+    /// <summary>Sign-in form posts accepted per client address per minute (all accounts); more get 429. Default 10.</summary>
+    public int SignInPerAddressPerMinute { get; set; } = 10;
+
+    /// <summary>
+    /// Sign-in attempts for one account from one client address per <see cref="SignInAccountWindow"/>; more are refused
+    /// without checking the password. Default 5. This throttle replaces an account lockout (docs/access.md).
+    /// </summary>
+    public int SignInAttemptsPerAccount { get; set; } = 5;
+
+    /// <summary>Window of <see cref="SignInAttemptsPerAccount"/>; default 15 min.</summary>
+    public TimeSpan SignInAccountWindow { get; set; } = TimeSpan.FromMinutes(15);
 
     /// <summary>Display (kiosk) cookie lifetime, sliding; default 30 days. Revocation still ends it at once.</summary>
     public TimeSpan DisplayLifetime { get; set; } = TimeSpan.FromDays(30);

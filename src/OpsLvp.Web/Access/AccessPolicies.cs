@@ -1,3 +1,5 @@
+using System.Security.Claims;
+
 namespace OpsLvp.Web.Access;
 
 /// <summary>Authorisation policy names used on pages, endpoints and the hub.</summary>
@@ -26,4 +28,11 @@ public static class AccessPolicies
 
     /// <summary>Push ingest: an API key with the ingest scope.</summary>
     public const string Ingest = "ingest";
+
+    /// <summary>
+    /// Who sees live operational data on a page (the <see cref="Wall"/> rule): any role or a display token. Anonymous
+    /// pages (sign-in, home, setup, sign-out, error pages) show none of it (docs/access.md).
+    /// </summary>
+    public static bool MayViewLiveData(ClaimsPrincipal? user) =>
+        user is not null && (AccessServiceCollectionExtensions.HasAnyRole(user) || user.HasClaim(c => c.Type == AccessClaims.DisplayToken));
 }

@@ -21,9 +21,15 @@ public static class EngineServiceCollectionExtensions
         services.AddOpsLvpData(configuration, sp => $"Data Source={Path.Combine(sp.GetRequiredService<AppPaths>().DataFolder, DatabaseFileName)}");
         services.AddOptions<EngineOptions>()
             .Bind(configuration.GetSection(EngineOptions.SectionName))
+            .ValidateShape(configuration, EngineOptions.SectionName)
             .Validate(o => !string.IsNullOrWhiteSpace(o.ProfilePath), "Engine:ProfilePath must be set.")
             .Validate(o => o.TickInterval > TimeSpan.Zero && o.TickInterval <= TimeSpan.FromSeconds(1), "Engine:TickInterval must be between 00:00:00.001 and 00:00:01.")
             .Validate(o => o.StateFlushInterval > TimeSpan.Zero && o.StateFlushInterval <= TimeSpan.FromMinutes(5), "Engine:StateFlushInterval must be between 00:00:00.001 and 00:05:00.")
+            .ValidateOnStart();
+        services.AddOptions<LiveOptions>()
+            .Bind(configuration.GetSection(LiveOptions.SectionName))
+            .ValidateShape(configuration, LiveOptions.SectionName)
+            .Validate(o => o.MaxStatesPerSecond is >= 0.01 and <= 1000, "Live:MaxStatesPerSecond must be between 0.01 and 1000.")
             .ValidateOnStart();
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());

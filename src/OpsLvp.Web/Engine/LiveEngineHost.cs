@@ -36,6 +36,7 @@ public sealed class LiveEngineHost(
     ReadingStore readingStore,
     ReadingPipeline pipeline,
     FeedHealthRegistry feeds,
+    IOptions<FeedsOptions> feedsOptions,
     LiveState live,
     DemoMode demo,
     TimeProvider clock,
@@ -49,7 +50,7 @@ public sealed class LiveEngineHost(
     private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
 
     private readonly SemaphoreSlim _gate = new(1, 1);
-    private readonly Dictionary<string, FeedStatus> _feedStatus = new(StringComparer.Ordinal);
+    private readonly FeedHealthJournal _feedJournal = new(feedsOptions.Value.HealthAuditInterval);
     private readonly List<Reading> _carried = [];
     private LvpEngine? _engine;
     private RvrDerivation? _derivation;
@@ -328,7 +329,7 @@ public sealed class LiveEngineHost(
         entries.AddRange(hostEntries);
         entries.AddRange(result.Events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry));
         var feedSnapshot = feeds.Snapshot();
-        var feedChanges = FeedChanges(feedSnapshot, now);
+        var feedChanges = _feedJournal.Observe(feedSnapshot, now, realNow);
         entries.AddRange(feedChanges.Select(c => c.Entry));
 
         var state = result.State;
@@ -365,10 +366,7 @@ public sealed class LiveEngineHost(
         _auditError = null;
         _auditFailingSince = null;
         _carried.Clear();
-        foreach (var (name, status) in feedChanges.Select(c => (c.Name, c.Status)))
-        {
-            _feedStatus[name] = status;
-        }
+        _feedJournal.Recorded(feedChanges, realNow);
         foreach (var (reading, _) in fresh)
         {
             if (!rejected.ContainsKey(reading))
@@ -398,38 +396,6 @@ public sealed class LiveEngineHost(
                 _carried.Add(reading);
             }
         }
-    }
-
-    private List<(string Name, FeedStatus Status, NewAuditEntry Entry)> FeedChanges(IReadOnlyList<OpsLvp.Web.Feeds.FeedHealth> snapshot, DateTimeOffset now)
-    {
-        var changes = new List<(string, FeedStatus, NewAuditEntry)>();
-        foreach (var f in snapshot)
-        {
-            if (!_feedStatus.TryGetValue(f.Name, out var before))
-            {
-                _feedStatus[f.Name] = f.Status;
-                continue;
-            }
-            if (before == f.Status)
-            {
-                continue;
-            }
-            var kind = f.Status switch
-            {
-                FeedStatus.Ok => "feed_restored",
-                FeedStatus.Down => "feed_lost",
-                _ => "feed_degraded",
-            };
-            changes.Add((f.Name, f.Status, AuditEvents.HostEntry(kind, now, new
-            {
-                feed = f.Name,
-                from = FeedHealthDto.StatusText(before),
-                to = FeedHealthDto.StatusText(f.Status),
-                detail = f.StatusDetail,
-                lastError = f.LastError,
-            })));
-        }
-        return changes;
     }
 
     private async Task StoreReadingsAsync(List<(ReadingBatch Batch, int From, int To)> batches, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)

@@ -1,4 +1,4 @@
 namespace OpsLvp.Web.Feeds;
 
 /// <summary>A whole feed document could not be read (not JSON, wrong shape, too many items); no item of it is used.</summary>
-public sealed class FeedFormatException(string message, Exception? inner = null) : Exception(message, inner);
+public class FeedFormatException(string message, Exception? inner = null) : Exception(message, inner);

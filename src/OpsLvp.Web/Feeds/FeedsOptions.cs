@@ -13,6 +13,12 @@ public sealed class FeedsOptions
 
     public PushIngestOptions Push { get; set; } = new();
 
+    /// <summary>
+    /// Real time within which a feed gets at most one health audit entry; changes in between are counted and carried
+    /// into its next entry (docs/feeds.md, "Health in the audit"). Default 1 min; zero records every change at once.
+    /// </summary>
+    public TimeSpan HealthAuditInterval { get; set; } = TimeSpan.FromMinutes(1);
+
     /// <summary>Batches the reading pipeline holds before feeds have to wait for the consumer.</summary>
     public int PipelineCapacity { get; set; } = 1024;
 }

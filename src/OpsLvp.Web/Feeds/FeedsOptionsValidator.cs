@@ -23,6 +23,11 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             errors.Add(Msg($"Feeds:PipelineCapacity must be between 1 and 1000000 (got {options.PipelineCapacity})."));
         }
 
+        if (options.HealthAuditInterval < TimeSpan.Zero || options.HealthAuditInterval > TimeSpan.FromHours(1))
+        {
+            errors.Add("Feeds:HealthAuditInterval must be between 00:00:00 and 01:00:00.");
+        }
+
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < options.Http.Count; i++)
         {
@@ -103,6 +108,11 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
         if (options.Push.MaxBodyBytes is < 1024 or > 64 * 1024 * 1024)
         {
             errors.Add(Msg($"Feeds:Push:MaxBodyBytes must be between 1024 and 67108864 (got {options.Push.MaxBodyBytes})."));
+        }
+
+        if (options.Push.MaxReadings is < 1 or > ReadingJsonParser.MaxItems)
+        {
+            errors.Add(Msg($"Feeds:Push:MaxReadings must be between 1 and {ReadingJsonParser.MaxItems} (got {options.Push.MaxReadings})."));
         }
 
         return errors;

@@ -1,5 +1,6 @@
 using Microsoft.Extensions.Options;
 using OpsLvp.Web.Feeds.Demo;
+using OpsLvp.Web.Hosting;
 
 namespace OpsLvp.Web.Feeds;
 
@@ -14,6 +15,7 @@ public static class FeedsServiceCollectionExtensions
     {
         services.AddOptions<FeedsOptions>()
             .Bind(configuration.GetSection(FeedsOptions.SectionName))
+            .ValidateShape(configuration, FeedsOptions.SectionName)
             .ValidateOnStart();
         services.AddSingleton<IValidateOptions<FeedsOptions>, FeedsOptionsValidator>();
 

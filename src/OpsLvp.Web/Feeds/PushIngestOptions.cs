@@ -8,4 +8,7 @@ public sealed class PushIngestOptions
 
     /// <summary>Largest request body accepted, bytes; larger requests get 413.</summary>
     public int MaxBodyBytes { get; set; } = 256 * 1024;
+
+    /// <summary>Most readings accepted in one request; more gets 413 and none of them is taken.</summary>
+    public int MaxReadings { get; set; } = 500;
 }

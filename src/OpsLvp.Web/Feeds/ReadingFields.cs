@@ -13,10 +13,10 @@ public static partial class ReadingFields
     /// <summary>Longest accepted sensor id, characters.</summary>
     public const int MaxSensorIdLength = 32;
 
-    [GeneratedRegex(@"^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,7})?)?(Z|[+-]\d{2}:\d{2})$", RegexOptions.CultureInvariant)]
+    [GeneratedRegex(@"^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,7})?)?(Z|[+-]\d{2}:\d{2})\z", RegexOptions.CultureInvariant)]
     private static partial Regex IsoWithOffset();
 
-    [GeneratedRegex(@"^[A-Za-z0-9][A-Za-z0-9_.\-]*$", RegexOptions.CultureInvariant)]
+    [GeneratedRegex(@"^[A-Za-z0-9][A-Za-z0-9_.\-]*\z", RegexOptions.CultureInvariant)]
     private static partial Regex SensorIdPattern();
 
     /// <summary>ISO-8601 date and time with an explicit offset (<c>Z</c> or <c>±hh:mm</c>); the result is in UTC.</summary>
@@ -26,6 +26,11 @@ public static partial class ReadingFields
         if (string.IsNullOrEmpty(text))
         {
             return "time is missing";
+        }
+
+        if (ControlCharacter("time", text) is { } control)
+        {
+            return control;
         }
 
         if (!IsoWithOffset().IsMatch(text)
@@ -43,6 +48,11 @@ public static partial class ReadingFields
         if (string.IsNullOrEmpty(text))
         {
             return "sensor is missing";
+        }
+
+        if (ControlCharacter("sensor", text) is { } control)
+        {
+            return control;
         }
 
         if (text.Length > MaxSensorIdLength || !SensorIdPattern().IsMatch(text))
@@ -100,6 +110,38 @@ public static partial class ReadingFields
         return null;
     }
 
-    /// <summary>Shortens echoed input so a hostile item cannot flood logs or responses.</summary>
-    public static string Clip(string text) => text.Length <= 40 ? text : string.Concat(text.AsSpan(0, 40), "…");
+    /// <summary>
+    /// Shortens echoed input so a hostile item cannot flood logs or responses, and shows control characters as
+    /// <c>\uXXXX</c> so none reaches a log line or a screen.
+    /// </summary>
+    public static string Clip(string text)
+    {
+        var clipped = text.Length <= 40 ? text : string.Concat(text.AsSpan(0, 40), "…");
+        if (!clipped.Any(char.IsControl))
+        {
+            return clipped;
+        }
+
+        var escaped = new System.Text.StringBuilder(clipped.Length + 8);
+        foreach (var c in clipped)
+        {
+            escaped.Append(char.IsControl(c) ? string.Create(CultureInfo.InvariantCulture, $"\\u{(int)c:X4}") : c.ToString());
+        }
+
+        return escaped.ToString();
+    }
+
+    /// <summary>A detail naming <paramref name="field"/> and the first control character in it, or null when there is none.</summary>
+    private static string? ControlCharacter(string field, string text)
+    {
+        var at = text.AsSpan().IndexOfAnyInRange('\u0000', '\u001F');
+        if (at < 0)
+        {
+            at = text.AsSpan().IndexOfAnyInRange('\u007F', '\u009F');
+        }
+
+        return at < 0
+            ? null
+            : string.Create(CultureInfo.InvariantCulture, $"{field} contains a control character (U+{(int)text[at]:X4} at position {at}); '{Clip(text)}'");
+    }
 }

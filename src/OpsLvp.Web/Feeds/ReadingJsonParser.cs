@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using System.Text.Unicode;
 using OpsLvp.Core.Readings;
 
 namespace OpsLvp.Web.Feeds;
@@ -8,6 +9,8 @@ namespace OpsLvp.Web.Feeds;
 /// Reads OpsLvp's JSON readings document (docs/feeds.md): <c>{ "readings": [ { "time", "sensor", "kind",
 /// "value", "status" } ] }</c>. A document of the wrong shape throws <see cref="FeedFormatException"/>;
 /// a bad item becomes a <see cref="RejectReason.Malformed"/> rejection and the other items still pass.
+/// Hostile input (docs/feeds.md "What ingest refuses"): a body that is not valid UTF-8 and a name given twice in the
+/// document object are document errors; a name given twice in an item rejects that item (never "the last one wins").
 /// </summary>
 public static class ReadingJsonParser
 {
@@ -16,8 +19,18 @@ public static class ReadingJsonParser
 
     private static readonly JsonDocumentOptions s_options = new() { MaxDepth = 16, CommentHandling = JsonCommentHandling.Disallow };
 
-    public static ReadingParseResult Parse(ReadOnlyMemory<byte> utf8Json)
+    /// <summary>Parses a document of at most <see cref="MaxItems"/> items.</summary>
+    public static ReadingParseResult Parse(ReadOnlyMemory<byte> utf8Json) => Parse(utf8Json, MaxItems);
+
+    /// <summary>Parses a document; more than <paramref name="maxItems"/> items throws <see cref="FeedItemLimitException"/>.</summary>
+    public static ReadingParseResult Parse(ReadOnlyMemory<byte> utf8Json, int maxItems)
     {
+        // JsonDocument does not check the bytes inside strings; GetString() would throw later on a bad sequence.
+        if (!Utf8.IsValid(utf8Json.Span))
+        {
+            throw new FeedFormatException(string.Create(CultureInfo.InvariantCulture, $"body is not valid UTF-8 (first bad byte at offset {FirstInvalidUtf8(utf8Json.Span)})"));
+        }
+
         JsonDocument document;
         try
         {
@@ -36,18 +49,24 @@ public static class ReadingJsonParser
                 throw new FeedFormatException($"body must be a JSON object with a \"readings\" array (got {Describe(root.ValueKind)})");
             }
 
+            if (FirstDuplicateName(root) is { } duplicate)
+            {
+                throw new FeedFormatException($"body names \"{ReadingFields.Clip(duplicate)}\" more than once");
+            }
+
             if (!root.TryGetProperty("readings", out var items) || items.ValueKind != JsonValueKind.Array)
             {
                 throw new FeedFormatException("body must have a \"readings\" array");
             }
 
             var count = items.GetArrayLength();
-            if (count > MaxItems)
+            if (count > maxItems)
             {
-                throw new FeedFormatException(string.Create(CultureInfo.InvariantCulture, $"\"readings\" has {count} items; at most {MaxItems} are accepted per document"));
+                throw new FeedItemLimitException(string.Create(CultureInfo.InvariantCulture, $"\"readings\" has {count} items; at most {maxItems} are accepted per document"));
             }
 
             var readings = new List<Reading>(count);
+            var indexes = new List<int>(count);
             var rejections = new List<ReadingRejection>();
             var index = 0;
             foreach (var item in items.EnumerateArray())
@@ -55,6 +74,7 @@ public static class ReadingJsonParser
                 if (TryRead(item, out var reading, out var detail, out var sensor))
                 {
                     readings.Add(reading);
+                    indexes.Add(index);
                 }
                 else
                 {
@@ -64,7 +84,7 @@ public static class ReadingJsonParser
                 index++;
             }
 
-            return new ReadingParseResult(readings, rejections);
+            return new ReadingParseResult(readings, rejections) { Indexes = indexes };
         }
     }
 
@@ -75,6 +95,13 @@ public static class ReadingJsonParser
         if (item.ValueKind != JsonValueKind.Object)
         {
             detail = $"item must be an object (got {Describe(item.ValueKind)})";
+            return false;
+        }
+
+        if (FirstDuplicateName(item) is { } duplicate)
+        {
+            sensorId = null;
+            detail = $"field \"{ReadingFields.Clip(duplicate)}\" is given more than once";
             return false;
         }
 
@@ -136,6 +163,39 @@ public static class ReadingJsonParser
         reading = new Reading(time, sensorText!, kind, value, status);
         detail = "";
         return true;
+    }
+
+    /// <summary>The first property name an object gives twice (compared after unescaping), or null.</summary>
+    private static string? FirstDuplicateName(JsonElement obj)
+    {
+        HashSet<string>? seen = null;
+        foreach (var property in obj.EnumerateObject())
+        {
+            seen ??= new HashSet<string>(StringComparer.Ordinal);
+            if (!seen.Add(property.Name))
+            {
+                return property.Name;
+            }
+        }
+
+        return null;
+    }
+
+    private static int FirstInvalidUtf8(ReadOnlySpan<byte> bytes)
+    {
+        var offset = 0;
+        while (offset < bytes.Length)
+        {
+            var status = System.Text.Rune.DecodeFromUtf8(bytes[offset..], out _, out var consumed);
+            if (status != System.Buffers.OperationStatus.Done)
+            {
+                return offset;
+            }
+
+            offset += consumed;
+        }
+
+        return offset;
     }
 
     private static string? StringField(JsonElement item, string name, List<string> errors)

@@ -2,7 +2,10 @@ using Microsoft.AspNetCore.Http.Features;
 using Microsoft.AspNetCore.Http.HttpResults;
 using Microsoft.AspNetCore.Authentication;
 using Microsoft.Extensions.Options;
+using OpsLvp.Core.Engine;
+using OpsLvp.Core.Profile;
 using OpsLvp.Data.Stores;
+using OpsLvp.Web.Engine;
 using OpsLvp.Web.Access;
 
 namespace OpsLvp.Web.Feeds;
@@ -27,6 +30,7 @@ public static class ReadingsApi
         ReadingPipeline pipeline,
         FeedHealthRegistry health,
         ApiKeyStore keys,
+        LiveEngineHost engine,
         TimeProvider clock,
         ILoggerFactory loggers)
     {
@@ -60,7 +64,12 @@ public static class ReadingsApi
         ReadingParseResult parsed;
         try
         {
-            parsed = ReadingJsonParser.Parse(body);
+            parsed = ReadingJsonParser.Parse(body, push.MaxReadings);
+        }
+        catch (FeedItemLimitException ex)
+        {
+            health.RecordFailure(source, "bad document: " + ex.Message);
+            return Error(StatusCodes.Status413PayloadTooLarge, $"{ex.Message} (Feeds:Push:MaxReadings)");
         }
         catch (FeedFormatException ex)
         {
@@ -75,11 +84,41 @@ public static class ReadingsApi
             return Error(StatusCodes.Status503ServiceUnavailable, "reading pipeline is full; retry later");
         }
 
-        health.RecordSuccess(source, parsed.Readings.Count, parsed.Rejections.Count);
-        var rejected = parsed.Rejections
-            .Select(r => new PushRejection(r.Index, ReadingWireNames.ToWire(r.Reason), r.Detail, r.SensorId))
+        var items = Screen(parsed, engine.Profile, clock.GetUtcNow());
+        var rejected = items
+            .Where(i => i.Outcome == PushItemResult.Rejected)
+            .Select(i => new PushRejection(i.Index, i.Reason!, i.Detail!, i.Sensor))
             .ToList();
-        return TypedResults.Accepted((string?)null, new PushResponse(source, parsed.Readings.Count, rejected));
+        var accepted = items.Count - rejected.Count;
+        health.RecordSuccess(source, accepted, rejected.Count);
+        return TypedResults.Accepted((string?)null, new PushResponse(source, accepted, rejected, items));
+    }
+
+    /// <summary>
+    /// One result per item in request order: the parser's rejections, then each reading screened with the engine's
+    /// own function (<see cref="ReadingScreen.Check(Core.Readings.Reading, AerodromeProfile, DateTimeOffset)"/>). Every
+    /// parsed reading still goes to the engine, which screens it again and records it with its reason; the answer
+    /// only tells the sender now. Without a running engine (a test setting) there is no profile and nothing to screen.
+    /// </summary>
+    private static List<PushItemResult> Screen(ReadingParseResult parsed, AerodromeProfile? profile, DateTimeOffset now)
+    {
+        var items = new List<PushItemResult>(parsed.Readings.Count + parsed.Rejections.Count);
+        foreach (var r in parsed.Rejections)
+        {
+            items.Add(new PushItemResult(r.Index, r.SensorId, PushItemResult.Rejected, ReadingWireNames.ToWire(r.Reason), r.Detail));
+        }
+
+        for (var i = 0; i < parsed.Readings.Count; i++)
+        {
+            var reading = parsed.Readings[i];
+            var index = i < parsed.Indexes.Count ? parsed.Indexes[i] : i;
+            items.Add(profile is not null && ReadingScreen.Check(reading, profile, now) is { } rejection
+                ? new PushItemResult(index, reading.SensorId, PushItemResult.Rejected, ReadingWireNames.ToWire(rejection.Reason), rejection.Detail)
+                : new PushItemResult(index, reading.SensorId, PushItemResult.Accepted));
+        }
+
+        items.Sort((a, b) => a.Index.CompareTo(b.Index));
+        return items;
     }
 
     /// <summary>The body, or null when it is larger than <paramref name="maxBytes"/>.</summary>

@@ -14,11 +14,13 @@ public static class HostingServiceCollectionExtensions
         services.AddSingleton(new ContentPaths(environment.ContentRootPath));
         services.AddOptions<StorageOptions>()
             .Bind(configuration.GetSection(StorageOptions.SectionName))
+            .ValidateShape(configuration, StorageOptions.SectionName)
             .Validate(o => !string.IsNullOrWhiteSpace(o.DataFolder), "Storage:DataFolder must be set.")
             .Validate(o => o.DataFolder.IndexOfAny(Path.GetInvalidPathChars()) < 0, "Storage:DataFolder is not a valid path.")
             .ValidateOnStart();
         services.AddOptions<AssetsOptions>()
             .Bind(configuration.GetSection(AssetsOptions.SectionName))
+            .ValidateShape(configuration, AssetsOptions.SectionName)
             .Validate(o => !string.IsNullOrWhiteSpace(o.Folder), "Assets:Folder must be set.")
             .ValidateOnStart();
         services.AddSingleton(sp =>

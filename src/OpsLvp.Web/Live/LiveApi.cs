@@ -1,4 +1,5 @@
 using Microsoft.AspNetCore.Http.HttpResults;
+using OpsLvp.Web.Access;
 
 namespace OpsLvp.Web.Live;
 
@@ -13,7 +14,7 @@ public static class LiveApi
     public static IEndpointRouteBuilder MapLiveApi(this IEndpointRouteBuilder endpoints)
     {
         var hub = endpoints.MapHub<LvpHub>(HubPath);
-        var state = endpoints.MapGet("/api/state", GetState);
+        var state = endpoints.MapGet("/api/state", GetState).WithNoStore();
         if (HubPolicy is { } policy)
         {
             hub.RequireAuthorization(policy);

@@ -1,5 +1,6 @@
 using System.Text;
 using OpsLvp.Core.Review;
+using OpsLvp.Web.Access;
 
 namespace OpsLvp.Web.Review;
 
@@ -15,7 +16,7 @@ public static class ReviewApi
     public static RouteGroupBuilder MapReviewApi(this IEndpointRouteBuilder app)
     {
         ArgumentNullException.ThrowIfNull(app);
-        var group = app.MapGroup(Prefix);
+        var group = app.MapGroup(Prefix).WithNoStore();
         group.MapGet("/", async (ReviewService review, CancellationToken ct) =>
         {
             var (episodes, record) = await review.ListAsync(ct);

@@ -1,6 +1,7 @@
 using Microsoft.Extensions.DependencyInjection.Extensions;
 using Microsoft.Extensions.Options;
 using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Hosting;
 
 namespace OpsLvp.Web.Time;
 
@@ -17,6 +18,7 @@ public static class TimeServiceCollectionExtensions
     {
         services.AddOptions<DemoOptions>()
             .Bind(configuration.GetSection(DemoOptions.SectionName))
+            .ValidateShape(configuration, DemoOptions.SectionName)
             .Validate(o => double.IsFinite(o.Speed) && o.Speed >= 1 && o.Speed <= AcceleratedTimeProvider.MaxSpeed,
                 $"Demo:Speed must be between 1 and {AcceleratedTimeProvider.MaxSpeed}.")
             .Validate(o => o.LoopGap >= TimeSpan.Zero && o.LoopGap <= TimeSpan.FromDays(1),

@@ -36,26 +36,20 @@ public sealed class AccessBrowserTests(SharedServer shared, ITestOutputHelper ou
     }
 
     [BrowserFact]
-    public async Task FiveFailedSignIns_LockTheAccount_AndThePageSaysSo()
+    public async Task FailedSignIns_GetOneAnswer_AndDoNotLockTheAccount()
     {
         var page = await NewPageAsync();
-        // docs/access.md: 5 failed sign-ins lock the account for 15 minutes (common practice).
-        for (var attempt = 1; attempt <= 4; attempt++)
+        // docs/access.md: throttling instead of lockout, and one answer for every refusal.
+        for (var attempt = 1; attempt <= 6; attempt++)
         {
             await BrowserAccess.FillSignInAsync(page, Server, TestAccounts.Lockout, "wrong-password-" + attempt);
-            await Expect(page.Locator("[data-testid=signin-error]")).ToBeVisibleAsync();
+            await Expect(page.Locator("[data-testid=signin-error]")).ToContainTextAsync("The user name or password is wrong");
             await Expect(page.Locator("[data-testid=signin-error]")).Not.ToContainTextAsync("locked");
         }
-        await BrowserAccess.FillSignInAsync(page, Server, TestAccounts.Lockout, "wrong-password-5");
-        await Expect(page.Locator("[data-testid=signin-error]")).ToContainTextAsync("locked");
 
-        // Now even the right password is refused, with the lockout named.
         await BrowserAccess.FillSignInAsync(page, Server, TestAccounts.Lockout, TestAccounts.Password);
-        var error = page.Locator("[data-testid=signin-error]");
-        await Expect(error).ToContainTextAsync("locked after 5 failed sign-ins");
-        await Expect(error).ToContainTextAsync("15 minutes");
-        Assert.Equal("/signin", new Uri(page.Url).AbsolutePath);
-        output.WriteLine(await error.TextContentAsync());
+        // Generous wait (CI's shared cores): it proves the sign-in went through, not a speed.
+        await page.WaitForURLAsync(url => new Uri(url).AbsolutePath == "/", new() { Timeout = 45_000 });
     }
 
     [BrowserFact]

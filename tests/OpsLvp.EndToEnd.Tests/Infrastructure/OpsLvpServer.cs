@@ -75,6 +75,9 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         start.Environment["Feeds__Push__ApiKeys__0__Name"] = "e2e";
         start.Environment["Feeds__Push__ApiKeys__0__Key"] = ApiKey;
         start.Environment["Logging__LogLevel__Default"] = "Warning";
+        // Every browser test signs in from 127.0.0.1, many as the same account: the throttles are tested in OpsLvp.Web.Tests.
+        start.Environment["Access__SignInPerAddressPerMinute"] = "1000";
+        start.Environment["Access__SignInAttemptsPerAccount"] = "1000";
         start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
 
         var output = new ConcurrentQueue<string>();

@@ -27,6 +27,9 @@ public static class AccessApp
         {
             ["Access:RevalidationInterval"] = "00:00:02",
             ["Access:SetupSecret"] = SetupSecret,
+            // Every test client signs in from 127.0.0.1; the throttle tests set their own limits.
+            ["Access:SignInPerAddressPerMinute"] = "1000",
+            ["Access:SignInAttemptsPerAccount"] = "1000",
         };
         foreach (var (key, value) in extra ?? new Dictionary<string, string?>())
         {

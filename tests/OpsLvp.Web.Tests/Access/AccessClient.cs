@@ -7,10 +7,30 @@ namespace OpsLvp.Web.Tests.Access;
 /// <summary>A browser-like HTTP client for one person: its own cookies, no automatic redirects, real static SSR forms.</summary>
 public sealed partial class AccessClient : IDisposable
 {
-    private AccessClient(OpsLvpApp app)
+    private AccessClient(OpsLvpApp app, IPAddress? localAddress)
     {
         Cookies = new CookieContainer();
-        Http = new HttpClient(new HttpClientHandler { CookieContainer = Cookies, AllowAutoRedirect = false })
+        var handler = new SocketsHttpHandler { CookieContainer = Cookies, UseCookies = true, AllowAutoRedirect = false };
+        if (localAddress is not null)
+        {
+            // Another client address on the loopback network, for per-address rules.
+            handler.ConnectCallback = async (context, cancellationToken) =>
+            {
+                var socket = new System.Net.Sockets.Socket(System.Net.Sockets.SocketType.Stream, System.Net.Sockets.ProtocolType.Tcp);
+                try
+                {
+                    socket.Bind(new IPEndPoint(localAddress, 0));
+                    await socket.ConnectAsync(context.DnsEndPoint, cancellationToken);
+                    return new System.Net.Sockets.NetworkStream(socket, ownsSocket: true);
+                }
+                catch
+                {
+                    socket.Dispose();
+                    throw;
+                }
+            };
+        }
+        Http = new HttpClient(handler)
         {
             BaseAddress = app.BaseAddress,
             Timeout = TimeSpan.FromSeconds(20),
@@ -21,7 +41,7 @@ public sealed partial class AccessClient : IDisposable
 
     public HttpClient Http { get; }
 
-    public static AccessClient For(OpsLvpApp app) => new(app);
+    public static AccessClient For(OpsLvpApp app, IPAddress? localAddress = null) => new(app, localAddress);
 
     /// <summary>Posts the sign-in form as a browser would (antiforgery token from the page); returns the response.</summary>
     public async Task<HttpResponseMessage> SignInAsync(string userName, string password, string returnUrl = "/")

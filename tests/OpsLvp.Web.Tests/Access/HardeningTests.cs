@@ -72,4 +72,37 @@ public sealed class HardeningTests
         Assert.Equal(System.Net.HttpStatusCode.OK, response.StatusCode);
         Assert.False(response.Headers.Contains("Strict-Transport-Security"));
     }
+
+    [Theory]
+    [InlineData("/assets/opslvp.css", System.Net.HttpStatusCode.OK)]
+    [InlineData("/no-such-page", System.Net.HttpStatusCode.NotFound)]
+    [InlineData("/assets/no-such-file.css", System.Net.HttpStatusCode.NotFound)]
+    public async Task StaticAssetsAndErrorResponses_CarryTheSecurityHeadersToo(string path, System.Net.HttpStatusCode expected)
+    {
+        await using var app = AccessApp.Start();
+
+        using var response = await app.Client.GetAsync(new Uri(path, UriKind.Relative));
+
+        Assert.Equal(expected, response.StatusCode);
+        Assert.Equal(SecurityHeaders.ContentSecurityPolicy, response.Headers.GetValues("Content-Security-Policy").Single());
+        Assert.Equal("nosniff", response.Headers.GetValues("X-Content-Type-Options").Single());
+        Assert.Equal("DENY", response.Headers.GetValues("X-Frame-Options").Single());
+    }
+
+    [Theory]
+    [InlineData("/api/state")]
+    [InlineData("/api/episodes")]
+    [InlineData("/api/episodes/no-such-episode/export.json")]
+    public async Task LiveAndReviewApis_AreNotStoredByCaches(string path)
+    {
+        await using var app = AccessApp.Start();
+        await app.CreateUserAsync("c.test", Web.Commands.Roles.DutyManager);
+        using var person = AccessClient.For(app);
+        (await person.SignInAsync("c.test", AccessApp.Password)).Dispose();
+
+        using var response = await person.GetAsync(path);
+
+        Assert.NotEqual(System.Net.HttpStatusCode.Unauthorized, response.StatusCode);
+        Assert.True(response.Headers.CacheControl?.NoStore, $"{path} answered {(int)response.StatusCode} without Cache-Control: no-store");
+    }
 }

@@ -1,6 +1,10 @@
 using System.Net;
+using Microsoft.AspNetCore.Identity;
+using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Data.Entities;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Commands;
+using SignInPage = OpsLvp.Web.Components.Pages.Account.SignIn;
 
 namespace OpsLvp.Web.Tests.Access;
 
@@ -49,7 +53,7 @@ public sealed class SignInTests
         var html = WebUtility.HtmlDecode(await response.Content.ReadAsStringAsync());
 
         Assert.Equal(HttpStatusCode.OK, response.StatusCode);
-        Assert.Contains("The user name or password is wrong.", html, StringComparison.Ordinal);
+        Assert.Contains(SignInPage.WrongCredentials, html, StringComparison.Ordinal);
         Assert.False(client.HasCookie(AccessSchemes.SessionCookieName));
         var entry = (await app.AuditAsync()).Last();
         Assert.Equal(AccessAuditKinds.SignInFailed, entry.Kind);
@@ -58,26 +62,7 @@ public sealed class SignInTests
     }
 
     [Fact]
-    public async Task FiveFailures_LockTheAccount_SoEvenTheRightPasswordIsRefused()
-    {
-        await using var app = AccessApp.Start();
-        await app.CreateUserAsync("r.test", Roles.DutyManager);
-        using var client = AccessClient.For(app);
-
-        for (var i = 0; i < AccessServiceCollectionExtensions.MaxFailedSignIns; i++)
-        {
-            using var _ = await client.SignInAsync("r.test", "not-the-password-00");
-        }
-        using var response = await client.SignInAsync("r.test", AccessApp.Password);
-        var html = WebUtility.HtmlDecode(await response.Content.ReadAsStringAsync());
-
-        Assert.Contains("locked after 5 failed sign-ins; try again in 15 minutes", html, StringComparison.Ordinal);
-        Assert.False(client.HasCookie(AccessSchemes.SessionCookieName));
-        Assert.Contains(await app.AuditAsync(), e => e.Kind == AccessAuditKinds.SignInFailed && e.PayloadJson.Contains("locked out", StringComparison.Ordinal));
-    }
-
-    [Fact]
-    public async Task DisabledAccount_CannotSignIn()
+    public async Task DisabledAccount_CannotSignIn_AndGetsTheSameAnswerAsAWrongPassword()
     {
         await using var app = AccessApp.Start();
         var id = await app.CreateUserAsync("r.test", Roles.DutyManager);
@@ -86,8 +71,37 @@ public sealed class SignInTests
 
         using var response = await client.SignInAsync("r.test", AccessApp.Password);
 
-        Assert.Contains("This account is disabled", WebUtility.HtmlDecode(await response.Content.ReadAsStringAsync()), StringComparison.Ordinal);
+        Assert.Contains(SignInPage.WrongCredentials, WebUtility.HtmlDecode(await response.Content.ReadAsStringAsync()), StringComparison.Ordinal);
         Assert.False(client.HasCookie(AccessSchemes.SessionCookieName));
+    }
+
+    [Fact]
+    public async Task LockedAccount_GetsTheSameAnswerAsAWrongPassword()
+    {
+        await using var app = AccessApp.Start();
+        await app.CreateUserAsync("r.test", Roles.DutyManager);
+        using (var scope = app.Services.CreateScope())
+        {
+            var users = scope.ServiceProvider.GetRequiredService<UserManager<OpsLvpUser>>();
+            var user = await users.FindByNameAsync("r.test");
+            await users.SetLockoutEndDateAsync(user!, DateTimeOffset.UtcNow.AddHours(1));
+        }
+        using var locked = AccessClient.For(app);
+        using var guesser = AccessClient.For(app);
+
+        using var lockedAnswer = await locked.SignInAsync("r.test", AccessApp.Password);
+        using var wrongAnswer = await guesser.SignInAsync("r.test", "not-the-password-00");
+
+        Assert.Equal(ErrorText(await lockedAnswer.Content.ReadAsStringAsync()), ErrorText(await wrongAnswer.Content.ReadAsStringAsync()));
+        Assert.Equal(SignInPage.WrongCredentials, ErrorText(await lockedAnswer.Content.ReadAsStringAsync()));
+        Assert.False(locked.HasCookie(AccessSchemes.SessionCookieName));
+    }
+
+    private static string ErrorText(string html)
+    {
+        var match = System.Text.RegularExpressions.Regex.Match(html, "data-testid=\"signin-error\">([^<]*)<");
+        Assert.True(match.Success, "no sign-in error shown");
+        return WebUtility.HtmlDecode(match.Groups[1].Value);
     }
 
     [Fact]

@@ -87,7 +87,7 @@ public sealed class HttpFeedPollerTests
 
         var health = await Eventually.ValueAsync(() => app.Health.Get(Source), h => h.ConsecutiveFailures >= 1, "a failed parse");
 
-        Assert.StartsWith("bad document: body is not valid JSON", health.LastError, StringComparison.Ordinal);
+        Assert.Equal("bad document: body is not valid UTF-8 (first bad byte at offset 0)", health.LastError);
         Assert.False(app.Pipeline.TryRead(out _));
         await app.GetHealthAsync();
     }

@@ -151,7 +151,7 @@ public sealed class ReadingJsonParserTests
     {
         var items = string.Join(",", Enumerable.Repeat("{}", ReadingJsonParser.MaxItems + 1));
 
-        var ex = Assert.Throws<FeedFormatException>(() => Parse("{ \"readings\": [" + items + "] }"));
+        var ex = Assert.Throws<FeedItemLimitException>(() => Parse("{ \"readings\": [" + items + "] }"));
 
         Assert.Equal("\"readings\" has 10001 items; at most 10000 are accepted per document", ex.Message);
     }
@@ -160,5 +160,88 @@ public sealed class ReadingJsonParserTests
     public void InvalidUtf8_Throws()
     {
         Assert.Throws<FeedFormatException>(() => ReadingJsonParser.Parse(new byte[] { 0xFF, 0xFE, 0x7B, 0x7D }));
+    }
+
+    [Fact]
+    public void InvalidUtf8InsideAString_ThrowsNamingTheOffset()
+    {
+        // "S\xC3(" : a two-byte lead followed by an ASCII byte, the sequence that surfaced as a 500 from GetString()
+        var bytes = Encoding.UTF8.GetBytes(Item(sensor: "\"S\u00C3\"")).ToList();
+        var at = bytes.IndexOf(0xC3);
+        bytes[at + 1] = (byte)'(';
+
+        var ex = Assert.Throws<FeedFormatException>(() => ReadingJsonParser.Parse(bytes.ToArray()));
+
+        Assert.Equal($"body is not valid UTF-8 (first bad byte at offset {at})", ex.Message);
+    }
+
+    [Fact]
+    public void DuplicateFieldInAnItem_RejectsThatItem_InsteadOfTakingTheLastValue()
+    {
+        var result = Parse("""
+            { "readings": [
+              { "time": "2026-01-15T03:00:00Z", "sensor": "S1", "kind": "rvr", "value": 1800, "value": 100, "status": "ok" },
+              { "time": "2026-01-15T03:00:00Z", "sensor": "S2", "kind": "rvr", "value": 1800, "status": "ok" }
+            ] }
+            """);
+
+        Assert.Equal("S2", Assert.Single(result.Readings).SensorId);
+        var rejection = Assert.Single(result.Rejections);
+        Assert.Equal(0, rejection.Index);
+        Assert.Equal(RejectReason.Malformed, rejection.Reason);
+        Assert.Equal("field \"value\" is given more than once", rejection.Detail);
+        Assert.Equal([1], result.Indexes);
+    }
+
+    [Fact]
+    public void DuplicateFieldWrittenWithAnEscape_IsStillADuplicate()
+    {
+        var result = Parse("""{ "readings": [ { "time": "2026-01-15T03:00:00Z", "sensor": "S1", "kind": "rvr", "value": 1800, "val\u0075e": 100, "status": "ok" } ] }""");
+
+        Assert.Empty(result.Readings);
+        Assert.Equal("field \"value\" is given more than once", Assert.Single(result.Rejections).Detail);
+    }
+
+    [Fact]
+    public void DuplicateReadingsArray_RefusesTheDocument()
+    {
+        var ex = Assert.Throws<FeedFormatException>(() => Parse("""{ "readings": [], "readings": [ {} ] }"""));
+
+        Assert.Equal("body names \"readings\" more than once", ex.Message);
+    }
+
+    [Theory]
+    [InlineData(@"S1\n", "sensor contains a control character (U+000A at position 2)")]
+    [InlineData(@"S\u00001", "sensor contains a control character (U+0000 at position 1)")]
+    [InlineData(@"S1\u0085", "sensor contains a control character (U+0085 at position 2)")]
+    public void ControlCharacterInSensorId_IsRejectedNamingIt(string jsonSensor, string expectedStart)
+    {
+        var result = Parse(Item(sensor: $"\"{jsonSensor}\""));
+
+        Assert.Empty(result.Readings);
+        var rejection = Assert.Single(result.Rejections);
+        Assert.StartsWith(expectedStart, rejection.Detail, StringComparison.Ordinal);
+        Assert.DoesNotContain(rejection.Detail, char.IsControl);
+        Assert.Null(rejection.SensorId);
+    }
+
+    [Fact]
+    public void ControlCharacterAfterTheTime_IsRejected()
+    {
+        // A trailing newline used to pass: the pattern ended in '$', which also matches before a final '\n'.
+        var result = Parse(Item(time: @"2026-01-15T03:00:00Z\n"));
+
+        Assert.Empty(result.Readings);
+        Assert.StartsWith("time contains a control character (U+000A at position 20)", Assert.Single(result.Rejections).Detail, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void ItemLimit_IsTheCallersWhenGiven()
+    {
+        var items = string.Join(",", Enumerable.Repeat("{}", 4));
+
+        var ex = Assert.Throws<FeedItemLimitException>(() => ReadingJsonParser.Parse(Encoding.UTF8.GetBytes("{ \"readings\": [" + items + "] }"), 3));
+
+        Assert.Equal("\"readings\" has 4 items; at most 3 are accepted per document", ex.Message);
     }
 }

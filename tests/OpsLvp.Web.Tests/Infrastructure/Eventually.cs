@@ -23,4 +23,19 @@ public static class Eventually
             await Task.Delay(25);
         }
     }
+
+    /// <summary>Waits until <paramref name="condition"/> holds (default 10 s).</summary>
+    public static async Task TrueAsync(Func<bool> condition, string what, TimeSpan? timeout = null)
+    {
+        var deadline = DateTime.UtcNow + (timeout ?? TimeSpan.FromSeconds(10));
+        while (!condition())
+        {
+            if (DateTime.UtcNow > deadline)
+            {
+                throw new Xunit.Sdk.XunitException($"timed out waiting for {what}");
+            }
+
+            await Task.Delay(25);
+        }
+    }
 }

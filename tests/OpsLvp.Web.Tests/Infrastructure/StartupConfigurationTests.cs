@@ -46,4 +46,21 @@ public sealed class StartupConfigurationTests
         Assert.Contains("Assets:Folder", message, StringComparison.Ordinal);
         Assert.Contains("no-such-assets-folder' does not exist.", message, StringComparison.Ordinal);
     }
+
+    [Fact]
+    public void PushKeyGivenAsAPlainListValue_StopsStart_NamingTheSetting()
+    {
+        // The shape an operator once used for a bootstrap key; the binder used to skip it without a word.
+        var message = StartFailure(new() { ["Feeds:Push:ApiKeys:0"] = "bootstrap-key-0123456789" });
+
+        Assert.Contains("Feeds:Push:ApiKeys:0 must be a section with its own settings (Feeds:Push:ApiKeys:0:Name, Feeds:Push:ApiKeys:0:Key), not a single value.", message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void SingleValueGivenAsASection_StopsStart_NamingTheSetting()
+    {
+        var message = StartFailure(new() { ["Engine:TickInterval:Seconds"] = "1" });
+
+        Assert.Contains("Engine:TickInterval must be a single value, not a section (found Engine:TickInterval:Seconds).", message, StringComparison.Ordinal);
+    }
 }

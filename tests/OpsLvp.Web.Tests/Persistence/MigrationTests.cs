@@ -22,6 +22,7 @@ public class MigrationTests
         Assert.Contains("audit_entries", tables);
         Assert.Contains("engine_state", tables);
         Assert.Contains("feed_health", tables);
+        Assert.Contains("data_protection_keys", tables);
         Assert.Contains("InitialCreate", string.Join(" ", await db.Database.GetAppliedMigrationsAsync()), StringComparison.Ordinal);
         Assert.Empty(await db.Database.GetPendingMigrationsAsync());
     }

@@ -2,6 +2,7 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
+using OpsLvp.Web.Access;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Live;
 
@@ -11,6 +12,8 @@ namespace OpsLvp.Web.Components.Shared;
 /// Raised alarms from <see cref="LiveSnapshot.Status"/>: unacknowledged first, an acknowledge button for duty
 /// managers (the command service decides), and on screens that ask for it (<see cref="Audible"/>) the
 /// <see cref="AlarmCue"/>: a chime for every newly raised unacknowledged alarm, mutable per screen.
+/// Renders nothing and subscribes to nothing for a visitor who may not see live data
+/// (<see cref="AccessPolicies.MayViewLiveData"/>): the layout is shared with the anonymous pages.
 /// </summary>
 public partial class AlarmStrip
 {
@@ -20,6 +23,7 @@ public partial class AlarmStrip
     private IReadOnlyList<Alarm> _alarms = [];
     private IDisposable? _subscription;
     private CommandCaller _caller = CommandCaller.Anonymous;
+    private bool _mayView;
 
     [Inject]
     private IServiceProvider Services { get; set; } = default!;
@@ -51,18 +55,24 @@ public partial class AlarmStrip
 
     protected override async Task OnInitializedAsync()
     {
-        _live = Services.GetService<ILiveState>();
-        _commands = Services.GetService<ILvpCommandService>();
         if (AuthenticationState is not null)
         {
-            _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
+            var user = (await AuthenticationState).User;
+            _mayView = AccessPolicies.MayViewLiveData(user);
+            _caller = CommandCaller.FromPrincipal(user);
         }
+        if (!_mayView)
+        {
+            return;
+        }
+        _live = Services.GetService<ILiveState>();
+        _commands = Services.GetService<ILvpCommandService>();
         _alarms = AlarmLabels.Ordered(_live?.Current?.Status.Alarms);
     }
 
     protected override void OnAfterRender(bool firstRender)
     {
-        if (!firstRender)
+        if (!firstRender || !_mayView)
         {
             return;
         }

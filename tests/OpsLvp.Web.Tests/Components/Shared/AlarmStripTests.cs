@@ -37,7 +37,7 @@ public sealed class AlarmStripTests : LiveComponentTest
     [Fact]
     public void NoAlarms_SaysSo()
     {
-        SignedOut();
+        SignIn("lee (invented)", Roles.Viewer);
         Live.Set(TestSnapshots.Make(1));
         var cut = Render<AlarmStrip>();
         Assert.Equal("No alarms", cut.Find("[data-testid=alarm-none]").TextContent);
@@ -71,7 +71,7 @@ public sealed class AlarmStripTests : LiveComponentTest
     [Fact]
     public async Task FollowsLiveSnapshots()
     {
-        SignedOut();
+        SignIn("lee (invented)", Roles.Viewer);
         Live.Set(TestSnapshots.Make(1));
         var cut = Render<AlarmStrip>();
         await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, alarms: [Overdue])));
@@ -81,7 +81,7 @@ public sealed class AlarmStripTests : LiveComponentTest
     [Fact]
     public async Task Audible_ChimesOncePerNewUnacknowledgedAlarm_NotForAcknowledgedOrRepeats()
     {
-        SignedOut();
+        SignIn("lee (invented)", Roles.Viewer);
         var module = SoundModule();
         Live.Set(TestSnapshots.Make(1, alarms: [AckedRvr]));
         var cut = Render<AlarmStrip>(p => p.Add(s => s.Audible, true).Add(s => s.ScreenKey, "wall"));
@@ -101,7 +101,7 @@ public sealed class AlarmStripTests : LiveComponentTest
     [Fact]
     public async Task Muted_DoesNotChime_AndTheChoiceIsStoredForThisScreen()
     {
-        SignedOut();
+        SignIn("lee (invented)", Roles.Viewer);
         var module = SoundModule();
         Live.Set(TestSnapshots.Make(1));
         var cut = Render<AlarmStrip>(p => p.Add(s => s.Audible, true).Add(s => s.ScreenKey, "wall"));
@@ -120,10 +120,36 @@ public sealed class AlarmStripTests : LiveComponentTest
     [Fact]
     public void NotAudible_LoadsNoSoundModule()
     {
-        SignedOut();
+        SignIn("lee (invented)", Roles.Viewer);
         Live.Set(TestSnapshots.Make(1, alarms: [Silent]));
         var cut = Render<AlarmStrip>();
         Assert.Empty(cut.FindAll("[data-testid=alarm-mute]"));
         Assert.Empty(JSInterop.Invocations["import"]);
+    }
+
+    [Fact]
+    public async Task SignedOut_ShowsNoStripAndNoAlarms_EvenWhenAlarmsArrive()
+    {
+        // The layout is shared with /signin, /, /setup, /signout and the error pages (issue 12).
+        SignedOut();
+        Live.Set(TestSnapshots.Make(1, alarms: [Silent]));
+        var cut = Render<AlarmStrip>();
+        await cut.InvokeAsync(() => Live.PublishAsync(TestSnapshots.Make(2, alarms: [Silent, Overdue])));
+
+        Assert.Empty(cut.FindAll("[data-testid=alarm-strip]"));
+        Assert.DoesNotContain("RVR07M", cut.Markup, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void DisplayLink_SeesTheAlarms()
+    {
+        var auth = AddAuthorization();
+        auth.SetAuthorized("display:ops-room (invented)");
+        auth.SetClaims(new System.Security.Claims.Claim(Web.Access.AccessClaims.DisplayToken, "t1"));
+        Live.Set(TestSnapshots.Make(1, alarms: [Silent]));
+
+        var cut = Render<AlarmStrip>();
+
+        Assert.Single(cut.FindAll("[data-testid=alarm]"));
     }
 }
