@@ -141,6 +141,20 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         return verifier.Result;
     }
 
+    /// <summary>
+    /// Folds the write-ahead log back into the database and truncates it (<c>PRAGMA wal_checkpoint(TRUNCATE)</c>), e.g.
+    /// after a storage outage. Returns false when a reader kept part of it (the next automatic checkpoint finishes).
+    /// </summary>
+    public Task<bool> CheckpointAsync(CancellationToken cancellationToken = default) =>
+        _writer.RunAsync(session =>
+        {
+            using var command = session.Connection.CreateCommand();
+            command.CommandText = "PRAGMA wal_checkpoint(TRUNCATE);";
+            using var reader = command.ExecuteReader();
+            // columns: busy (0/1), WAL frames, frames checkpointed
+            return reader.Read() && reader.GetInt64(0) == 0;
+        }, cancellationToken);
+
     public void Dispose() => _writer.Dispose();
 
     private static void CheckState(EngineStateWrite state)

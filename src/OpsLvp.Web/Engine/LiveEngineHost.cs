@@ -42,15 +42,14 @@ public sealed class LiveEngineHost(
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<LiveEngineHost> logger) : BackgroundService
 {
-    private const int MaxCarriedReadings = 10_000;
-
     private const int MaxBatchesPerEvaluation = 64;
 
     private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
 
+    private static readonly TimeSpan s_resumeRetry = TimeSpan.FromSeconds(1);
+
     private readonly SemaphoreSlim _gate = new(1, 1);
     private readonly Dictionary<string, FeedStatus> _feedStatus = new(StringComparer.Ordinal);
-    private readonly List<Reading> _carried = [];
     private LvpEngine? _engine;
     private RvrDerivation? _derivation;
     private RvrTrends? _trends;
@@ -63,6 +62,9 @@ public sealed class LiveEngineHost(
     private string? _auditError;
     private DateTimeOffset? _auditFailingSince;
     private DateTimeOffset? _lastEvaluationAt;
+    private DateTimeOffset _lastResumeAttemptReal;
+    private int _refusedBatches;
+    private long _refusedReadings;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
     public AerodromeProfile? Profile => _engine?.Profile;
@@ -75,7 +77,11 @@ public sealed class LiveEngineHost(
         _lastEvaluationAt,
         _auditError is null ? "ok" : "failing",
         _auditError,
-        _engine?.Profile.Version);
+        _engine?.Profile.Version,
+        _auditFailingSince);
+
+    /// <summary>Recording or not, and since when (docs/reliability.md "Storage faults").</summary>
+    public RecordingView Recording => _auditError is null ? RecordingView.Ok : new RecordingView(false, _auditFailingSince, _auditError);
 
     public override async Task StartAsync(CancellationToken cancellationToken)
     {
@@ -270,17 +276,21 @@ public sealed class LiveEngineHost(
     private async Task<EvaluationOutcome> EvaluateLockedAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
     {
         var engine = _engine!;
-        var old = _state!;
         var now = clock.GetUtcNow();
         var realNow = realClock.GetUtcNow();
+        if (_auditError is not null && !await TryResumeRecordingAsync(now, realNow, force: command is not null, cancellationToken))
+        {
+            // Not recording (docs/reliability.md "Storage faults"): nothing is evaluated, so nothing the history cannot show is applied,
+            // published as current or acknowledged to a feed.
+            Refuse(batches, _auditError!);
+            Publish(_state!, now, realNow, force: true);
+            return new EvaluationOutcome(false, [], [], NotRecordingText());
+        }
+        var old = _state!;
 
         var inputs = new List<EngineInput>();
         var fresh = new List<(Reading Reading, string Source)>();
         var perBatch = new List<(ReadingBatch Batch, int From, int To)>();
-        foreach (var r in _carried)
-        {
-            inputs.Add(new ReadingInput(r));
-        }
         foreach (var batch in batches)
         {
             var from = fresh.Count;
@@ -317,14 +327,20 @@ public sealed class LiveEngineHost(
 
         if (perBatch.Count > 0)
         {
-            await StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
+            try
+            {
+                await StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+            {
+                StopRecording(now, $"readings not stored: {Describe(ex)}", ex);
+                Refuse(batches, _auditError!);
+                Publish(old, now, realNow, force: true);
+                return new EvaluationOutcome(false, result.Events, [], NotRecordingText());
+            }
         }
 
         var entries = new List<NewAuditEntry>();
-        if (_auditError is not null)
-        {
-            entries.Add(AuditEvents.HostEntry("audit_storage_recovered", now, new { failingSince = _auditFailingSince, lastError = _auditError }));
-        }
         entries.AddRange(hostEntries);
         entries.AddRange(result.Events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry));
         var feedSnapshot = feeds.Snapshot();
@@ -348,23 +364,18 @@ public sealed class LiveEngineHost(
             }
             catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
             {
-                var error = ex is AuditCommitException ? ex.Message : $"{ex.GetType().Name}: {ex.Message}";
-                if (_auditError is null)
-                {
-                    _auditFailingSince = now;
-                }
-                _auditError = error;
-                logger.LogError(ex, "Audit storage failing; state not applied: {Error}", error);
-                CarryOver(fresh, rejected);
+                StopRecording(now, ex is AuditCommitException ? ex.Message : Describe(ex), ex);
+                Refuse(batches, _auditError!);
                 Publish(old, now, realNow, force: true);
-                return new EvaluationOutcome(false, result.Events, [], error);
+                return new EvaluationOutcome(false, result.Events, [], NotRecordingText());
             }
             _written = state;
             _lastWriteReal = realNow;
         }
-        _auditError = null;
-        _auditFailingSince = null;
-        _carried.Clear();
+        foreach (var batch in batches)
+        {
+            batch.Receipt?.Confirm();
+        }
         foreach (var (name, status) in feedChanges.Select(c => (c.Name, c.Status)))
         {
             _feedStatus[name] = status;
@@ -382,23 +393,99 @@ public sealed class LiveEngineHost(
         return new EvaluationOutcome(true, result.Events, committed, null);
     }
 
+    private static string Describe(Exception ex) => $"{ex.GetType().Name}: {(ex.InnerException ?? ex).Message.ReplaceLineEndings(" ")}";
+
+    private string NotRecordingText() =>
+        $"not recording since {OpsLvp.Core.Audit.AuditCanonical.FormatTime(_auditFailingSince ?? default)}: {_auditError}";
+
+    /// <summary>Storage failed: from now on nothing is evaluated or acknowledged until a write succeeds again.</summary>
+    private void StopRecording(DateTimeOffset now, string error, Exception ex)
+    {
+        if (_auditError is null)
+        {
+            _auditFailingSince = now;
+            _refusedBatches = 0;
+            _refusedReadings = 0;
+            logger.LogError(ex, "NOT RECORDING since {Since}: {Error}; readings are refused and actions not applied until storage works again", now, error);
+        }
+        _auditError = error;
+    }
+
+    private void Refuse(IReadOnlyList<ReadingBatch> batches, string reason)
+    {
+        foreach (var batch in batches)
+        {
+            _refusedBatches++;
+            _refusedReadings += batch.Readings.Count;
+            batch.Receipt?.Refuse(reason);
+        }
+    }
+
+    /// <summary>
+    /// While not recording, each evaluation (at most one a second, but every command) first tries to write the gap's one audit entry
+    /// (start, end, reason, what was refused) together with the state rebased at <paramref name="now"/>. What the
+    /// engine knew from readings before the gap is dropped (latest readings, running dwells, monitoring start), so
+    /// the first evaluation after the gap neither stamps events inside it nor counts a dwell across it (docs/reliability.md).
+    /// </summary>
+    private async Task<bool> TryResumeRecordingAsync(DateTimeOffset now, DateTimeOffset realNow, bool force, CancellationToken cancellationToken)
+    {
+        if (!force && realNow - _lastResumeAttemptReal < s_resumeRetry)
+        {
+            return false;
+        }
+        _lastResumeAttemptReal = realNow;
+        var rebased = Rebase(_state!, now);
+        var gap = AuditEvents.HostEntry(AuditEvents.RecordingGap, now, new
+        {
+            from = _auditFailingSince,
+            to = now,
+            reason = _auditError,
+            refusedBatches = _refusedBatches,
+            refusedReadings = _refusedReadings,
+        });
+        try
+        {
+            await audit.AppendAsync([gap], new EngineStateWrite(EngineStateJson.Serialize(rebased), _engine!.Profile.Version, now), cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+        {
+            _auditError = ex is AuditCommitException ? ex.Message : Describe(ex);
+            logger.LogDebug(ex, "Still not recording: {Error}", _auditError);
+            return false;
+        }
+        logger.LogWarning("Recording resumed: gap from {From} to {To} ({Batches} batch(es), {Readings} reading(s) refused)", _auditFailingSince, now, _refusedBatches, _refusedReadings);
+        _state = rebased;
+        _written = rebased;
+        _lastWriteReal = realNow;
+        _auditError = null;
+        _auditFailingSince = null;
+        try
+        {
+            // the WAL grew (or failed to) during the outage; fold it back into the database now there is room
+            await audit.CheckpointAsync(cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogWarning(ex, "WAL checkpoint after the recording gap failed");
+        }
+        return true;
+    }
+
+    /// <summary>The state as known right after a recording gap: no readings and no running dwell from before it.</summary>
+    internal static EngineState Rebase(EngineState state, DateTimeOffset now) => state with
+    {
+        EvaluatedAt = now,
+        MonitoringSince = now,
+        Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty,
+        HoldingSince = System.Collections.Immutable.ImmutableDictionary<ConditionKind, DateTimeOffset>.Empty,
+    };
+
     /// <summary>The state without the parts that change with every reading (they are flushed on the interval).</summary>
     private static EngineState Structural(EngineState s) => s with
     {
         EvaluatedAt = default,
         Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty,
     };
-
-    private void CarryOver(List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected)
-    {
-        foreach (var (reading, _) in fresh)
-        {
-            if (!rejected.ContainsKey(reading) && _carried.Count < MaxCarriedReadings)
-            {
-                _carried.Add(reading);
-            }
-        }
-    }
 
     private List<(string Name, FeedStatus Status, NewAuditEntry Entry)> FeedChanges(IReadOnlyList<OpsLvp.Web.Feeds.FeedHealth> snapshot, DateTimeOffset now)
     {
@@ -449,14 +536,7 @@ public sealed class LiveEngineHost(
                     : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
             }
         }
-        try
-        {
-            await readingStore.InsertAsync(rows, cancellationToken);
-        }
-        catch (Exception ex) when (ex is not OperationCanceledException)
-        {
-            logger.LogError(ex, "Readings from {Count} batch(es) could not be stored", batches.Count);
-        }
+        await readingStore.InsertAsync(rows, cancellationToken);
     }
 
     private void Publish(EngineState state, DateTimeOffset now, DateTimeOffset realNow, bool force)
@@ -469,10 +549,10 @@ public sealed class LiveEngineHost(
         _version = Math.Max(_version + 1, realNow.ToUnixTimeMilliseconds());
         Alarm? hostAlarm = _auditError is null
             ? null
-            : new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"audit storage failing: {_auditError}; actions are not applied", _auditFailingSince ?? now);
+            : new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {_auditError}; readings are refused and actions are not applied", _auditFailingSince ?? now);
         var snapshot = SnapshotBuilder.Build(
             _version, _engine!, state, now, feeds.Snapshot(), _trends!.At(now),
-            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarm);
+            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarm, Recording);
         _published = state;
         _lastPublishReal = realNow;
         live.Publish(snapshot);

@@ -19,7 +19,8 @@ public static class SnapshotBuilder
         IReadOnlyList<FeedHealth> feeds,
         IReadOnlyList<SensorTrend> trends,
         DemoView? demo,
-        Alarm? hostAlarm)
+        Alarm? hostAlarm,
+        RecordingView? recording = null)
     {
         var profile = engine.Profile;
         var status = engine.Describe(state, now);
@@ -58,6 +59,7 @@ public static class SnapshotBuilder
             state.OutOfService.Order(StringComparer.Ordinal).ToList(),
             feeds.Select(FeedHealthDto.From).ToList(),
             trends,
-            demo);
+            demo,
+            recording ?? RecordingView.Ok);
     }
 }
