@@ -91,9 +91,10 @@ public sealed class LiveEngineHost(
             logger.LogWarning("Engine host disabled (Engine:Enabled=false): no evaluation, no live state");
             return;
         }
+        string? switchedFrom;
         try
         {
-            await DatabaseStartup.MigrateAndCheckAsync(dbFactory, cancellationToken);
+            switchedFrom = await DatabaseStartup.MigrateAndCheckAsync(dbFactory, cancellationToken);
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
@@ -145,6 +146,11 @@ public sealed class LiveEngineHost(
         });
         logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
         var hostEntries = new List<NewAuditEntry> { started };
+        if (switchedFrom is not null)
+        {
+            logger.LogWarning("The database was in journal mode '{Mode}'; switched to WAL at start", switchedFrom);
+            hostEntries.Add(AuditEvents.HostEntry("journal_mode_switched", now, new { from = switchedFrom, to = "wal" }));
+        }
         var lastRecorded = await audit.GetLastOfKindAsync(ProfileRecord.Kind, cancellationToken);
         if (lastRecorded is null || ProfileRecord.ShaOf(lastRecorded) != ProfileRecord.Sha256(profile))
         {
