@@ -346,9 +346,11 @@ public sealed class LiveEngineHost(
             }
         }
 
+        // Engine events first: at a start they include what fell due while the server was stopped, stamped at those
+        // instants, and the host's entries (engine_started, ...) are stamped now, so the chain's times never go back.
         var entries = new List<NewAuditEntry>();
-        entries.AddRange(hostEntries);
         entries.AddRange(result.Events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry));
+        entries.AddRange(hostEntries);
         var feedSnapshot = feeds.Snapshot();
         var feedChanges = FeedChanges(feedSnapshot, now);
         entries.AddRange(feedChanges.Select(c => c.Entry));
