@@ -48,6 +48,11 @@ public sealed class LiveEngineHost(
 
     private static readonly TimeSpan s_resumeRetry = TimeSpan.FromSeconds(1);
 
+    /// <summary>The engine's time may lead the clock by this much (a commit and a read of the clock race) before it counts as the clock stepping back.</summary>
+    private static readonly TimeSpan s_clockTolerance = TimeSpan.FromSeconds(2);
+
+    private static readonly TimeSpan s_clockAlarmShownFor = TimeSpan.FromMinutes(10);
+
     private readonly SemaphoreSlim _gate = new(1, 1);
     private readonly Dictionary<string, FeedStatus> _feedStatus = new(StringComparer.Ordinal);
     private LvpEngine? _engine;
@@ -64,6 +69,7 @@ public sealed class LiveEngineHost(
     private DateTimeOffset? _lastEvaluationAt;
     private DateTimeOffset _lastResumeAttemptReal;
     private int _refusedBatches;
+    private Alarm? _clockAlarm;
     private long _refusedReadings;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
@@ -293,6 +299,18 @@ public sealed class LiveEngineHost(
             return new EvaluationOutcome(false, [], [], NotRecordingText());
         }
         var old = _state!;
+        if (old.EvaluatedAt > now + s_clockTolerance)
+        {
+            // The clock stepped back (or a demo restarted on a folder whose demo clock ran ahead): the engine would
+            // treat every reading as older than the latest and refuse it. Record it, alarm, and start monitoring
+            // afresh from the clock's now, as after a recording gap (docs/reliability.md "Clock regression").
+            var ahead = old.EvaluatedAt - now;
+            logger.LogError("Clock regression: engine time {EngineTime} is {Ahead} ahead of the clock {Now}; monitoring restarts from the clock", old.EvaluatedAt, ahead, now);
+            _clockAlarm = new Alarm(SnapshotBuilder.ClockRegressionKey, AlarmKind.ClockRegression,
+                $"clock stepped back: engine time was {OpsLvp.Core.Audit.AuditCanonical.FormatTime(old.EvaluatedAt)}, {ahead.TotalSeconds:0} s ahead; readings before that were set aside and monitoring restarted", now);
+            hostEntries = [AuditEvents.HostEntry("clock_regression", now, new { engineTime = old.EvaluatedAt, clock = now, aheadSeconds = ahead.TotalSeconds }), .. hostEntries];
+            old = Rebase(old, now);
+        }
 
         var inputs = new List<EngineInput>();
         var fresh = new List<(Reading Reading, string Source)>();
@@ -555,12 +573,18 @@ public sealed class LiveEngineHost(
             return;
         }
         _version = Math.Max(_version + 1, realNow.ToUnixTimeMilliseconds());
-        Alarm? hostAlarm = _auditError is null
-            ? null
-            : new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {_auditError}; readings are refused and actions are not applied", _auditFailingSince ?? now);
+        var hostAlarms = new List<Alarm>(2);
+        if (_auditError is not null)
+        {
+            hostAlarms.Add(new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {_auditError}; readings are refused and actions are not applied", _auditFailingSince ?? now));
+        }
+        if (_clockAlarm is { } clockAlarm && now - clockAlarm.RaisedAt < s_clockAlarmShownFor)
+        {
+            hostAlarms.Add(clockAlarm);
+        }
         var snapshot = SnapshotBuilder.Build(
             _version, _engine!, state, now, feeds.Snapshot(), _trends!.At(now),
-            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarm, Recording);
+            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarms, Recording);
         _published = state;
         _lastPublishReal = realNow;
         live.Publish(snapshot);
