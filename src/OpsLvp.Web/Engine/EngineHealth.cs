@@ -7,4 +7,5 @@ namespace OpsLvp.Web.Engine;
 /// <param name="AuditError">The last commit error while failing.</param>
 /// <param name="ProfileVersion">The profile in use.</param>
 /// <param name="NotRecordingSince">App-clock instant recording stopped (storage failing), null while recording.</param>
-public sealed record EngineHealth(bool Running, DateTimeOffset? LastEvaluationAt, string Audit, string? AuditError, string? ProfileVersion, DateTimeOffset? NotRecordingSince = null);
+/// <param name="Stopped">Why the engine did not start (its stored state does not match the audit chain), else null.</param>
+public sealed record EngineHealth(bool Running, DateTimeOffset? LastEvaluationAt, string Audit, string? AuditError, string? ProfileVersion, DateTimeOffset? NotRecordingSince = null, string? Stopped = null);

@@ -70,6 +70,7 @@ public sealed class LiveEngineHost(
     private DateTimeOffset _lastResumeAttemptReal;
     private int _refusedBatches;
     private Alarm? _clockAlarm;
+    private string? _stopped;
     private long _refusedReadings;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
@@ -84,7 +85,8 @@ public sealed class LiveEngineHost(
         _auditError is null ? "ok" : "failing",
         _auditError,
         _engine?.Profile.Version,
-        _auditFailingSince);
+        _auditFailingSince,
+        _stopped);
 
     /// <summary>Recording or not, and since when (docs/reliability.md "Storage faults").</summary>
     public RecordingView Recording => _auditError is null ? RecordingView.Ok : new RecordingView(false, _auditFailingSince, _auditError);
@@ -124,6 +126,20 @@ public sealed class LiveEngineHost(
         var now = clock.GetUtcNow();
         var persisted = await audit.GetLatestStateAsync(cancellationToken);
         var restored = false;
+        NewAuditEntry? acknowledged = null;
+        if (await StateMismatchAsync(persisted, cancellationToken) is { } mismatch)
+        {
+            if (o.AcknowledgeStateMismatch != mismatch.Head)
+            {
+                _stopped = $"{mismatch.Text}; the engine stays stopped until an administrator acknowledges it (restart with Engine:AcknowledgeStateMismatch={mismatch.Head})";
+                logger.LogCritical("OpsLvp engine stopped: {Reason}", _stopped);
+                _engine = null;
+                return;
+            }
+            logger.LogWarning("State mismatch acknowledged by Engine:AcknowledgeStateMismatch={Head}: {Mismatch}; starting from the initial state", mismatch.Head, mismatch.Text);
+            acknowledged = AuditEvents.HostEntry("state_mismatch_acknowledged", now, new { mismatch = mismatch.Text, head = mismatch.Head });
+            persisted = null;
+        }
         if (persisted is not null)
         {
             try
@@ -152,6 +168,10 @@ public sealed class LiveEngineHost(
         });
         logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
         var hostEntries = new List<NewAuditEntry> { started };
+        if (acknowledged is not null)
+        {
+            hostEntries.Add(acknowledged);
+        }
         if (switchedFrom is not null)
         {
             logger.LogWarning("The database was in journal mode '{Mode}'; switched to WAL at start", switchedFrom);
@@ -166,6 +186,34 @@ public sealed class LiveEngineHost(
         }
         await EvaluateAsync([], null, hostEntries, cancellationToken);
         await base.StartAsync(cancellationToken);
+    }
+
+    /// <summary>
+    /// The stored state names the audit entry it reflects (sequence and hash, written in the same transaction). A
+    /// chain that ends before that entry was cut short; an entry there with another hash was rewritten. Entries after
+    /// it are normal (account and key changes append without a state). Null when they agree or nothing is stored.
+    /// </summary>
+    private async Task<(string Text, long Head)?> StateMismatchAsync(PersistedEngineState? persisted, CancellationToken cancellationToken)
+    {
+        if (persisted is null)
+        {
+            return null;
+        }
+        var head = await audit.GetHeadAsync(cancellationToken);
+        var headSequence = head?.Sequence ?? 0;
+        if (persisted.AuditSequence > headSequence)
+        {
+            return ($"the stored engine state reflects audit entry {persisted.AuditSequence} but the audit chain ends at {headSequence}: entries were removed", headSequence);
+        }
+        if (persisted.AuditHash is { } hash && persisted.AuditSequence > 0)
+        {
+            var entry = (await audit.GetRangeAsync(persisted.AuditSequence, persisted.AuditSequence, cancellationToken)).SingleOrDefault();
+            if (entry is null || !string.Equals(entry.Hash, hash, StringComparison.Ordinal))
+            {
+                return ($"audit entry {persisted.AuditSequence} does not have the hash the stored engine state recorded for it: the chain was rewritten", headSequence);
+            }
+        }
+        return null;
     }
 
     /// <summary>

@@ -22,7 +22,7 @@ public static class HealthApi
         var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
         var engineHealth = engine.Health;
         return TypedResults.Ok(new HealthResponse(
-            engineHealth.NotRecordingSince is null ? "ok" : "failing",
+            engineHealth.NotRecordingSince is null && engineHealth.Stopped is null ? "ok" : "failing",
             clock.GetUtcNow(),
             demo.Enabled,
             demo.Enabled ? demo.Speed : null,

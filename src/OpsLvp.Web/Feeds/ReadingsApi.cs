@@ -74,6 +74,11 @@ public static class ReadingsApi
             return Error(StatusCodes.Status400BadRequest, ex.Message);
         }
 
+        if (engine.Health.Stopped is { } stopped)
+        {
+            context.Response.Headers.RetryAfter = "60";
+            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored: the engine is stopped: {stopped}");
+        }
         // With the engine host off (Engine:Enabled=false) nothing stores readings: the batch is only queued.
         var receipt = engine.Health.Running ? new BatchReceipt() : null;
         if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow()) with { Receipt = receipt }))
