@@ -85,6 +85,7 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(s => s.Id).HasColumnName("id").ValueGeneratedNever();
             e.Property(s => s.StateJson).HasColumnName("state_json");
             e.Property(s => s.AuditSequence).HasColumnName("audit_sequence");
+            e.Property(s => s.AuditHash).HasColumnName("audit_hash");
             e.Property(s => s.ProfileVersion).HasColumnName("profile_version");
             e.Property(s => s.SavedAt).HasColumnName("saved_at");
         });

@@ -12,4 +12,6 @@ public enum AlarmKind
     SafeguardsIncomplete,
     /// <summary>Raised by the host, not the engine, when audit storage fails.</summary>
     AuditStorageFailing,
+    /// <summary>Raised by the host, not the engine, when the engine's time was found ahead of the clock (the clock stepped back).</summary>
+    ClockRegression,
 }

@@ -14,6 +14,9 @@ public sealed class EngineStateRow
     /// <summary>Sequence of the last audit entry committed with this state (0 when there is none yet).</summary>
     public long AuditSequence { get; set; }
 
+    /// <summary>Hash of the audit entry at <see cref="AuditSequence"/> when the state was written (null before the TamperEvidence migration or with an empty chain).</summary>
+    public string? AuditHash { get; set; }
+
     public required string ProfileVersion { get; set; }
 
     public DateTimeOffset SavedAt { get; set; }

@@ -332,6 +332,10 @@ namespace OpsLvp.Data.Migrations
                         .HasColumnType("INTEGER")
                         .HasColumnName("id");
 
+                    b.Property<string>("AuditHash")
+                        .HasColumnType("TEXT")
+                        .HasColumnName("audit_hash");
+
                     b.Property<long>("AuditSequence")
                         .HasColumnType("INTEGER")
                         .HasColumnName("audit_sequence");

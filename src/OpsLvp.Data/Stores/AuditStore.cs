@@ -28,15 +28,15 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         "INSERT INTO audit_entries (sequence, time, actor, kind, payload_json, previous_hash, hash) VALUES ($s, $t, $a, $k, $p, $ph, $h);";
 
     private const string StateSql =
-        "INSERT INTO engine_state (id, state_json, audit_sequence, profile_version, saved_at) VALUES ($id, $j, $q, $v, $at) "
+        "INSERT INTO engine_state (id, state_json, audit_sequence, audit_hash, profile_version, saved_at) VALUES ($id, $j, $q, $qh, $v, $at) "
         + "ON CONFLICT (id) DO UPDATE SET state_json = excluded.state_json, audit_sequence = excluded.audit_sequence, "
-        + "profile_version = excluded.profile_version, saved_at = excluded.saved_at;";
+        + "audit_hash = excluded.audit_hash, profile_version = excluded.profile_version, saved_at = excluded.saved_at;";
 
     private readonly SqliteWriter _writer = new(factory, "audit writer");
 
     /// <summary>
     /// Appends <paramref name="entries"/> in order and, if <paramref name="state"/> is given, stores it as the engine
-    /// state with the sequence of the last appended entry (or the current head when there are none).
+    /// state with the sequence and hash of the last appended entry (or the current head when there are none).
     /// Returns the entries as committed. When this returns, the entries are durable (synchronous=FULL).
     /// </summary>
     /// <exception cref="ArgumentException">An entry has an empty actor or kind or a payload that is not JSON, or the state is not JSON.</exception>
@@ -116,7 +116,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
     {
         await using var db = await factory.CreateDbContextAsync(cancellationToken);
         var row = await db.EngineState.AsNoTracking().SingleOrDefaultAsync(s => s.Id == EngineStateRow.SingleId, cancellationToken);
-        return row is null ? null : new PersistedEngineState(row.StateJson, row.AuditSequence, row.ProfileVersion, row.SavedAt);
+        return row is null ? null : new PersistedEngineState(row.StateJson, row.AuditSequence, row.ProfileVersion, row.SavedAt, row.AuditHash);
     }
 
     /// <summary>
@@ -140,6 +140,20 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         }
         return verifier.Result;
     }
+
+    /// <summary>
+    /// Folds the write-ahead log back into the database and truncates it (<c>PRAGMA wal_checkpoint(TRUNCATE)</c>), e.g.
+    /// after a storage outage. Returns false when a reader kept part of it (the next automatic checkpoint finishes).
+    /// </summary>
+    public Task<bool> CheckpointAsync(CancellationToken cancellationToken = default) =>
+        _writer.RunAsync(session =>
+        {
+            using var command = session.Connection.CreateCommand();
+            command.CommandText = "PRAGMA wal_checkpoint(TRUNCATE);";
+            using var reader = command.ExecuteReader();
+            // columns: busy (0/1), WAL frames, frames checkpointed
+            return reader.Read() && reader.GetInt64(0) == 0;
+        }, cancellationToken);
 
     public void Dispose() => _writer.Dispose();
 
@@ -183,8 +197,8 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         }
         if (state is not null)
         {
-            var upsert = session.Command(StateSql, transaction, "$id", "$j", "$q", "$v", "$at");
-            SqliteWriter.Session.Bind(upsert, EngineStateRow.SingleId, state.StateJson, head?.Sequence ?? 0, state.ProfileVersion, UtcTextConverter.Format(state.SavedAt));
+            var upsert = session.Command(StateSql, transaction, "$id", "$j", "$q", "$qh", "$v", "$at");
+            SqliteWriter.Session.Bind(upsert, EngineStateRow.SingleId, state.StateJson, head?.Sequence ?? 0, head?.Hash, state.ProfileVersion, UtcTextConverter.Format(state.SavedAt));
             upsert.ExecuteNonQuery();
         }
         // Once COMMIT is under way the outcome must be the one reported; a failed commit throws and rolls back.

@@ -82,8 +82,18 @@ public abstract class SecretRecordStore<TRow>(IDbContextFactory<OpsLvpDbContext>
         // Recorded to the minute: a busy client should not cost a database write per request.
         if (UseIsDue(row.LastUsedAt, now))
         {
+            var previous = row.LastUsedAt;
             row.LastUsedAt = now;
-            await db.SaveChangesAsync(cancellationToken);
+            try
+            {
+                await db.SaveChangesAsync(cancellationToken);
+            }
+            catch (Exception ex) when (ex is DbUpdateException or System.Data.Common.DbException)
+            {
+                // A full or read-only disk must not turn every key holder away (a feed must get 503 "not stored",
+                // a screen must read the state): the last-use time is a convenience and is written next time.
+                row.LastUsedAt = previous;
+            }
         }
         var credential = ToCredential(row);
         if (Interlocked.Read(ref _revocations) == revocations)

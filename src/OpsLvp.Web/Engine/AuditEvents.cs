@@ -16,6 +16,9 @@ public static class AuditEvents
     /// <summary>Actor of entries the engine or the host made on its own.</summary>
     public const string EngineActor = "engine";
 
+    /// <summary>The one entry a recording gap leaves: its start, end, cause and what was refused meanwhile (docs/reliability.md "Storage faults").</summary>
+    public const string RecordingGap = "recording_gap";
+
     public static bool IsAudited(EngineEvent e) => e is not ReadingRejected;
 
     public static string ActorOf(EngineEvent e) => e switch

@@ -6,4 +6,6 @@ namespace OpsLvp.Web.Engine;
 /// <param name="Audit">"ok" or "failing".</param>
 /// <param name="AuditError">The last commit error while failing.</param>
 /// <param name="ProfileVersion">The profile in use.</param>
-public sealed record EngineHealth(bool Running, DateTimeOffset? LastEvaluationAt, string Audit, string? AuditError, string? ProfileVersion);
+/// <param name="NotRecordingSince">App-clock instant recording stopped (storage failing), null while recording.</param>
+/// <param name="Stopped">Why the engine did not start (its stored state does not match the audit chain), else null.</param>
+public sealed record EngineHealth(bool Running, DateTimeOffset? LastEvaluationAt, string Audit, string? AuditError, string? ProfileVersion, DateTimeOffset? NotRecordingSince = null, string? Stopped = null);

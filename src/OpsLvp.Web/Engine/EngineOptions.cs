@@ -19,4 +19,10 @@ public sealed class EngineOptions
     /// dwell timers, pending, hold, items, alarms, forecast or service marks is written at once, with its audit entries.
     /// </summary>
     public TimeSpan StateFlushInterval { get; set; } = TimeSpan.FromSeconds(10);
+
+    /// <summary>
+    /// Set by an administrator to the audit head sequence named in a "state does not match the audit chain" stop, to
+    /// start anyway (from the initial state; the acknowledgement is audited). docs/reliability.md "Tamper evidence".
+    /// </summary>
+    public long? AcknowledgeStateMismatch { get; set; }
 }

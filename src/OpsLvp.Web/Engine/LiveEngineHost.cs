@@ -43,15 +43,19 @@ public sealed class LiveEngineHost(
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<LiveEngineHost> logger) : BackgroundService
 {
-    private const int MaxCarriedReadings = 10_000;
-
     private const int MaxBatchesPerEvaluation = 64;
 
     private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
 
+    private static readonly TimeSpan s_resumeRetry = TimeSpan.FromSeconds(1);
+
+    /// <summary>The engine's time may lead the clock by this much (a commit and a read of the clock race) before it counts as the clock stepping back.</summary>
+    private static readonly TimeSpan s_clockTolerance = TimeSpan.FromSeconds(2);
+
+    private static readonly TimeSpan s_clockAlarmShownFor = TimeSpan.FromMinutes(10);
+
     private readonly SemaphoreSlim _gate = new(1, 1);
     private readonly FeedHealthJournal _feedJournal = new(feedsOptions.Value.HealthAuditInterval);
-    private readonly List<Reading> _carried = [];
     private LvpEngine? _engine;
     private RvrDerivation? _derivation;
     private RvrTrends? _trends;
@@ -64,6 +68,11 @@ public sealed class LiveEngineHost(
     private string? _auditError;
     private DateTimeOffset? _auditFailingSince;
     private DateTimeOffset? _lastEvaluationAt;
+    private DateTimeOffset _lastResumeAttemptReal;
+    private int _refusedBatches;
+    private Alarm? _clockAlarm;
+    private string? _stopped;
+    private long _refusedReadings;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
     public AerodromeProfile? Profile => _engine?.Profile;
@@ -76,7 +85,12 @@ public sealed class LiveEngineHost(
         _lastEvaluationAt,
         _auditError is null ? "ok" : "failing",
         _auditError,
-        _engine?.Profile.Version);
+        _engine?.Profile.Version,
+        _auditFailingSince,
+        _stopped);
+
+    /// <summary>Recording or not, and since when (docs/reliability.md "Storage faults").</summary>
+    public RecordingView Recording => _auditError is null ? RecordingView.Ok : new RecordingView(false, _auditFailingSince, _auditError);
 
     public override async Task StartAsync(CancellationToken cancellationToken)
     {
@@ -86,9 +100,10 @@ public sealed class LiveEngineHost(
             logger.LogWarning("Engine host disabled (Engine:Enabled=false): no evaluation, no live state");
             return;
         }
+        string? switchedFrom;
         try
         {
-            await DatabaseStartup.MigrateAndCheckAsync(dbFactory, cancellationToken);
+            switchedFrom = await DatabaseStartup.MigrateAndCheckAsync(dbFactory, cancellationToken);
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
@@ -112,6 +127,20 @@ public sealed class LiveEngineHost(
         var now = clock.GetUtcNow();
         var persisted = await audit.GetLatestStateAsync(cancellationToken);
         var restored = false;
+        NewAuditEntry? acknowledged = null;
+        if (await StateMismatchAsync(persisted, cancellationToken) is { } mismatch)
+        {
+            if (o.AcknowledgeStateMismatch != mismatch.Head)
+            {
+                _stopped = $"{mismatch.Text}; the engine stays stopped until an administrator acknowledges it (restart with Engine:AcknowledgeStateMismatch={mismatch.Head})";
+                logger.LogCritical("OpsLvp engine stopped: {Reason}", _stopped);
+                _engine = null;
+                return;
+            }
+            logger.LogWarning("State mismatch acknowledged by Engine:AcknowledgeStateMismatch={Head}: {Mismatch}; starting from the initial state", mismatch.Head, mismatch.Text);
+            acknowledged = AuditEvents.HostEntry("state_mismatch_acknowledged", now, new { mismatch = mismatch.Text, head = mismatch.Head });
+            persisted = null;
+        }
         if (persisted is not null)
         {
             try
@@ -140,6 +169,15 @@ public sealed class LiveEngineHost(
         });
         logger.LogInformation("Engine host started with profile {Profile}; state {How} (phase {Phase})", profile.Version, restored ? "restored" : "initial", _state.Phase);
         var hostEntries = new List<NewAuditEntry> { started };
+        if (acknowledged is not null)
+        {
+            hostEntries.Add(acknowledged);
+        }
+        if (switchedFrom is not null)
+        {
+            logger.LogWarning("The database was in journal mode '{Mode}'; switched to WAL at start", switchedFrom);
+            hostEntries.Add(AuditEvents.HostEntry("journal_mode_switched", now, new { from = switchedFrom, to = "wal" }));
+        }
         var lastRecorded = await audit.GetLastOfKindAsync(ProfileRecord.Kind, cancellationToken);
         if (lastRecorded is null || ProfileRecord.ShaOf(lastRecorded) != ProfileRecord.Sha256(profile))
         {
@@ -149,6 +187,34 @@ public sealed class LiveEngineHost(
         }
         await EvaluateAsync([], null, hostEntries, cancellationToken);
         await base.StartAsync(cancellationToken);
+    }
+
+    /// <summary>
+    /// The stored state names the audit entry it reflects (sequence and hash, written in the same transaction). A
+    /// chain that ends before that entry was cut short; an entry there with another hash was rewritten. Entries after
+    /// it are normal (account and key changes append without a state). Null when they agree or nothing is stored.
+    /// </summary>
+    private async Task<(string Text, long Head)?> StateMismatchAsync(PersistedEngineState? persisted, CancellationToken cancellationToken)
+    {
+        if (persisted is null)
+        {
+            return null;
+        }
+        var head = await audit.GetHeadAsync(cancellationToken);
+        var headSequence = head?.Sequence ?? 0;
+        if (persisted.AuditSequence > headSequence)
+        {
+            return ($"the stored engine state reflects audit entry {persisted.AuditSequence} but the audit chain ends at {headSequence}: entries were removed", headSequence);
+        }
+        if (persisted.AuditHash is { } hash && persisted.AuditSequence > 0)
+        {
+            var entry = (await audit.GetRangeAsync(persisted.AuditSequence, persisted.AuditSequence, cancellationToken)).SingleOrDefault();
+            if (entry is null || !string.Equals(entry.Hash, hash, StringComparison.Ordinal))
+            {
+                return ($"audit entry {persisted.AuditSequence} does not have the hash the stored engine state recorded for it: the chain was rewritten", headSequence);
+            }
+        }
+        return null;
     }
 
     /// <summary>
@@ -271,17 +337,33 @@ public sealed class LiveEngineHost(
     private async Task<EvaluationOutcome> EvaluateLockedAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
     {
         var engine = _engine!;
-        var old = _state!;
         var now = clock.GetUtcNow();
         var realNow = realClock.GetUtcNow();
+        if (_auditError is not null && !await TryResumeRecordingAsync(now, realNow, force: command is not null, cancellationToken))
+        {
+            // Not recording (docs/reliability.md "Storage faults"): nothing is evaluated, so nothing the history cannot show is applied,
+            // published as current or acknowledged to a feed.
+            Refuse(batches, _auditError!);
+            Publish(_state!, now, realNow, force: true);
+            return new EvaluationOutcome(false, [], [], NotRecordingText());
+        }
+        var old = _state!;
+        if (old.EvaluatedAt > now + s_clockTolerance)
+        {
+            // The clock stepped back (or a demo restarted on a folder whose demo clock ran ahead): the engine would
+            // treat every reading as older than the latest and refuse it. Record it, alarm, and start monitoring
+            // afresh from the clock's now, as after a recording gap (docs/reliability.md "Clock regression").
+            var ahead = old.EvaluatedAt - now;
+            logger.LogError("Clock regression: engine time {EngineTime} is {Ahead} ahead of the clock {Now}; monitoring restarts from the clock", old.EvaluatedAt, ahead, now);
+            _clockAlarm = new Alarm(SnapshotBuilder.ClockRegressionKey, AlarmKind.ClockRegression,
+                $"clock stepped back: engine time was {OpsLvp.Core.Audit.AuditCanonical.FormatTime(old.EvaluatedAt)}, {ahead.TotalSeconds:0} s ahead; readings before that were set aside and monitoring restarted", now);
+            hostEntries = [AuditEvents.HostEntry("clock_regression", now, new { engineTime = old.EvaluatedAt, clock = now, aheadSeconds = ahead.TotalSeconds }), .. hostEntries];
+            old = Rebase(old, now);
+        }
 
         var inputs = new List<EngineInput>();
         var fresh = new List<(Reading Reading, string Source)>();
         var perBatch = new List<(ReadingBatch Batch, int From, int To)>();
-        foreach (var r in _carried)
-        {
-            inputs.Add(new ReadingInput(r));
-        }
         foreach (var batch in batches)
         {
             var from = fresh.Count;
@@ -318,16 +400,24 @@ public sealed class LiveEngineHost(
 
         if (perBatch.Count > 0)
         {
-            await StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
+            try
+            {
+                await StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+            {
+                StopRecording(now, $"readings not stored: {Describe(ex)}", ex);
+                Refuse(batches, _auditError!);
+                Publish(old, now, realNow, force: true);
+                return new EvaluationOutcome(false, result.Events, [], NotRecordingText());
+            }
         }
 
+        // Engine events first: at a start they include what fell due while the server was stopped, stamped at those
+        // instants, and the host's entries (engine_started, ...) are stamped now, so the chain's times never go back.
         var entries = new List<NewAuditEntry>();
-        if (_auditError is not null)
-        {
-            entries.Add(AuditEvents.HostEntry("audit_storage_recovered", now, new { failingSince = _auditFailingSince, lastError = _auditError }));
-        }
-        entries.AddRange(hostEntries);
         entries.AddRange(result.Events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry));
+        entries.AddRange(hostEntries);
         var feedSnapshot = feeds.Snapshot();
         var feedChanges = _feedJournal.Observe(feedSnapshot, now, realNow);
         entries.AddRange(feedChanges.Select(c => c.Entry));
@@ -349,23 +439,18 @@ public sealed class LiveEngineHost(
             }
             catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
             {
-                var error = ex is AuditCommitException ? ex.Message : $"{ex.GetType().Name}: {ex.Message}";
-                if (_auditError is null)
-                {
-                    _auditFailingSince = now;
-                }
-                _auditError = error;
-                logger.LogError(ex, "Audit storage failing; state not applied: {Error}", error);
-                CarryOver(fresh, rejected);
+                StopRecording(now, ex is AuditCommitException ? ex.Message : Describe(ex), ex);
+                Refuse(batches, _auditError!);
                 Publish(old, now, realNow, force: true);
-                return new EvaluationOutcome(false, result.Events, [], error);
+                return new EvaluationOutcome(false, result.Events, [], NotRecordingText());
             }
             _written = state;
             _lastWriteReal = realNow;
         }
-        _auditError = null;
-        _auditFailingSince = null;
-        _carried.Clear();
+        foreach (var batch in batches)
+        {
+            batch.Receipt?.Confirm();
+        }
         _feedJournal.Recorded(feedChanges, realNow);
         foreach (var (reading, _) in fresh)
         {
@@ -380,23 +465,99 @@ public sealed class LiveEngineHost(
         return new EvaluationOutcome(true, result.Events, committed, null);
     }
 
+    private static string Describe(Exception ex) => $"{ex.GetType().Name}: {(ex.InnerException ?? ex).Message.ReplaceLineEndings(" ")}";
+
+    private string NotRecordingText() =>
+        $"not recording since {OpsLvp.Core.Audit.AuditCanonical.FormatTime(_auditFailingSince ?? default)}: {_auditError}";
+
+    /// <summary>Storage failed: from now on nothing is evaluated or acknowledged until a write succeeds again.</summary>
+    private void StopRecording(DateTimeOffset now, string error, Exception ex)
+    {
+        if (_auditError is null)
+        {
+            _auditFailingSince = now;
+            _refusedBatches = 0;
+            _refusedReadings = 0;
+            logger.LogError(ex, "NOT RECORDING since {Since}: {Error}; readings are refused and actions not applied until storage works again", now, error);
+        }
+        _auditError = error;
+    }
+
+    private void Refuse(IReadOnlyList<ReadingBatch> batches, string reason)
+    {
+        foreach (var batch in batches)
+        {
+            _refusedBatches++;
+            _refusedReadings += batch.Readings.Count;
+            batch.Receipt?.Refuse(reason);
+        }
+    }
+
+    /// <summary>
+    /// While not recording, each evaluation (at most one a second, but every command) first tries to write the gap's one audit entry
+    /// (start, end, reason, what was refused) together with the state rebased at <paramref name="now"/>. What the
+    /// engine knew from readings before the gap is dropped (latest readings, running dwells, monitoring start), so
+    /// the first evaluation after the gap neither stamps events inside it nor counts a dwell across it (docs/reliability.md).
+    /// </summary>
+    private async Task<bool> TryResumeRecordingAsync(DateTimeOffset now, DateTimeOffset realNow, bool force, CancellationToken cancellationToken)
+    {
+        if (!force && realNow - _lastResumeAttemptReal < s_resumeRetry)
+        {
+            return false;
+        }
+        _lastResumeAttemptReal = realNow;
+        var rebased = Rebase(_state!, now);
+        var gap = AuditEvents.HostEntry(AuditEvents.RecordingGap, now, new
+        {
+            from = _auditFailingSince,
+            to = now,
+            reason = _auditError,
+            refusedBatches = _refusedBatches,
+            refusedReadings = _refusedReadings,
+        });
+        try
+        {
+            await audit.AppendAsync([gap], new EngineStateWrite(EngineStateJson.Serialize(rebased), _engine!.Profile.Version, now), cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+        {
+            _auditError = ex is AuditCommitException ? ex.Message : Describe(ex);
+            logger.LogDebug(ex, "Still not recording: {Error}", _auditError);
+            return false;
+        }
+        logger.LogWarning("Recording resumed: gap from {From} to {To} ({Batches} batch(es), {Readings} reading(s) refused)", _auditFailingSince, now, _refusedBatches, _refusedReadings);
+        _state = rebased;
+        _written = rebased;
+        _lastWriteReal = realNow;
+        _auditError = null;
+        _auditFailingSince = null;
+        try
+        {
+            // the WAL grew (or failed to) during the outage; fold it back into the database now there is room
+            await audit.CheckpointAsync(cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogWarning(ex, "WAL checkpoint after the recording gap failed");
+        }
+        return true;
+    }
+
+    /// <summary>The state as known right after a recording gap: no readings and no running dwell from before it.</summary>
+    internal static EngineState Rebase(EngineState state, DateTimeOffset now) => state with
+    {
+        EvaluatedAt = now,
+        MonitoringSince = now,
+        Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty,
+        HoldingSince = System.Collections.Immutable.ImmutableDictionary<ConditionKind, DateTimeOffset>.Empty,
+    };
+
     /// <summary>The state without the parts that change with every reading (they are flushed on the interval).</summary>
     private static EngineState Structural(EngineState s) => s with
     {
         EvaluatedAt = default,
         Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty,
     };
-
-    private void CarryOver(List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected)
-    {
-        foreach (var (reading, _) in fresh)
-        {
-            if (!rejected.ContainsKey(reading) && _carried.Count < MaxCarriedReadings)
-            {
-                _carried.Add(reading);
-            }
-        }
-    }
 
     private async Task StoreReadingsAsync(List<(ReadingBatch Batch, int From, int To)> batches, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)
     {
@@ -415,14 +576,7 @@ public sealed class LiveEngineHost(
                     : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
             }
         }
-        try
-        {
-            await readingStore.InsertAsync(rows, cancellationToken);
-        }
-        catch (Exception ex) when (ex is not OperationCanceledException)
-        {
-            logger.LogError(ex, "Readings from {Count} batch(es) could not be stored", batches.Count);
-        }
+        await readingStore.InsertAsync(rows, cancellationToken);
     }
 
     private void Publish(EngineState state, DateTimeOffset now, DateTimeOffset realNow, bool force)
@@ -433,12 +587,18 @@ public sealed class LiveEngineHost(
             return;
         }
         _version = Math.Max(_version + 1, realNow.ToUnixTimeMilliseconds());
-        Alarm? hostAlarm = _auditError is null
-            ? null
-            : new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"audit storage failing: {_auditError}; actions are not applied", _auditFailingSince ?? now);
+        var hostAlarms = new List<Alarm>(2);
+        if (_auditError is not null)
+        {
+            hostAlarms.Add(new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {_auditError}; readings are refused and actions are not applied", _auditFailingSince ?? now));
+        }
+        if (_clockAlarm is { } clockAlarm && now - clockAlarm.RaisedAt < s_clockAlarmShownFor)
+        {
+            hostAlarms.Add(clockAlarm);
+        }
         var snapshot = SnapshotBuilder.Build(
             _version, _engine!, state, now, feeds.Snapshot(), _trends!.At(now),
-            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarm);
+            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarms, Recording);
         _published = state;
         _lastPublishReal = realNow;
         live.Publish(snapshot);

@@ -11,6 +11,9 @@ public static class SnapshotBuilder
     /// <summary>Key of the host's own alarm while audit entries cannot be committed.</summary>
     public const string AuditFailingKey = "audit-storage-failing";
 
+    /// <summary>Key of the host's own alarm after the engine's time was found ahead of the clock.</summary>
+    public const string ClockRegressionKey = "clock-regression";
+
     public static LiveSnapshot Build(
         long version,
         LvpEngine engine,
@@ -19,13 +22,15 @@ public static class SnapshotBuilder
         IReadOnlyList<FeedHealth> feeds,
         IReadOnlyList<SensorTrend> trends,
         DemoView? demo,
-        Alarm? hostAlarm)
+        IReadOnlyList<Alarm> hostAlarms,
+        RecordingView? recording = null)
     {
+        ArgumentNullException.ThrowIfNull(hostAlarms);
         var profile = engine.Profile;
         var status = engine.Describe(state, now);
-        if (hostAlarm is not null)
+        if (hostAlarms.Count > 0)
         {
-            status = status with { Alarms = [hostAlarm, .. status.Alarms] };
+            status = status with { Alarms = [.. hostAlarms, .. status.Alarms] };
         }
         var configs = new Dictionary<string, ChecklistItemConfig>(StringComparer.Ordinal);
         foreach (var c in profile.Checklists.Preparation.Concat(profile.Checklists.Active).Concat(profile.Checklists.Cancellation))
@@ -58,6 +63,7 @@ public static class SnapshotBuilder
             state.OutOfService.Order(StringComparer.Ordinal).ToList(),
             feeds.Select(FeedHealthDto.From).ToList(),
             trends,
-            demo);
+            demo,
+            recording ?? RecordingView.Ok);
     }
 }

@@ -4,7 +4,10 @@ using OpsLvp.Web.Time;
 
 namespace OpsLvp.Web.Feeds;
 
-/// <summary><c>GET /health</c>: liveness, per-feed health and the engine host's health (docs/feeds.md, "Health"). Always 200 while the server runs.</summary>
+/// <summary>
+/// <c>GET /health</c>: liveness, per-feed health and the engine host's health (docs/feeds.md, "Health"). Always 200 while
+/// the server runs; <c>status</c> is <c>failing</c> while it is not recording (storage failing, docs/reliability.md "Storage faults").
+/// </summary>
 public static class HealthApi
 {
     public static IEndpointRouteBuilder MapHealthApi(this IEndpointRouteBuilder endpoints)
@@ -17,13 +20,14 @@ public static class HealthApi
     {
         var feeds = registry.Snapshot();
         var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
+        var engineHealth = engine.Health;
         return TypedResults.Ok(new HealthResponse(
-            "ok",
+            engineHealth.NotRecordingSince is null && engineHealth.Stopped is null ? "ok" : "failing",
             clock.GetUtcNow(),
             demo.Enabled,
             demo.Enabled ? demo.Speed : null,
             FeedHealthDto.StatusText(worst),
             feeds.Select(FeedHealthDto.From).ToList(),
-            engine.Health));
+            engineHealth));
     }
 }

@@ -1,7 +1,8 @@
 namespace OpsLvp.Web.Feeds;
 
 /// <summary>
-/// Body of <c>GET /health</c>. <c>status</c> is the server's liveness ("ok" whenever it answers);
+/// Body of <c>GET /health</c>. <c>status</c> is "ok" whenever the server answers and records, "failing" while it is
+/// not recording (storage failing);
 /// <c>feedsStatus</c> is the worst feed status ("ok" when there are no feeds); <c>engine</c> is the engine host's
 /// last evaluation and whether audit storage works.
 /// </summary>

@@ -6,5 +6,6 @@ namespace OpsLvp.Web.Feeds;
 /// What one feed delivered at once: <paramref name="Source"/> names the feed (<c>http:{name}</c>,
 /// <c>push:{key name}</c>, <c>demo</c>), <paramref name="ReceivedAt"/> is app-clock time of arrival.
 /// Rejections here are structural (<see cref="RejectReason.Malformed"/>); the engine host applies the rest.
+/// A feed that must know whether the batch was durably recorded passes a <paramref name="Receipt"/>.
 /// </summary>
-public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IReadOnlyList<Reading> Readings, IReadOnlyList<ReadingRejection> Rejections);
+public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IReadOnlyList<Reading> Readings, IReadOnlyList<ReadingRejection> Rejections, BatchReceipt? Receipt = null);

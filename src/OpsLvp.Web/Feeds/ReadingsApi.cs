@@ -13,10 +13,15 @@ namespace OpsLvp.Web.Feeds;
 /// <summary>
 /// Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md): a key
 /// with the ingest scope issued on /admin/keys, or a bootstrap key from <c>Feeds:Push:ApiKeys</c> (docs/access.md).
+/// 202 means the readings are durably stored (docs/reliability.md "Storage faults"); while the server is not recording the answer is
+/// 503 with the reason and <c>Retry-After</c>, so the feed keeps them and sends them again.
 /// </summary>
 public static class ReadingsApi
 {
     public const string ApiKeyHeader = "X-Api-Key";
+
+    /// <summary>How long a push waits for its batch to be stored before the answer is 503 (the feed retries; a duplicate is refused then).</summary>
+    public static readonly TimeSpan StoreWait = TimeSpan.FromSeconds(30);
 
     public static IEndpointRouteBuilder MapReadingsApi(this IEndpointRouteBuilder endpoints)
     {
@@ -32,6 +37,7 @@ public static class ReadingsApi
         ApiKeyStore keys,
         LiveEngineHost engine,
         TimeProvider clock,
+        OpsLvp.Web.Engine.LiveEngineHost engine,
         ILoggerFactory loggers)
     {
         var push = options.Value.Push;
@@ -77,11 +83,28 @@ public static class ReadingsApi
             return Error(StatusCodes.Status400BadRequest, ex.Message);
         }
 
-        if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow())))
+        if (engine.Health.Stopped is { } stopped)
+        {
+            context.Response.Headers.RetryAfter = "60";
+            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored: the engine is stopped: {stopped}");
+        }
+        // With the engine host off (Engine:Enabled=false) nothing stores readings: the batch is only queued.
+        var receipt = engine.Health.Running ? new BatchReceipt() : null;
+        if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow()) with { Receipt = receipt }))
         {
             loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} refused: reading pipeline full", source);
             context.Response.Headers.RetryAfter = "5";
             return Error(StatusCodes.Status503ServiceUnavailable, "reading pipeline is full; retry later");
+        }
+        if (receipt is not null)
+        {
+            var outcome = await WaitStoredAsync(receipt, context.RequestAborted);
+            if (!outcome.Stored)
+            {
+                loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} not stored: {Reason}", source, outcome.Reason);
+                context.Response.Headers.RetryAfter = "5";
+                return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {outcome.Reason}");
+            }
         }
 
         var items = Screen(parsed, engine.Profile, clock.GetUtcNow());
@@ -119,6 +142,18 @@ public static class ReadingsApi
 
         items.Sort((a, b) => a.Index.CompareTo(b.Index));
         return items;
+    }
+
+    private static async Task<BatchOutcome> WaitStoredAsync(BatchReceipt receipt, CancellationToken aborted)
+    {
+        try
+        {
+            return await receipt.Outcome.WaitAsync(StoreWait, aborted);
+        }
+        catch (TimeoutException)
+        {
+            return new BatchOutcome(false, $"not confirmed stored within {StoreWait.TotalSeconds:0} s");
+        }
     }
 
     /// <summary>The body, or null when it is larger than <paramref name="maxBytes"/>.</summary>

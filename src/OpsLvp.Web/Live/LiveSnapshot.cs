@@ -17,6 +17,8 @@ namespace OpsLvp.Web.Live;
 /// <param name="Feeds">Per-feed health.</param>
 /// <param name="Trends">Per RVR sensor: 1-minute mean and the 10-minute U/D/N tendency (ICAO Annex 3, App 3, §4.3.6.6).</param>
 /// <param name="Demo">Set in demo mode (the "DEMO ×N" badge).</param>
+/// <param name="Recording">Whether the server is recording; while it is not, the values shown are the last ones recorded
+/// and screens say so (docs/reliability.md "Storage faults"). Null reads as recording.</param>
 public sealed record LiveSnapshot(
     long Version,
     DateTimeOffset At,
@@ -26,4 +28,5 @@ public sealed record LiveSnapshot(
     IReadOnlyList<string> OutOfService,
     IReadOnlyList<FeedHealthDto> Feeds,
     IReadOnlyList<SensorTrend> Trends,
-    DemoView? Demo);
+    DemoView? Demo,
+    RecordingView? Recording = null);

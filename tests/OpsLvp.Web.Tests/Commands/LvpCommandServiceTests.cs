@@ -138,7 +138,7 @@ public sealed class LvpCommandServiceTests
         var recovered = await run.Commands.ExecuteAsync(Manager, new CancelLvp("x", "fog lifted (test)"));
         Assert.Equal(CommandOutcomeKind.Applied, recovered.Kind);
         var entries = await LiveClient.EntriesAsync(run.App);
-        Assert.Contains(entries, e => e.Kind == "audit_storage_recovered");
+        Assert.Single(entries, e => e.Kind == "recording_gap");
         Assert.Equal("ok", (await run.App.GetHealthAsync()).GetProperty("engine").GetProperty("audit").GetString());
         await LiveClient.AssertChainVerifiesAsync(run.App);
     }

@@ -151,9 +151,11 @@ public sealed class LiveEngineTests
             var toActive = entries.Single(e => e.Kind == "transition" && e.PayloadJson.Contains("\"to\":\"active\"", StringComparison.Ordinal));
             var restarted = entries.Last(e => e.Kind == "engine_started");
             Assert.Contains("\"restored\":true", restarted.PayloadJson, StringComparison.Ordinal);
-            // fired by the first evaluation after the restart, stamped with the exact dwell completion (docs/engine.md R7)
-            Assert.True(restarted.Sequence < toActive.Sequence);
+            // fired by the first evaluation after the restart, stamped with the exact dwell completion (docs/engine.md R7),
+            // and recorded before engine_started (stamped at the restart) so the chain's times never go back
+            Assert.True(toActive.Sequence < restarted.Sequence);
             Assert.True(restarted.Time > toActive.Time);
+            Assert.Null((await LiveClient.Audit(second).VerifyAsync()).FirstTimeRegressionSequence);
             Assert.Equal(TimeSpan.FromSeconds(dwell), toActive.Time - toPreparation.Time);
             await LiveClient.AssertChainVerifiesAsync(second);
         }

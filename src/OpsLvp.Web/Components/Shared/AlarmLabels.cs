@@ -14,6 +14,7 @@ public static class AlarmLabels
         AlarmKind.PendingTransition => "Confirm transition",
         AlarmKind.SafeguardsIncomplete => "Safeguards incomplete",
         AlarmKind.AuditStorageFailing => "Audit storage failing",
+        AlarmKind.ClockRegression => "Clock stepped back",
         _ => kind.ToString(),
     };
 

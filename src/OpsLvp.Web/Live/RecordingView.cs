@@ -1,0 +1,11 @@
+namespace OpsLvp.Web.Live;
+
+/// <summary>
+/// Whether the server is recording (readings and audit durably stored). While <paramref name="Recording"/> is false,
+/// readings are refused, actions are not applied, and every screen shows "NOT RECORDING since" <paramref name="Since"/>
+/// (app clock) and greys the values it cannot vouch for (docs/reliability.md "Storage faults").
+/// </summary>
+public sealed record RecordingView(bool Recording, DateTimeOffset? Since, string? Reason)
+{
+    public static readonly RecordingView Ok = new(true, null, null);
+}

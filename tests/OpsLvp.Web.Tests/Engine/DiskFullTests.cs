@@ -1,0 +1,131 @@
+using System.Net;
+using System.Net.Http.Json;
+using System.Text;
+using System.Text.Json;
+using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Tests.Infrastructure;
+using OpsLvp.Web.Tests.Live;
+
+namespace OpsLvp.Web.Tests.Engine;
+
+/// <summary>
+/// The real app on a data folder that is a small tmpfs, filled up while readings are pushed, then freed
+/// (docs/reliability.md "Storage faults"). Readings are invented.
+/// </summary>
+public sealed class DiskFullTests
+{
+    private const int BatchSize = 100;
+
+    [RootFact]
+    public async Task DiskFull_RefusesPushesWith503_FailsHealth_SaysNotRecording_ThenRecordsOneGap_AndLosesNoAcknowledgedReading()
+    {
+        using var fs = SmallFilesystem.Mount(24);
+        var profile = LiveTestProfile.Write(fs.Root);
+        await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(profile), fs.Root);
+        await LiveClient.ReaderKeyAsync(app); // issued (an audit entry) while there is room
+        var pusher = new Pusher(app, DateTimeOffset.FromUnixTimeMilliseconds(DateTimeOffset.UtcNow.AddSeconds(-90).ToUnixTimeMilliseconds())); // whole ms, as stored
+
+        for (var i = 0; i < 3; i++)
+        {
+            var (status, _) = await pusher.PushBatchAsync();
+            Assert.Equal(HttpStatusCode.Accepted, status);
+        }
+
+        fs.Fill();
+        string? refusal = null;
+        for (var i = 0; i < 600 && refusal is null; i++)
+        {
+            var (status, error) = await pusher.PushBatchAsync();
+            if (status == HttpStatusCode.ServiceUnavailable)
+            {
+                refusal = error;
+            }
+            else
+            {
+                Assert.Equal(HttpStatusCode.Accepted, status);
+            }
+        }
+        Assert.NotNull(refusal);
+        Assert.StartsWith("not stored, retry later:", refusal, StringComparison.Ordinal);
+
+        var health = await app.GetHealthAsync();
+        Assert.Equal("failing", health.GetProperty("status").GetString());
+        Assert.NotEqual(JsonValueKind.Null, health.GetProperty("engine").GetProperty("notRecordingSince").ValueKind);
+        var state = await LiveClient.StateAsync(app);
+        var recording = state.GetProperty("recording");
+        Assert.False(recording.GetProperty("recording").GetBoolean());
+        Assert.NotEqual(JsonValueKind.Null, recording.GetProperty("since").ValueKind);
+        Assert.Contains(state.GetProperty("status").GetProperty("alarms").EnumerateArray(), a => a.GetProperty("kind").GetString() == "auditStorageFailing");
+        // still full: still refused
+        Assert.Equal(HttpStatusCode.ServiceUnavailable, (await pusher.PushBatchAsync()).Status);
+
+        fs.Free();
+        var deadline = DateTime.UtcNow.AddSeconds(60);
+        while (true)
+        {
+            var (status, _) = await pusher.PushBatchAsync();
+            if (status == HttpStatusCode.Accepted)
+            {
+                break;
+            }
+            Assert.True(DateTime.UtcNow < deadline, "recording did not resume within 60 s of space returning");
+            await Task.Delay(200);
+        }
+        Assert.Equal("ok", (await app.GetHealthAsync()).GetProperty("status").GetString());
+        Assert.True((await LiveClient.StateAsync(app)).GetProperty("recording").GetProperty("recording").GetBoolean());
+
+        // every acknowledged reading is in the readings table
+        var stored = (await app.Services.GetRequiredService<ReadingStore>().GetReceivedAsync(DateTimeOffset.UnixEpoch, DateTimeOffset.UtcNow.AddDays(1)))
+            .Where(r => r.Sensor == LiveTestProfile.Tdz && r.Time is not null)
+            .Select(r => r.Time!.Value)
+            .ToHashSet();
+        var lost = pusher.Acknowledged.Where(a => !stored.Contains(a)).ToList();
+        Assert.True(lost.Count == 0, $"{lost.Count} of {pusher.Acknowledged.Count} acknowledged readings were not stored");
+
+        // the gap is one entry naming its start and end, and nothing else is dated inside it
+        var entries = await LiveClient.EntriesAsync(app);
+        var gap = Assert.Single(entries, e => e.Kind == "recording_gap");
+        using var payload = JsonDocument.Parse(gap.PayloadJson);
+        var from = payload.RootElement.GetProperty("from").GetDateTimeOffset();
+        var to = payload.RootElement.GetProperty("to").GetDateTimeOffset();
+        Assert.True(from < to, $"gap from {from:o} to {to:o}");
+        Assert.DoesNotContain(entries, e => e.Time > from && e.Time < to);
+        Assert.True(payload.RootElement.GetProperty("refusedReadings").GetInt64() >= BatchSize);
+        await LiveClient.AssertChainVerifiesAsync(app);
+    }
+
+    /// <summary>Pushes batches of increasing sensor times and keeps the times of every acknowledged reading.</summary>
+    private sealed class Pusher(OpsLvpApp app, DateTimeOffset start)
+    {
+        private DateTimeOffset _t = start;
+
+        public List<DateTimeOffset> Acknowledged { get; } = [];
+
+        public async Task<(HttpStatusCode Status, string? Error)> PushBatchAsync()
+        {
+            var times = new List<DateTimeOffset>(BatchSize);
+            var items = new List<string>(BatchSize);
+            for (var i = 0; i < BatchSize; i++)
+            {
+                _t = _t.AddMilliseconds(1);
+                times.Add(_t);
+                items.Add(LiveClient.Item(_t, LiveTestProfile.Tdz, "rvr", 1500 + (i % 7)));
+            }
+            using var request = new HttpRequestMessage(HttpMethod.Post, new Uri("/api/readings", UriKind.Relative))
+            {
+                Content = new StringContent("{ \"readings\": [" + string.Join(",", items) + "] }", Encoding.UTF8, "application/json"),
+            };
+            request.Headers.Add(ReadingsApi.ApiKeyHeader, LiveTestProfile.PushKey);
+            using var response = await app.Client.SendAsync(request);
+            if (response.StatusCode == HttpStatusCode.Accepted)
+            {
+                Acknowledged.AddRange(times);
+                return (response.StatusCode, null);
+            }
+            var body = await response.Content.ReadFromJsonAsync<JsonElement>();
+            return (response.StatusCode, body.TryGetProperty("error", out var e) ? e.GetString() : body.ToString());
+        }
+    }
+}
