@@ -37,7 +37,6 @@ public static class ReadingsApi
         ApiKeyStore keys,
         LiveEngineHost engine,
         TimeProvider clock,
-        OpsLvp.Web.Engine.LiveEngineHost engine,
         ILoggerFactory loggers)
     {
         var push = options.Value.Push;
