@@ -16,7 +16,7 @@ public sealed record MetarReport
     public const double MetresPerStatuteMile = 1609.344;
 
     /// <summary>
-    /// RVR is reported when the visibility or the RVR is below this (1500 m; from memory, DOMAIN "Runway visual range").
+    /// RVR is reported when the visibility or the RVR is below this (1500 m; from memory, docs/sources.md "Runway visual range").
     /// A report whose visibility is at least this and that has no RVR group for a runway therefore says that runway's RVR
     /// was not required: 1500 m or more (docs/engine.md R22).
     /// </summary>

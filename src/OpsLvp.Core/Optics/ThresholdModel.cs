@@ -7,7 +7,7 @@ public enum ThresholdModel
     AnnexBands,
     /// <summary>
     /// The continuous form log₁₀E_T = 0.05(log₁₀B)² + 0.573·log₁₀B − 6.667, recalled for ICAO Doc 9328 but unconfirmed
-    /// (DOMAIN "Optics"): an option only.
+    /// (docs/sources.md "Optics"): an option only.
     /// </summary>
     Continuous,
 }

@@ -11,7 +11,7 @@ public enum EntryComparison
 
     /// <summary>
     /// The condition holds when the value is at or below the threshold: many local instructions say "at or below
-    /// 200 ft" (DOMAIN.md "LVP phases": the comparison is a local choice). METAR heights come in 100 ft steps, so this is
+    /// 200 ft" (docs/sources.md "LVP phases": the comparison is a local choice). METAR heights come in 100 ft steps, so this is
     /// a whole step: a METAR BKN002 enters a 200 ft threshold at or below, not below.
     /// </summary>
     AtOrBelow,

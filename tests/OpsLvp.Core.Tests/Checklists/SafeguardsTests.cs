@@ -3,7 +3,7 @@ using OpsLvp.Core.Engine;
 
 namespace OpsLvp.Core.Tests.Checklists;
 
-/// <summary>"Safeguards complete": all mandatory preparation items done (DOMAIN.md LVP phases, EUR Doc 013, from memory). Items are invented.</summary>
+/// <summary>"Safeguards complete": all mandatory preparation items done (docs/sources.md LVP phases, EUR Doc 013, from memory). Items are invented.</summary>
 public class SafeguardsTests
 {
     private static readonly DateTimeOffset T = new(2026, 12, 1, 3, 0, 0, TimeSpan.Zero);

@@ -25,7 +25,7 @@ public sealed class RvrCommandTests
     [Fact]
     public void Rvr_Mor300NightTenThousandCandela_Reports0900()
     {
-        // MOR 300 m, night, I = 10 000 cd → lights ≈ 954 m, report 0900: computed from the formulas above (DOMAIN Optics)
+        // MOR 300 m, night, I = 10 000 cd → lights ≈ 954 m, report 0900: computed from the formulas above (docs/sources.md Optics)
         var json = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--background-luminance", "1");
 
         Assert.Equal("0900", json.GetProperty("report").GetString());
@@ -36,7 +36,7 @@ public sealed class RvrCommandTests
     }
 
     [Theory]
-    // Worked check values computed from the formulas above (DOMAIN Optics), I = 10 000 cd;
+    // Worked check values computed from the formulas above (docs/sources.md Optics), I = 10 000 cd;
     // bands — ICAO Annex 3, Attachment D (from memory); reporting — ICAO Annex 3, App 3, §4.3.6 (from memory)
     [InlineData("300", "--background-luminance", "5000", 573, "0550")]
     [InlineData("300", "--period", "day", 573, "0550")]
@@ -53,7 +53,7 @@ public sealed class RvrCommandTests
     [Fact]
     public void Rvr_Mor1000AtNight_ReportsP2000()
     {
-        // MOR 1000 m at night → above 2000 m (P2000): computed from the formulas above (DOMAIN Optics)
+        // MOR 1000 m at night → above 2000 m (P2000): computed from the formulas above (docs/sources.md Optics)
         var json = RunOk("rvr", "--mor-m", "1000", "--light-intensity-cd", "10000", "--period", "night");
 
         Assert.Equal("P2000", json.GetProperty("report").GetString());
@@ -63,7 +63,7 @@ public sealed class RvrCommandTests
     [Fact]
     public void Rvr_Transmissometer75m070_GivesMor630()
     {
-        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (DOMAIN Optics); 629.93 rounded down to 0.1 m
+        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (docs/sources.md Optics); 629.93 rounded down to 0.1 m
         var json = RunOk("rvr", "--transmittance", "0.70", "--baseline-m", "75", "--light-intensity-cd", "10000", "--period", "day");
 
         Assert.Equal(629.9, json.GetProperty("mor_m").GetDouble());
@@ -94,7 +94,7 @@ public sealed class RvrCommandTests
     [Fact]
     public void Rvr_WithoutLuminanceOrPeriod_UsesTheBrightDayThresholdAndSaysLuminanceUnknown()
     {
-        // docs/engine.md R19. DOMAIN.md check (Allard's law; Annex 3 Att. D bands — from memory): MOR 300 m, 10 000 cd,
+        // docs/engine.md R19. docs/sources.md check (Allard's law; Annex 3 Att. D bands — from memory): MOR 300 m, 10 000 cd,
         // 20 000 cd/m² (bright day) gives 0400; the normal-day band gave 0550.
         var unknown = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000");
         var bright = RunOk("rvr", "--mor-m", "300", "--light-intensity-cd", "10000", "--background-luminance", "20000");

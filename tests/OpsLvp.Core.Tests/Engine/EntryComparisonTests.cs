@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Tests.Engine;
 
 /// <summary>
 /// docs/engine.md R18: entry per phase "below" (default) or "at or below"; recovery stays "at or above recover". Many
-/// local instructions say "at or below 200 ft" (DOMAIN.md "LVP phases": the comparison is a local choice); the
+/// local instructions say "at or below 200 ft" (docs/sources.md "LVP phases": the comparison is a local choice); the
 /// thresholds are the invented test profile's.
 /// </summary>
 public sealed class EntryComparisonTests

@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Tests.Engine;
 /// <summary>
 /// Test profiles for the invented aerodrome XDMO "Demo Field (invented)". Every value is invented; the
 /// thresholds follow the illustrative examples of docs/engine.md R4/R5/R7 (LVP thresholds and dwells are local
-/// values, DOMAIN "LVP phases": from memory), not any real aerodrome's instruction.
+/// values, docs/sources.md "LVP phases": from memory), not any real aerodrome's instruction.
 /// Runway 07/25 (LVP) with RVR07T (TDZ for 07, END for 25), RVR07M (MID), RVR25T (END for 07, TDZ for 25),
 /// runway 12/30 (not LVP) with RVR12T, ceilometer CEIL1, visibility sensor VIS1.
 /// </summary>

@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Tests.Forecast;
 
 /// <summary>
 /// <see cref="ForecastTrigger.Evaluate"/> (docs/forecasts.md). Change-group meanings: WMO-No. 306 FM 51 / FM 15 (from
-/// memory, DOMAIN.md "Forecasts"). The deterioration values (1000 m, 300 ft), the horizon and every forecast are invented
+/// memory, docs/sources.md "Forecasts"). The deterioration values (1000 m, 300 ft), the horizon and every forecast are invented
 /// and illustrative; dates are invented (1 March 2026).
 /// </summary>
 public sealed class ForecastTriggerTests

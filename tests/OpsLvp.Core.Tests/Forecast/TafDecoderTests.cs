@@ -7,7 +7,7 @@ namespace OpsLvp.Core.Tests.Forecast;
 
 /// <summary>
 /// One example per TAF group form. Forms and their meaning: WMO-No. 306 Manual on Codes, code form FM 51 TAF, as
-/// summarised in DOMAIN.md "Forecasts" (details from memory there). Stations (X…) and all values are invented.
+/// summarised in docs/sources.md "Forecasts" (details from memory there). Stations (X…) and all values are invented.
 /// </summary>
 public sealed class TafDecoderTests
 {

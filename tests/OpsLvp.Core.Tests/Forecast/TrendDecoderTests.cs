@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Tests.Forecast;
 
 /// <summary>
 /// TREND forms of a METAR/SPECI: WMO-No. 306 FM 15 section 4 (NOSIG, BECMG, TEMPO with FM/TL/AT times), as summarised
-/// in DOMAIN.md "Forecasts" (from memory there). Reports and values are invented.
+/// in docs/sources.md "Forecasts" (from memory there). Reports and values are invented.
 /// </summary>
 public sealed class TrendDecoderTests
 {

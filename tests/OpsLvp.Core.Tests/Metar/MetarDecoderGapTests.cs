@@ -5,7 +5,7 @@ using OpsLvp.Core.Units;
 namespace OpsLvp.Core.Tests.Metar;
 
 /// <summary>
-/// Issue 11 §5: statute-mile visibility, RVRNO, VV///, //////CB, unreadable groups. Forms from DOMAIN.md "METAR/SPECI
+/// Issue 11 §5: statute-mile visibility, RVRNO, VV///, //////CB, unreadable groups. Forms from docs/sources.md "METAR/SPECI
 /// groups" (statute miles and RVRNO: FAA FMH-1 — from memory; 1 statute mile = 1609.344 m exactly, the international
 /// mile). Station XDMO and all values are invented.
 /// </summary>

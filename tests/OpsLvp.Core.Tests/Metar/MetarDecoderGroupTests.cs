@@ -6,7 +6,7 @@ namespace OpsLvp.Core.Tests.Metar;
 
 /// <summary>
 /// One example per group form. Group forms and their meaning: WMO-No. 306 Manual on Codes, code form FM 15 METAR /
-/// FM 16 SPECI, as summarised in DOMAIN.md "METAR/SPECI groups". Station XDMO and all values are invented.
+/// FM 16 SPECI, as summarised in docs/sources.md "METAR/SPECI groups". Station XDMO and all values are invented.
 /// </summary>
 public sealed class MetarDecoderGroupTests
 {
@@ -78,7 +78,7 @@ public sealed class MetarDecoderGroupTests
         Assert.Equal("26L", Assert.Single(r.Rvr).Runway);
     }
 
-    // --- visibility VVVV [VnVnVnVnDv]: WMO-No. 306 FM 15; 9999 = 10 km or more (DOMAIN "Visibility")
+    // --- visibility VVVV [VnVnVnVnDv]: WMO-No. 306 FM 15; 9999 = 10 km or more (docs/sources.md "Visibility")
 
     [Fact]
     public void Visibility_FourDigits_IsMetres()
@@ -133,7 +133,7 @@ public sealed class MetarDecoderGroupTests
         Assert.Null(r.Ceiling);
     }
 
-    // --- RVR Rdd[L|C|R]/[M|P]VRVRVRVR[VVRVRVRVR][i]: WMO-No. 306 FM 15; ICAO Annex 3 App 3 §4.3.6 (DOMAIN)
+    // --- RVR Rdd[L|C|R]/[M|P]VRVRVRVR[VVRVRVRVR][i]: WMO-No. 306 FM 15; ICAO Annex 3 App 3 §4.3.6 (docs/sources.md)
 
     [Fact]
     public void Rvr_SteadyWithTendency_R26L0550N()
@@ -400,7 +400,7 @@ public sealed class MetarDecoderGroupTests
     [Fact]
     public void Ceiling_WithoutVerticalVisibility_WhenLocalPracticeSaysSo()
     {
-        // DOMAIN: counting vertical visibility as ceiling is local practice (profile option).
+        // docs/sources.md: counting vertical visibility as ceiling is local practice (profile option).
         Assert.Null(Body("0100 FG VV001").FindCeiling(countVerticalVisibility: false));
     }
 

@@ -70,7 +70,7 @@ public sealed class MetarReadingsTests
         Assert.DoesNotContain(r.ToReadings(s_at, clear), x => x.Kind == ReadingKind.CloudBase);
     }
 
-    // --- docs/engine.md R22: RVR is reported when visibility or RVR is below 1500 m (from memory, DOMAIN.md "Runway
+    // --- docs/engine.md R22: RVR is reported when visibility or RVR is below 1500 m (from memory, docs/sources.md "Runway
     // visual range"), so a report with visibility of 1500 m or more and no RVR group says "RVR 1500 m or more".
 
     [Fact]

@@ -5,12 +5,12 @@ namespace OpsLvp.Core.Tests.Optics;
 
 public sealed class AllardLawTests
 {
-    private static readonly Candela _highIntensityEdge = new(10_000); // DOMAIN Optics worked values use I = 10 000 cd
+    private static readonly Candela _highIntensityEdge = new(10_000); // docs/sources.md Optics worked values use I = 10 000 cd
 
     private static ExtinctionCoefficient SigmaForMor(double metres) => MeteorologicalOpticalRange.ToExtinction(new Metres(metres));
 
     [Theory]
-    // Worked check values computed from the formulas above (DOMAIN Optics), I = 10 000 cd;
+    // Worked check values computed from the formulas above (docs/sources.md Optics), I = 10 000 cd;
     // E_T bands — ICAO Annex 3, Attachment D (from memory)
     [InlineData(300, 8e-7, 954)] // MOR 300 m, night → ≈ 954 m
     [InlineData(300, 1e-4, 573)] // MOR 300 m, normal day → ≈ 573 m
@@ -25,7 +25,7 @@ public sealed class AllardLawTests
     [Fact]
     public void LightsRange_MorThousandAtNight_IsAboveTwoThousand()
     {
-        // MOR 1000 m at night → above 2000 m: computed from the formulas above (DOMAIN Optics)
+        // MOR 1000 m at night → above 2000 m: computed from the formulas above (docs/sources.md Optics)
         var range = AllardLaw.LightsRange(_highIntensityEdge, SigmaForMor(1000), IlluminanceThreshold.Night);
 
         Assert.True(range.Value > 2000, $"lights range {range.Value} m");

@@ -26,7 +26,7 @@ public sealed class IlluminanceThresholdTests
     }
 
     [Theory]
-    // log10 E_T = 0.05(log10 B)² + 0.573·log10 B − 6.667 — recalled for ICAO Doc 9328, unconfirmed (DOMAIN Optics)
+    // log10 E_T = 0.05(log10 B)² + 0.573·log10 B − 6.667 — recalled for ICAO Doc 9328, unconfirmed (docs/sources.md Optics)
     [InlineData(1.0, -6.667)]
     [InlineData(1000.0, -4.498)] // 0.05·9 + 0.573·3 − 6.667
     [InlineData(10_000.0, -3.575)] // 0.05·16 + 0.573·4 − 6.667

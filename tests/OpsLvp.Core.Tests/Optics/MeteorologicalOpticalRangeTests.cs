@@ -27,7 +27,7 @@ public sealed class MeteorologicalOpticalRangeTests
     [Fact]
     public void Mor_FromTransmittance_75mBaseline070_IsAbout630m()
     {
-        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (DOMAIN Optics); MOR = b·ln 0.05/ln T (WMO-No. 8)
+        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (docs/sources.md Optics); MOR = b·ln 0.05/ln T (WMO-No. 8)
         var mor = MeteorologicalOpticalRange.FromTransmittance(0.70, new Metres(75));
 
         Assert.Equal(630, mor.Value, 0.5);

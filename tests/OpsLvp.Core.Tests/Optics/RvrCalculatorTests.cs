@@ -6,10 +6,10 @@ namespace OpsLvp.Core.Tests.Optics;
 
 public sealed class RvrCalculatorTests
 {
-    private static readonly Candela _intensity = new(10_000); // DOMAIN Optics worked values use I = 10 000 cd
+    private static readonly Candela _intensity = new(10_000); // docs/sources.md Optics worked values use I = 10 000 cd
 
     [Theory]
-    // Worked check values computed from the formulas above (DOMAIN Optics), I = 10 000 cd;
+    // Worked check values computed from the formulas above (docs/sources.md Optics), I = 10 000 cd;
     // bands — ICAO Annex 3, Attachment D (from memory); reporting — ICAO Annex 3, App 3, §4.3.6 (from memory)
     [InlineData(300, 1.0, 954, "0900")] // MOR 300 m, night
     [InlineData(300, 5000.0, 573, "0550")] // MOR 300 m, normal day
@@ -33,7 +33,7 @@ public sealed class RvrCalculatorTests
     [Fact]
     public void Calculate_MorThousandAtNight_ReportsP2000()
     {
-        // MOR 1000 m at night → above 2000 m (P2000): computed from the formulas above (DOMAIN Optics)
+        // MOR 1000 m at night → above 2000 m (P2000): computed from the formulas above (docs/sources.md Optics)
         var result = RvrCalculator.Calculate(new RvrInputs { Mor = new Metres(1000), LightIntensity = _intensity, Period = LuminanceBand.Night });
 
         Assert.Equal(RvrQualifier.Above, result.Report.Qualifier);
@@ -43,7 +43,7 @@ public sealed class RvrCalculatorTests
     [Fact]
     public void Calculate_FromTransmissometer_GivesMorAbout630()
     {
-        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (DOMAIN Optics)
+        // b = 75 m, T = 0.70 → MOR ≈ 630 m: computed from the formulas above (docs/sources.md Optics)
         var result = RvrCalculator.Calculate(new RvrInputs
         {
             Transmittance = 0.70,
@@ -64,7 +64,7 @@ public sealed class RvrCalculatorTests
         var fromSigma = RvrCalculator.Calculate(new RvrInputs { Extinction = sigma, LightIntensity = _intensity, Period = LuminanceBand.Night });
 
         Assert.Equal(300, fromSigma.Mor.Value, 1e-6);
-        Assert.Equal(954, fromSigma.LightsRange.Value, 0.5); // DOMAIN Optics worked value (computed from the formulas)
+        Assert.Equal(954, fromSigma.LightsRange.Value, 0.5); // docs/sources.md Optics worked value (computed from the formulas)
     }
 
     [Fact]

@@ -42,7 +42,7 @@ public sealed class RvrDerivationTests
         Assert.Equal(ReadingKind.Rvr, derived.Kind);
         Assert.Equal("fs1", derived.SensorId);
         Assert.Equal(T0.AddSeconds(10), derived.Time);
-        // σ = 10/km → MOR ≈ 300 m; with I = 10 000 cd at night the lights range ≈ 954 m (DOMAIN.md worked check,
+        // σ = 10/km → MOR ≈ 300 m; with I = 10 000 cd at night the lights range ≈ 954 m (docs/sources.md worked check,
         // Annex 3 Att. D — from memory), reported rounded down on the 100 m step above 800 m: 900 m (ICAO Annex 3, App 3, §4.3.6)
         Assert.Equal(900, derived.Value);
         Assert.Equal(Expected(10, 1.5), derived.Value);
@@ -51,7 +51,7 @@ public sealed class RvrDerivationTests
     [Fact]
     public void NoFreshLuminance_UsesTheBrightDayThreshold_AndFlagsTheValueLuminanceUnknown()
     {
-        // docs/engine.md R19. DOMAIN.md check (Allard's law, Annex 3 Att. D bands — from memory): forward-scatter MOR
+        // docs/engine.md R19. docs/sources.md check (Allard's law, Annex 3 Att. D bands — from memory): forward-scatter MOR
         // 300 m, 10 000 cd, luminance 20 000 cd/m² (bright day, 10⁻³ lx) gives report 0400; the normal-day band
         // (10⁻⁴ lx) the old fallback used gave 0550.
         var sigmaPerKm = -Math.Log(0.05) / 0.300;
@@ -69,7 +69,7 @@ public sealed class RvrDerivationTests
         var profile = Profile() with { Lights = Profile().Lights with { ContinuousThreshold = true } };
         var sigmaPerKm = -Math.Log(0.05) / 0.300;
         var derived = Assert.Single(new RvrDerivation(profile).Observe(new Reading(T0, "fs1", ReadingKind.Extinction, sigmaPerKm)));
-        // same DOMAIN.md check as above: 0400
+        // same docs/sources.md check as above: 0400
         Assert.Equal(400, derived.Value);
         Assert.Equal(ReadingFlags.LuminanceUnknown, derived.Flags);
     }
@@ -131,7 +131,7 @@ public sealed class RvrDerivationTests
         d.Observe(new Reading(T0, "agl", ReadingKind.LightStep, 0));
         var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(5), "fs1", ReadingKind.Extinction, sigmaPerKm)));
         // MOR 300 m reported on the 25 m scale below 400 m: 0300 (ICAO Annex 3, App 3, §4.3.6 — from memory); with the
-        // lights at step 5 (10 000 cd) at night the same air gives 0900 (DOMAIN.md worked check)
+        // lights at step 5 (10 000 cd) at night the same air gives 0900 (docs/sources.md worked check)
         Assert.Equal(300, derived.Value);
         Assert.Equal(ReadingFlags.None, derived.Flags);
         Assert.Equal(900, ExpectedAt(sigmaPerKm, 1.5, 10_000));

@@ -201,10 +201,10 @@ public sealed class DemoSeedTests
         Assert.Equal("XDMO", profile.Aerodrome.Id);
     }
 
-    /// <summary>max(Allard lights range, Koschmieder 2.996/σ) for σ per metre (DOMAIN.md "Optics").</summary>
+    /// <summary>max(Allard lights range, Koschmieder 2.996/σ) for σ per metre (docs/sources.md "Optics").</summary>
     private static double NightRvr(double sigmaPerM, double intensityCd)
     {
-        const double NightThresholdLux = 8e-7; // ICAO Annex 3 Attachment D, night band (from memory, DOMAIN.md)
+        const double NightThresholdLux = 8e-7; // ICAO Annex 3 Attachment D, night band (from memory, docs/sources.md)
         double lo = 1, hi = 200_000;
         for (var i = 0; i < 80; i++)
         {
@@ -224,7 +224,7 @@ public sealed class DemoSeedTests
     [Fact]
     public void DemoReadings_RawValuesGiveTheNightRvrThroughTheOptics()
     {
-        // DOMAIN.md worked check: MOR 300 m, I = 10 000 cd, night → lights range ≈ 954 m.
+        // docs/sources.md worked check: MOR 300 m, I = 10 000 cd, night → lights range ≈ 954 m.
         Assert.Equal(954, NightRvr(2.996 / 300, 10_000), 0);
         var profile = Demo();
         var intensity = profile.Lights.IntensityCdByStep[profile.Lights.StepInUse];

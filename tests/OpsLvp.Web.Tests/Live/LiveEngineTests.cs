@@ -62,7 +62,7 @@ public sealed class LiveEngineTests
         try
         {
             await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(LiveTestProfile.Write(folder)), folder);
-            // σ = 20/km: MOR ≈ 150 m, well under 550 m whatever the lights add (Koschmieder/Allard, DOMAIN.md)
+            // σ = 20/km: MOR ≈ 150 m, well under 550 m whatever the lights add (Koschmieder/Allard, docs/sources.md)
             await LiveClient.PushAsync(app, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Mid, "extinction", 20));
             var state = await LiveClient.WaitForPhaseAsync(app, "active");
             var rvr = state.GetProperty("status").GetProperty("governingRvr");

@@ -90,7 +90,7 @@ public sealed class MetarFeedTests
     [Fact]
     public void ToBatch_VisibilityAtLeast1500WithoutRvrGroup_GivesRvr1500OrMore()
     {
-        // docs/engine.md R22; RVR reported when visibility or RVR below 1500 m (from memory, DOMAIN.md)
+        // docs/engine.md R22; RVR reported when visibility or RVR below 1500 m (from memory, docs/sources.md)
         var now = new DateTimeOffset(2026, 1, 15, 4, 10, 0, TimeSpan.Zero);
         var feed = new MetarFeedOptions { Name = "unit", RvrSensorByRunway = new Dictionary<string, string> { ["09"] = "r09" } };
         var batch = MetarFeedPoller.ToBatch("METAR XTST 150400Z 00000KT 6000 BR SCT010 03/03 Q1021=\n", feed, now);

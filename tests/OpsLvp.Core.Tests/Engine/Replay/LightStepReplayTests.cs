@@ -8,7 +8,7 @@ namespace OpsLvp.Core.Tests.Engine.Replay;
 /// <summary>
 /// docs/engine.md R20 through the replay (the same <c>RvrDerivation</c> the live host uses): a lighting sensor's
 /// <c>light_step</c> decides the intensity of the derived RVR. Profile, sensors and readings invented; forward-scatter
-/// MOR 300 m at night with 10 000 cd gives 0900, with the lights off 0300 (DOMAIN.md "Optics" worked check; step 0 =
+/// MOR 300 m at night with 10 000 cd gives 0900, with the lights off 0300 (docs/sources.md "Optics" worked check; step 0 =
 /// object range alone, ICAO Annex 3 App 3 §4.3.5 — from memory).
 /// </summary>
 public sealed class LightStepReplayTests

@@ -194,7 +194,7 @@ public sealed class DutyConsoleTests : LiveComponentTest
     [InlineData(Phase.Preparation, false, "PREPARATION")]
     public void Phase_SaysInForceOnlyWhenSafeguardsAreComplete(Phase phase, bool complete, string expected)
     {
-        // DOMAIN.md LVP phases: in force only once safeguarding is complete (EUR Doc 013, from memory)
+        // docs/sources.md LVP phases: in force only once safeguarding is complete (EUR Doc 013, from memory)
         SignIn(Dm, Roles.DutyManager);
         Live.Set(TestSnapshots.Make(1, phase: phase, safeguardsComplete: complete));
         var cut = RenderConsole();
