@@ -26,6 +26,20 @@ builder.Services.AddAccess(builder.Configuration);
 
 var app = builder.Build();
 
+// Before any hosted service opens the database (data protection loads its key ring from it at start, and every
+// read-write connection switches the journal to WAL), so the journal-mode check sees the file as it was left and
+// the engine host can put a switch on record (docs/reliability.md "Storage faults"). A failure here is reported by
+// the start-up services, which migrate through the same call again.
+try
+{
+    await OpsLvp.Data.DatabaseStartup.MigrateAndCheckAsync(
+        app.Services.GetRequiredService<Microsoft.EntityFrameworkCore.IDbContextFactory<OpsLvp.Data.OpsLvpDbContext>>());
+}
+catch (Exception ex)
+{
+    app.Logger.LogWarning(ex, "Database check before start failed; the start-up services will retry and report it");
+}
+
 // First, so static assets, error pages and re-executed status pages carry the headers too (docs/access.md).
 app.UseSecurityHeaders();
 if (!app.Environment.IsDevelopment())
