@@ -1,6 +1,7 @@
 using MudBlazor.Services;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Components;
+using OpsLvp.Web.Components.Shell;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
@@ -23,6 +24,7 @@ builder.Services.AddFeeds(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddReview();
 builder.Services.AddAccess(builder.Configuration);
+builder.Services.AddScreens(builder.Configuration);
 
 var app = builder.Build();
 

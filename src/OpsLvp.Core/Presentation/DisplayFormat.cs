@@ -10,7 +10,7 @@ namespace OpsLvp.Core.Presentation;
 public static class DisplayFormat
 {
     /// <summary>
-    /// A duration: "45 s", "4 min 20 s", "1 h 05 min", "2 d 3 h"; whole units, rounded down; negative spans read
+    /// A duration: "45 s", "4 min 20 s" ("4 min" on the minute), "1 h 05 min", "2 d 3 h"; whole units, rounded down; negative spans read
     /// as "0 s" (an age or a time-in-phase is never negative; a clock a hair behind the reading must not say "-1 s").
     /// </summary>
     public static string Duration(TimeSpan span)
@@ -23,6 +23,7 @@ public static class DisplayFormat
         return total switch
         {
             < 60 => Inv($"{total} s"),
+            < 3600 when total % 60 == 0 => Inv($"{total / 60} min"),
             < 3600 => Inv($"{total / 60} min {total % 60} s"),
             < 86_400 => Inv($"{total / 3600} h {total % 3600 / 60:00} min"),
             _ => Inv($"{total / 86_400} d {total % 86_400 / 3600} h"),

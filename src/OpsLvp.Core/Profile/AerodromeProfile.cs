@@ -34,6 +34,12 @@ public sealed record AerodromeProfile
     /// <summary>Allowed clock skew for readings timed in the future, seconds (DESIGN R1).</summary>
     public int FutureSkewSeconds { get; init; } = 5;
 
+    /// <summary>
+    /// Minutes without a touch or key after which a shared tablet's actions page signs its person out, so the next
+    /// person never ticks under the previous one's name (issue 13). 1 to 240; default 10.
+    /// </summary>
+    public int TabletIdleSignOutMinutes { get; init; } = 10;
+
     public required ThresholdSet Thresholds { get; init; }
 
     /// <summary>Transitions that need a duty manager's confirmation (DESIGN R10); the rest are automatic.</summary>

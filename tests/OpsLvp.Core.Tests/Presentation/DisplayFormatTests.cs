@@ -7,7 +7,7 @@ public sealed class DisplayFormatTests
     [Theory]
     [InlineData(0, "0 s")]
     [InlineData(45.9, "45 s")]
-    [InlineData(60, "1 min 0 s")]
+    [InlineData(60, "1 min")]
     [InlineData(260, "4 min 20 s")]
     [InlineData(3599, "59 min 59 s")]
     [InlineData(3600 + 5 * 60 + 30, "1 h 05 min")]

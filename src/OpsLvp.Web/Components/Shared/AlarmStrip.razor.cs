@@ -2,6 +2,7 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Live;
 
@@ -18,6 +19,7 @@ public partial class AlarmStrip
     private ILiveState? _live;
     private ILvpCommandService? _commands;
     private IReadOnlyList<Alarm> _alarms = [];
+    private PendingTransition? _pending;
     private IDisposable? _subscription;
     private CommandCaller _caller = CommandCaller.Anonymous;
 
@@ -58,6 +60,7 @@ public partial class AlarmStrip
             _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
         }
         _alarms = AlarmLabels.Ordered(_live?.Current?.Status.Alarms);
+        _pending = _live?.Current?.Status.Pending;
     }
 
     protected override void OnAfterRender(bool firstRender)
@@ -83,7 +86,18 @@ public partial class AlarmStrip
         StateHasChanged();
     });
 
-    private void Show(LiveSnapshot snapshot) => _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
+    private void Show(LiveSnapshot snapshot)
+    {
+        _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
+        _pending = snapshot.Status.Pending;
+    }
+
+    private string Message(Alarm alarm) => AlarmWords.Message(alarm, _pending);
+
+    /// <summary>"3 alarms · 2 unacknowledged": the strip's count line, so a flood reads at a glance.</summary>
+    internal string CountText => _alarms.Count == 1
+        ? (UnacknowledgedCount == 1 ? "1 alarm · unacknowledged" : "1 alarm · acknowledged")
+        : $"{_alarms.Count} alarms · {UnacknowledgedCount} unacknowledged";
 
     private async Task AcknowledgeAsync(Alarm alarm)
     {

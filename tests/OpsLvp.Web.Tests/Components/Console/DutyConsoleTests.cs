@@ -37,8 +37,9 @@ public sealed class DutyConsoleTests : LiveComponentTest
     {
         SignIn(Dm, Roles.DutyManager);
         Live.Set(TestSnapshots.Make(1, pending: Pending, at: TestSnapshots.T0.AddMinutes(5)));
+        Clock.SetUtcNow(TestSnapshots.T0.AddMinutes(5));
         var cut = RenderConsole();
-        Assert.Contains("preparation → active: RVR 07 TDZ 500 m < 550 m", cut.Find("[data-testid=console-pending-text]").TextContent);
+        Assert.Contains("LVP preparation to LVP in force: RVR 07 TDZ 500 m < 550 m", cut.Find("[data-testid=console-pending-text]").TextContent);
         Assert.Equal("proposed 03:01:40Z, pending for 3 min 20 s", cut.Find("[data-testid=console-pending-age]").TextContent.Trim());
     }
 
@@ -190,8 +191,8 @@ public sealed class DutyConsoleTests : LiveComponentTest
 
     [Theory]
     [InlineData(Phase.Active, true, "LVP IN FORCE")]
-    [InlineData(Phase.Active, false, "ACTIVE — SAFEGUARDS INCOMPLETE")]
-    [InlineData(Phase.Preparation, false, "PREPARATION")]
+    [InlineData(Phase.Active, false, "LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE")]
+    [InlineData(Phase.Preparation, false, "LVP PREPARATION")]
     public void Phase_SaysInForceOnlyWhenSafeguardsAreComplete(Phase phase, bool complete, string expected)
     {
         // DOMAIN.md LVP phases: in force only once safeguarding is complete (EUR Doc 013, from memory)

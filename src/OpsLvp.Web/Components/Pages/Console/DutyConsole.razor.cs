@@ -3,6 +3,7 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
@@ -30,6 +31,12 @@ public partial class DutyConsole : LiveComponentBase
     [Inject]
     private ISnackbar Snackbar { get; set; } = default!;
 
+    /// <summary>The server's clock: ages and times-in-phase count from it, never from the engine's last evaluation.</summary>
+    [Inject]
+    private TimeProvider Clock { get; set; } = default!;
+
+    private DateTimeOffset Now => Clock.GetUtcNow();
+
     [CascadingParameter]
     private Task<AuthenticationState>? AuthenticationState { get; set; }
 
@@ -49,14 +56,11 @@ public partial class DutyConsole : LiveComponentBase
         _progress = TeamProgress.For(snapshot.Items);
     }
 
-    internal static string PhaseText(EngineStatus status) => status.Phase switch
-    {
-        Phase.Active when status.SafeguardsComplete => "LVP IN FORCE",
-        Phase.Active => "ACTIVE — SAFEGUARDS INCOMPLETE",
-        Phase.Preparation => "PREPARATION",
-        Phase.Cancellation => "CANCELLATION",
-        _ => "NORMAL",
-    };
+    /// <summary>The state's name from the one vocabulary, in capitals as on the wall.</summary>
+    internal static string PhaseText(EngineStatus status) => LvpVocabulary.For(status).Headline;
+
+    /// <summary>The chip's CSS class from the state's tone (the palette shared with the tablet).</summary>
+    internal static string PhaseClass(EngineStatus status) => "phase-" + LvpVocabulary.For(status).Tone.ToString().ToLowerInvariant();
 
     internal static string SafeguardsText(EngineStatus status) => status switch
     {
@@ -90,7 +94,7 @@ public partial class DutyConsole : LiveComponentBase
         {
             return Task.CompletedTask;
         }
-        var what = $"{Name(p.From)} → {Name(p.To)}";
+        var what = LvpVocabulary.Change(p.From, p.To);
         return AskAndRunAsync($"Confirm {what}", $"Confirm the pending transition {what} ({p.Reason}).", $"Confirm {Name(p.To)}", Color.Warning,
             reason => new ConfirmPending(_caller.Name, reason));
     }
@@ -154,5 +158,5 @@ public partial class DutyConsole : LiveComponentBase
         });
     }
 
-    private static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+    private static string Name(Phase phase) => LvpVocabulary.For(phase).Name;
 }
