@@ -26,13 +26,14 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
 
         // Well above every threshold of the test profile: normal.
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 1500), (Mid, "rvr", 1500), (End, "rvr", 1500), (Ceilometer, "cloud_base", 1000));
-        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL", new() { Timeout = 10_000 });
+        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
         await page.EvaluateAsync("() => { window.__opslvpSamePage = true; }");
 
-        // 400 m < active.rvrBelowM 550 m with an enter dwell of 0 s (invented test profile): straight to active.
+        // 400 m < active.rvrBelowM 550 m with an enter dwell of 0 s (invented test profile): straight to active, whose
+        // mandatory preparation items are still open, so not yet "LVP in force".
         var clock = Stopwatch.StartNew();
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 1000));
-        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 2_000 });
+        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE", new() { Timeout = 2_000 });
         output.WriteLine($"phase change on the wall {clock.ElapsedMilliseconds} ms after the POST was answered");
 
         Assert.True(await page.EvaluateAsync<bool>("() => window.__opslvpSamePage === true"), "the page was reloaded");
@@ -69,7 +70,7 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
         var page = await browser.NewWallPageAsync();
         await OpenLiveWallAsync(page, server);
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 180));
-        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
+        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE", new() { Timeout = 10_000 });
         await Expect(page.Locator("[data-testid=wall-item]").First).ToBeVisibleAsync();
 
         var path = Artifacts.PathFor("wall.png");

@@ -31,6 +31,9 @@ public partial class TabletActions : LiveComponentBase
         }
     }
 
+    /// <summary>The profile's idle time in seconds (10 min until the first snapshot names it).</summary>
+    private int IdleSeconds => (_snapshot?.Aerodrome.TabletIdleSignOutMinutes ?? 10) * 60;
+
     protected override async Task OnInitializedAsync()
     {
         if (AuthenticationState is not null)
