@@ -16,6 +16,10 @@ if (HealthCheckMode.Requested(args))
 
 var builder = WebApplication.CreateBuilder(args);
 
+// SQL statements at Warning in every environment, whatever appsettings a folder happens to provide: a night's log
+// tells the night, not the queries (a more specific Logging:LogLevel category can still ask for them).
+builder.Logging.AddFilter("Microsoft.EntityFrameworkCore", LogLevel.Warning);
+
 builder.Services.AddRazorComponents().AddInteractiveServerComponents();
 builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);

@@ -15,7 +15,7 @@ public static class LvpVocabulary
         new(LvpState.Normal, "Normal operations", "NORMAL OPERATIONS", "no low-visibility measures in place", "○", PhaseTone.Normal, "normal"),
         new(LvpState.Preparation, "LVP preparation", "LVP PREPARATION", "safeguarding the airfield while conditions deteriorate", "△", PhaseTone.Preparation, "preparation"),
         new(LvpState.ConditionsMetSafeguardsIncomplete, "LVP conditions met — safeguards incomplete", "LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE",
-            "conditions call for LVP; mandatory preparation safeguards are still open", "◭", PhaseTone.Warning, "active"),
+            "conditions call for LVP; mandatory safeguards still open", "◭", PhaseTone.Warning, "active"),
         new(LvpState.InForce, "LVP in force", "LVP IN FORCE", "low-visibility procedures in force", "■", PhaseTone.Active, "active"),
         new(LvpState.Cancellation, "Cancelling LVP", "CANCELLING LVP", "LVP cancelled, protective measures being withdrawn", "▽", PhaseTone.Cancellation, "cancellation"),
     ];
