@@ -201,4 +201,15 @@ public sealed class DutyConsoleTests : LiveComponentTest
         var cut = RenderConsole();
         Assert.Equal(expected, cut.Find("[data-testid=console-phase]").TextContent.Trim());
     }
+
+    [Fact]
+    public void OutstandingSafeguards_AreListedByTheirItemTexts_NotTheirIds()
+    {
+        SignIn(Dm, Roles.DutyManager);
+        var snapshot = TestSnapshots.Make(1, phase: Phase.Active, items: [TestSnapshots.Item("P1", "airside")]);
+        Live.Set(snapshot with { Status = snapshot.Status with { SafeguardsOutstanding = ["P1"] } });
+        var cut = RenderConsole();
+
+        Assert.Equal("safeguards incomplete, outstanding: Item P1 (invented)", cut.Find("[data-testid=console-safeguards]").TextContent.Trim());
+    }
 }

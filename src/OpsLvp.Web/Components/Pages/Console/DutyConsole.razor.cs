@@ -62,13 +62,26 @@ public partial class DutyConsole : LiveComponentBase
     /// <summary>The chip's CSS class from the state's tone (the palette shared with the tablet).</summary>
     internal static string PhaseClass(EngineStatus status) => "phase-" + LvpVocabulary.For(status).Tone.ToString().ToLowerInvariant();
 
-    internal static string SafeguardsText(EngineStatus status) => status switch
+    /// <summary>The safeguards line, naming outstanding items by their texts (ids only for items the snapshot does not list).</summary>
+    internal static string SafeguardsText(LiveSnapshot snapshot)
     {
-        { Episode: null } => "safeguards: not applicable (normal)",
-        { SafeguardsComplete: true } => "safeguards complete",
-        { SafeguardsOutstanding.Count: 0 } => "safeguards incomplete",
-        _ => $"safeguards incomplete: {string.Join(", ", status.SafeguardsOutstanding)} outstanding",
-    };
+        var status = snapshot.Status;
+        if (status.Episode is null)
+        {
+            return "safeguards: not applicable (normal operations)";
+        }
+        if (status.SafeguardsComplete)
+        {
+            return "safeguards complete";
+        }
+        if (status.SafeguardsOutstanding.Count == 0)
+        {
+            return "safeguards incomplete";
+        }
+        var texts = status.SafeguardsOutstanding
+            .Select(id => snapshot.Items.LastOrDefault(i => i.ItemId == id)?.Text ?? id);
+        return $"safeguards incomplete, outstanding: {string.Join("; ", texts)}";
+    }
 
     private static string PositionText(PositionRvr p) => p switch
     {
