@@ -84,7 +84,7 @@ public sealed class PeopleBrowserTests(ITestOutputHelper output)
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 1000));
         var confirm = console.Locator("[data-testid=console-confirm]");
         await Expect(confirm).ToBeVisibleAsync(new() { Timeout = 10_000 });
-        await Expect(console.Locator("[data-testid=console-pending-text]")).ToContainTextAsync("active", new() { IgnoreCase = true });
+        await Expect(console.Locator("[data-testid=console-pending-text]")).ToContainTextAsync("LVP in force", new() { IgnoreCase = true });
         await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP PREPARATION");
         await SaveAsync(console, "console-pending.png");
 
