@@ -44,6 +44,31 @@ export function setMuted(screen, muted) {
     }
 }
 
+// Whether the browser really lets this page play sound now (an untouched kiosk usually may not).
+export function soundAllowed() {
+    const ctx = audio();
+    return ctx !== null && ctx.state === "running";
+}
+
+// Tells the component (a DotNetObjectReference with SoundStateChanged(bool)) whenever sound becomes allowed or
+// blocked; any tap or key on the page asks the browser to allow it.
+export function watchSound(component) {
+    const ctx = audio();
+    if (ctx === null) {
+        return false;
+    }
+    const report = () => component.invokeMethodAsync("SoundStateChanged", ctx.state === "running").catch(() => { });
+    ctx.addEventListener("statechange", report);
+    const gesture = () => {
+        if (ctx.state !== "running") {
+            ctx.resume().then(report).catch(() => { });
+        }
+    };
+    document.addEventListener("pointerdown", gesture, { capture: true });
+    document.addEventListener("keydown", gesture, { capture: true });
+    return ctx.state === "running";
+}
+
 // Three two-tone pulses, about 1.2 s in all.
 export function chime() {
     const ctx = audio();

@@ -1,6 +1,7 @@
 using MudBlazor.Services;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Components;
+using OpsLvp.Web.Components.Shell;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
@@ -15,6 +16,10 @@ if (HealthCheckMode.Requested(args))
 
 var builder = WebApplication.CreateBuilder(args);
 
+// SQL statements at Warning in every environment, whatever appsettings a folder happens to provide: a night's log
+// tells the night, not the queries (a more specific Logging:LogLevel category can still ask for them).
+builder.Logging.AddFilter("Microsoft.EntityFrameworkCore", LogLevel.Warning);
+
 builder.Services.AddRazorComponents().AddInteractiveServerComponents();
 builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
@@ -23,6 +28,7 @@ builder.Services.AddFeeds(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddReview();
 builder.Services.AddAccess(builder.Configuration);
+builder.Services.AddScreens(builder.Configuration);
 
 var app = builder.Build();
 

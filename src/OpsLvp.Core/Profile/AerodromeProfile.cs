@@ -35,6 +35,12 @@ public sealed record AerodromeProfile
     /// <summary>Allowed clock skew for readings timed in the future, seconds (docs/engine.md R1).</summary>
     public int FutureSkewSeconds { get; init; } = 5;
 
+    /// <summary>
+    /// Minutes without a touch or key after which a shared tablet's actions page signs its person out, so the next
+    /// person never ticks under the previous one's name (issue 13). 1 to 240; default 10.
+    /// </summary>
+    public int TabletIdleSignOutMinutes { get; init; } = 10;
+
     public required ThresholdSet Thresholds { get; init; }
 
     /// <summary>

@@ -47,6 +47,10 @@ public static class ProfileValidator
         {
             check.Add("futureSkewSeconds", $"is {profile.FutureSkewSeconds}; expected 0 or more seconds");
         }
+        if (profile.TabletIdleSignOutMinutes is < 1 or > 240)
+        {
+            check.Add("tabletIdleSignOutMinutes", $"is {profile.TabletIdleSignOutMinutes}; expected 1 to 240 minutes");
+        }
         CheckThresholds(check, profile.Thresholds, profile, runways);
         CheckConfirm(check, profile.Confirm);
         CheckChecklists(check, profile.Checklists, teams);

@@ -57,7 +57,7 @@ public static class SnapshotBuilder
         return new LiveSnapshot(
             version,
             now,
-            new AerodromeView(info.Id, info.Name, info.TimeZone, profile.Version, info.Illustrative),
+            new AerodromeView(info.Id, info.Name, info.TimeZone, profile.Version, info.Illustrative) { TabletIdleSignOutMinutes = profile.TabletIdleSignOutMinutes },
             status,
             items,
             state.OutOfService.Order(StringComparer.Ordinal).ToList(),

@@ -20,10 +20,13 @@ public static class TestProfile
     /// <summary>
     /// The test profile with preparation→active needing the duty manager's confirmation (<paramref name="confirmActive"/>),
     /// other recovery dwells (<paramref name="recoverDwellSeconds"/>) and, when <paramref name="cancellationItem"/> is
-    /// false, no cancellation checklist (so an episode can run back to normal by readings alone).
+    /// false, no cancellation checklist (so an episode can run back to normal by readings alone); with
+    /// <paramref name="inForceNeedsSafeguards"/> LVP are in force only once the mandatory preparation items are done
+    /// (docs/engine.md R13, the profile default).
     /// </summary>
-    public static string Variant(bool confirmActive = false, int recoverDwellSeconds = 60, bool cancellationItem = true) =>
+    public static string Variant(bool confirmActive = false, int recoverDwellSeconds = 60, bool cancellationItem = true, bool inForceNeedsSafeguards = false) =>
         Template
+            .Replace("\"inForceNeedsSafeguards\": false", $"\"inForceNeedsSafeguards\": {(inForceNeedsSafeguards ? "true" : "false")}", StringComparison.Ordinal)
             .Replace("\"confirm\": []", confirmActive ? "\"confirm\": [ { \"from\": \"preparation\", \"to\": \"active\" }, { \"from\": \"normal\", \"to\": \"active\" } ]" : "\"confirm\": []", StringComparison.Ordinal)
             .Replace("\"recoverDwellSeconds\": 60", $"\"recoverDwellSeconds\": {recoverDwellSeconds}", StringComparison.Ordinal)
             .Replace(CancellationItem, cancellationItem ? CancellationItem : "", StringComparison.Ordinal);

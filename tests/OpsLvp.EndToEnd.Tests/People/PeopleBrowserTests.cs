@@ -33,7 +33,7 @@ public sealed class PeopleBrowserTests(ITestOutputHelper output)
 
         // 900 m < preparation.rvrBelowM 1000 m, above active 550 m (invented test profile): preparation at once.
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 900), (Mid, "rvr", 950), (End, "rvr", 980), (Ceilometer, "cloud_base", 1000));
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("PREPARING LVP", new() { Timeout = 10_000 });
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP PREPARATION", new() { Timeout = 10_000 });
         var card = tablet.Locator("[data-testid=action-item][data-item-id=prep-works]");
         await Expect(card).ToHaveAttributeAsync("data-status", "open", new() { Timeout = 10_000 });
         // The apron desk sees its own item only, not the lighting crew's.
@@ -79,13 +79,13 @@ public sealed class PeopleBrowserTests(ITestOutputHelper output)
         await BrowserAccess.SignInAsync(console, server, TestAccounts.Manager, "/console");
 
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 900), (Mid, "rvr", 950), (End, "rvr", 980), (Ceilometer, "cloud_base", 1000));
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("PREPARING LVP", new() { Timeout = 10_000 });
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP PREPARATION", new() { Timeout = 10_000 });
         // 400 m < active.rvrBelowM 550 m, but this profile variant makes preparation→active wait for the duty manager.
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 1000));
         var confirm = console.Locator("[data-testid=console-confirm]");
         await Expect(confirm).ToBeVisibleAsync(new() { Timeout = 10_000 });
-        await Expect(console.Locator("[data-testid=console-pending-text]")).ToContainTextAsync("active", new() { IgnoreCase = true });
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("PREPARING LVP");
+        await Expect(console.Locator("[data-testid=console-pending-text]")).ToContainTextAsync("LVP in force", new() { IgnoreCase = true });
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP PREPARATION");
         await SaveAsync(console, "console-pending.png");
 
         await confirm.ClickAsync();

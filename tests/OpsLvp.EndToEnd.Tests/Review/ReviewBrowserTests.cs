@@ -25,8 +25,8 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         await WallBrowserTests.OpenLiveWallAsync(wall, server);
 
         await PushAllAsync(server, 1500);
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL", new() { Timeout = 10_000 });
-        // 400 m < active.rvrBelowM 550 m, enter dwell 0 s (invented test profile): LVP in force.
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
+        // 400 m < active.rvrBelowM 550 m, enter dwell 0 s (invented test profile, inForceNeedsSafeguards false): LVP in force.
         await PushAllAsync(server, 400);
         await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
         // 800 m: above active.rvrRecoverM 650 m, so active ends after its 2 s dwell; a what-if active threshold of
@@ -38,12 +38,12 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         }
         await Expect(wall.Locator(PhaseTitle)).Not.ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
         // 1500 m: above every recovery value; back to normal after the dwells.
-        for (var i = 0; i < 30 && await wall.Locator(PhaseTitle).TextContentAsync() != "NORMAL"; i++)
+        for (var i = 0; i < 30 && await wall.Locator(PhaseTitle).TextContentAsync() != "NORMAL OPERATIONS"; i++)
         {
             await PushAllAsync(server, 1500);
             await Task.Delay(1_000);
         }
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL", new() { Timeout = 5_000 });
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 5_000 });
 
         var page = await browser.NewPageAsync(1600, 1100);
         await BrowserAccess.SignInAsync(page, server, TestAccounts.Viewer, "/review");

@@ -26,10 +26,11 @@ public sealed class WallBrowserTests(ITestOutputHelper output)
 
         // Well above every threshold of the test profile: normal.
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 1500), (Mid, "rvr", 1500), (End, "rvr", 1500), (Ceilometer, "cloud_base", 1000));
-        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL", new() { Timeout = 10_000 });
+        await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
         await page.EvaluateAsync("() => { window.__opslvpSamePage = true; }");
 
-        // 400 m < active.rvrBelowM 550 m with an enter dwell of 0 s (invented test profile): straight to active.
+        // 400 m < active.rvrBelowM 550 m with an enter dwell of 0 s (invented test profile, inForceNeedsSafeguards false):
+        // straight to LVP in force.
         var clock = Stopwatch.StartNew();
         await server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", 400), (Mid, "rvr", 450), (End, "rvr", 500), (Ceilometer, "cloud_base", 1000));
         await Expect(page.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 2_000 });

@@ -17,7 +17,9 @@ public partial class AlarmCue
 
     private readonly HashSet<string> _heard = new(StringComparer.Ordinal);
     private IJSObjectReference? _module;
+    private DotNetObjectReference<AlarmCue>? _self;
     private bool _muted;
+    private bool _soundAllowed;
 
     [Inject]
     private IJSRuntime Js { get; set; } = default!;
@@ -63,6 +65,8 @@ public partial class AlarmCue
         }
         var module = await Js.InvokeAsync<IJSObjectReference>("import", ModulePath);
         _muted = await module.InvokeAsync<bool>("isMuted", ScreenKey);
+        _self = DotNetObjectReference.Create(this);
+        _soundAllowed = await module.InvokeAsync<bool>("watchSound", _self);
         // Only now may parameter updates chime: the mute choice is known.
         _module = module;
         await NoticeAsync();
@@ -79,8 +83,31 @@ public partial class AlarmCue
         }
     }
 
+    /// <summary>The browser allows or blocks sound now (called from alarm-sound.js).</summary>
+    [JSInvokable]
+    public Task SoundStateChanged(bool allowed) => InvokeAsync(() =>
+    {
+        _soundAllowed = allowed;
+        StateHasChanged();
+    });
+
+    /// <summary>
+    /// What the toggle says: "{Label} off" when muted, "{Label} on" only while the browser really plays sound,
+    /// else "Tap to enable sound" (an untouched kiosk must not claim a sound it cannot make).
+    /// </summary>
+    internal string ButtonText => _muted ? $"{Label} off" : _soundAllowed ? $"{Label} on" : "Tap to enable sound";
+
+    /// <summary>True when the toggle asks for a tap before sound can play.</summary>
+    internal bool NeedsTap => !_muted && !_soundAllowed;
+
     private async Task ToggleMuteAsync()
     {
+        if (NeedsTap && _module is not null)
+        {
+            // This tap is the gesture the browser waited for: ask for sound rather than muting.
+            _soundAllowed = await _module.InvokeAsync<bool>("soundAllowed");
+            return;
+        }
         _muted = !_muted;
         if (_module is not null)
         {
@@ -90,6 +117,7 @@ public partial class AlarmCue
 
     public async ValueTask DisposeAsync()
     {
+        _self?.Dispose();
         if (_module is not null)
         {
             try

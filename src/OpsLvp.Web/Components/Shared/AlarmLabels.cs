@@ -1,22 +1,13 @@
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 
 namespace OpsLvp.Web.Components.Shared;
 
 /// <summary>Short labels for alarm kinds and the ordering alarms are listed in.</summary>
 public static class AlarmLabels
 {
-    public static string Label(AlarmKind kind) => kind switch
-    {
-        AlarmKind.GoverningRvrUnknown => "RVR unknown",
-        AlarmKind.CeilingUnknown => "Ceiling unknown",
-        AlarmKind.SensorSilent => "Sensor silent",
-        AlarmKind.ItemOverdue => "Item overdue",
-        AlarmKind.PendingTransition => "Confirm transition",
-        AlarmKind.SafeguardsIncomplete => "Safeguards incomplete",
-        AlarmKind.AuditStorageFailing => "Audit storage failing",
-        AlarmKind.ClockRegression => "Clock stepped back",
-        _ => kind.ToString(),
-    };
+    /// <summary>The kind's label from the one vocabulary (<see cref="AlarmWords.Label"/>).</summary>
+    public static string Label(AlarmKind kind) => AlarmWords.Label(kind);
 
     /// <summary>Unacknowledged first, then oldest first.</summary>
     public static IReadOnlyList<Alarm> Ordered(IEnumerable<Alarm>? alarms) =>

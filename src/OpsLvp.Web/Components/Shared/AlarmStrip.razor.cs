@@ -3,6 +3,7 @@ using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
 using OpsLvp.Web.Access;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Live;
 
@@ -21,6 +22,7 @@ public partial class AlarmStrip
     private ILiveState? _live;
     private ILvpCommandService? _commands;
     private IReadOnlyList<Alarm> _alarms = [];
+    private PendingTransition? _pending;
     private IDisposable? _subscription;
     private CommandCaller _caller = CommandCaller.Anonymous;
     private bool _mayView;
@@ -68,6 +70,7 @@ public partial class AlarmStrip
         _live = Services.GetService<ILiveState>();
         _commands = Services.GetService<ILvpCommandService>();
         _alarms = AlarmLabels.Ordered(_live?.Current?.Status.Alarms);
+        _pending = _live?.Current?.Status.Pending;
     }
 
     protected override void OnAfterRender(bool firstRender)
@@ -93,7 +96,18 @@ public partial class AlarmStrip
         StateHasChanged();
     });
 
-    private void Show(LiveSnapshot snapshot) => _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
+    private void Show(LiveSnapshot snapshot)
+    {
+        _alarms = AlarmLabels.Ordered(snapshot.Status.Alarms);
+        _pending = snapshot.Status.Pending;
+    }
+
+    private string Message(Alarm alarm) => AlarmWords.Message(alarm, _pending);
+
+    /// <summary>"3 alarms · 2 unacknowledged": the strip's count line, so a flood reads at a glance.</summary>
+    internal string CountText => _alarms.Count == 1
+        ? (UnacknowledgedCount == 1 ? "1 alarm · unacknowledged" : "1 alarm · acknowledged")
+        : $"{_alarms.Count} alarms · {UnacknowledgedCount} unacknowledged";
 
     private async Task AcknowledgeAsync(Alarm alarm)
     {

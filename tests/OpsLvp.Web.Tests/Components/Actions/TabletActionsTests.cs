@@ -56,7 +56,7 @@ public sealed class TabletActionsTests : LiveComponentTest
         var cards = cut.FindAll("[data-testid=action-item]");
         Assert.Equal(["P3", "P1"], cards.Select(c => c.GetAttribute("data-item-id")));
         Assert.Contains("overdue", cards[0].ClassList);
-        Assert.Contains("OVERDUE by 2 min 0 s", cards[0].QuerySelector("[data-testid=action-due]")!.TextContent);
+        Assert.Contains("OVERDUE by 2 min —", cards[0].QuerySelector("[data-testid=action-due]")!.TextContent);
         Assert.Equal("Airside Ops (invented) · 2 open · 1 overdue · 0 done", Normalise(cut.Find("[data-testid=actions-summary]").TextContent));
     }
 

@@ -37,8 +37,9 @@ public sealed class DutyConsoleTests : LiveComponentTest
     {
         SignIn(Dm, Roles.DutyManager);
         Live.Set(TestSnapshots.Make(1, pending: Pending, at: TestSnapshots.T0.AddMinutes(5)));
+        Clock.SetUtcNow(TestSnapshots.T0.AddMinutes(5));
         var cut = RenderConsole();
-        Assert.Contains("preparation → active: RVR 07 TDZ 500 m < 550 m", cut.Find("[data-testid=console-pending-text]").TextContent);
+        Assert.Contains("LVP preparation to LVP in force: RVR 07 TDZ 500 m < 550 m", cut.Find("[data-testid=console-pending-text]").TextContent);
         Assert.Equal("proposed 03:01:40Z, pending for 3 min 20 s", cut.Find("[data-testid=console-pending-age]").TextContent.Trim());
     }
 
@@ -189,14 +190,16 @@ public sealed class DutyConsoleTests : LiveComponentTest
     }
 
     [Theory]
-    [InlineData(Phase.Active, true, "LVP IN FORCE")]
-    [InlineData(Phase.Active, false, "ACTIVE — SAFEGUARDS INCOMPLETE")]
-    [InlineData(Phase.Preparation, false, "PREPARATION")]
-    public void Phase_SaysInForceOnlyWhenSafeguardsAreComplete(Phase phase, bool complete, string expected)
+    [InlineData(Phase.Active, false, "LVP IN FORCE")]
+    [InlineData(Phase.Preparation, true, "LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE")]
+    [InlineData(Phase.Preparation, false, "LVP PREPARATION")]
+    public void Phase_SaysInForceOnlyWhenTheEngineIsInForce(Phase phase, bool conditionsMet, string expected)
     {
-        // docs/sources.md LVP phases: in force only once safeguarding is complete (EUR Doc 013, from memory)
+        // docs/sources.md "LVP phases": in force only once safeguarding is complete (EUR Doc 013, from memory);
+        // docs/engine.md R13: the engine holds preparation and flags it while the active condition is met.
         SignIn(Dm, Roles.DutyManager);
-        Live.Set(TestSnapshots.Make(1, phase: phase, safeguardsComplete: complete));
+        var snapshot = TestSnapshots.Make(1, phase: phase, safeguardsComplete: !conditionsMet);
+        Live.Set(snapshot with { Status = snapshot.Status with { ConditionsMetSafeguardsIncomplete = conditionsMet } });
         var cut = RenderConsole();
         Assert.Equal(expected, cut.Find("[data-testid=console-phase]").TextContent.Trim());
     }
@@ -252,5 +255,16 @@ public sealed class DutyConsoleTests : LiveComponentTest
         cut.Find("[data-testid=reason-submit]").Click();
 
         cut.WaitForAssertion(() => Assert.Equal(new MarkNotApplicable(Dm, "P2", "no stop bars on this runway (invented)"), Assert.Single(Commands.Calls).Command));
+    }
+
+    [Fact]
+    public void OutstandingSafeguards_AreListedByTheirItemTexts_NotTheirIds()
+    {
+        SignIn(Dm, Roles.DutyManager);
+        var snapshot = TestSnapshots.Make(1, phase: Phase.Active, items: [TestSnapshots.Item("P1", "airside")]);
+        Live.Set(snapshot with { Status = snapshot.Status with { SafeguardsOutstanding = ["P1"] } });
+        var cut = RenderConsole();
+
+        Assert.Equal("safeguards incomplete, outstanding: Item P1 (invented)", cut.Find("[data-testid=console-safeguards]").TextContent.Trim());
     }
 }

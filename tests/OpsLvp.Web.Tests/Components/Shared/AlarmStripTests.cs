@@ -17,6 +17,7 @@ public sealed class AlarmStripTests : LiveComponentTest
     {
         var module = JSInterop.SetupModule("/assets/alarm-sound.js");
         module.Setup<bool>("isMuted", _ => true).SetResult(false);
+        module.Setup<bool>("watchSound", _ => true).SetResult(true);
         module.Setup<bool>("chime", _ => true).SetResult(true);
         module.SetupVoid("setMuted", _ => true).SetVoidResult();
         return module;
@@ -32,6 +33,36 @@ public sealed class AlarmStripTests : LiveComponentTest
         Assert.Equal(["sensor-silent:RVR07M", "item-overdue:P1", "rvr-unknown"], rows.Select(r => r.GetAttribute("data-alarm-key")));
         Assert.Equal("ack dana (invented) 03:03Z", cut.Find("[data-testid=alarm-acked-by]").TextContent.Trim());
         Assert.Contains("has-unacked", cut.Find("[data-testid=alarm-strip]").ClassList);
+    }
+
+    [Fact]
+    public void AFloodOfAlarms_IsCounted_AndListedInOneScrollableBox()
+    {
+        SignIn("kim (invented)", Roles.GroundStaff, "airside");
+        var flood = Enumerable.Range(1, 12)
+            .Select(i => new Alarm($"item-overdue:P{i}", AlarmKind.ItemOverdue, $"item P{i} (airside) overdue (invented)", TestSnapshots.T0.AddMinutes(i)))
+            .Append(AckedRvr)
+            .ToArray();
+        Live.Set(TestSnapshots.Make(1, alarms: flood));
+        var cut = Render<AlarmStrip>();
+
+        Assert.Equal("13 alarms · 12 unacknowledged", cut.Find("[data-testid=alarm-count]").TextContent.Trim());
+        Assert.Equal(13, cut.Find("[data-testid=alarm-list]").QuerySelectorAll("[data-testid=alarm]").Length);
+    }
+
+    [Fact]
+    public void APendingTransitionAlarm_IsWordedFromTheVocabulary_WithoutAnAsciiArrow()
+    {
+        SignIn("kim (invented)", Roles.GroundStaff, "airside");
+        var pending = new PendingTransition(Phase.Preparation, Phase.Active, TestSnapshots.T0.AddMinutes(1), "RVR 07 TDZ 500 m < 550 m",
+            new ConditionSnapshot(TestSnapshots.T0.AddMinutes(1), 500, "RVR07T", null, null, false, true, TestSnapshots.Thresholds));
+        var alarm = new Alarm("pending", AlarmKind.PendingTransition, "confirm preparation -> active: RVR 07 TDZ 500 m < 550 m", TestSnapshots.T0.AddMinutes(1));
+        Live.Set(TestSnapshots.Make(1, alarms: [alarm], pending: pending));
+        var cut = Render<AlarmStrip>();
+
+        var text = cut.Find("[data-testid=alarm] .alarm-message").TextContent;
+        Assert.Equal("confirm LVP preparation to LVP in force: RVR 07 TDZ 500 m < 550 m", text);
+        Assert.DoesNotContain("->", cut.Markup, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -1,6 +1,7 @@
 using System.Security.Claims;
 using Bunit;
 using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Time.Testing;
 using MudBlazor.Services;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Live;
@@ -16,7 +17,11 @@ public abstract class LiveComponentTest : BunitContext, IAsyncLifetime
         Services.AddMudServices();
         Services.AddSingleton<ILiveState>(Live);
         Services.AddSingleton<ILvpCommandService>(Commands);
+        Services.AddSingleton<TimeProvider>(Clock);
     }
+
+    /// <summary>The server's clock, at the test snapshots' instant.</summary>
+    protected FakeTimeProvider Clock { get; } = new(TestSnapshots.T0);
 
     protected TestLiveState Live { get; } = new();
 

@@ -13,10 +13,12 @@ public sealed class WallAlarmCueTests : WallTestBase
     private static readonly Alarm Acked = new("feed-silent:rvr-07l-mid", AlarmKind.SensorSilent, "rvr-07l-mid silent for 4 min", At.AddMinutes(-4), "dm.ana", At.AddMinutes(-3));
     private static readonly Alarm Unknown = new("governing-rvr-unknown", AlarmKind.GoverningRvrUnknown, "governing RVR unknown", At.AddMinutes(-1));
 
-    private BunitJSModuleInterop SoundModule(bool muted)
+    private BunitJSModuleInterop SoundModule(bool muted, bool browserAllowsSound = true)
     {
         var module = JSInterop.SetupModule("/assets/alarm-sound.js");
         module.Setup<bool>("isMuted", _ => true).SetResult(muted);
+        module.Setup<bool>("watchSound", _ => true).SetResult(browserAllowsSound);
+        module.Setup<bool>("soundAllowed", _ => true).SetResult(browserAllowsSound);
         module.Setup<bool>("chime", _ => true).SetResult(true);
         module.SetupVoid("setMuted", _ => true).SetVoidResult();
         return module;
@@ -66,5 +68,34 @@ public sealed class WallAlarmCueTests : WallTestBase
         await cut.InvokeAsync(() => Live.PublishAsync(Snapshot(WithAlarms(Unknown), version: 2)));
         cut.WaitForAssertion(() => Assert.Single(cut.FindAll("[data-testid=wall-alarm]")));
         Assert.Empty(module.Invocations["chime"]);
+    }
+
+    [Fact]
+    public void WhenTheBrowserBlocksSound_TheToggleAsksForATap_AndNeverClaimsSoundOn()
+    {
+        var module = SoundModule(muted: false, browserAllowsSound: false);
+        var cut = RenderWall(Snapshot(WithAlarms(Unknown), version: 1));
+        cut.WaitForAssertion(() => Assert.Single(module.Invocations["watchSound"]));
+
+        cut.WaitForAssertion(() => Assert.Equal("Tap to enable sound", cut.Find("[data-testid=alarm-mute]").TextContent.Trim()));
+        Assert.Equal("false", cut.Find("[data-testid=alarm-mute]").GetAttribute("data-sound-allowed"));
+
+        // The tap asks the browser again instead of muting.
+        cut.Find("[data-testid=alarm-mute]").Click();
+        Assert.Single(module.Invocations["soundAllowed"]);
+        Assert.Empty(module.Invocations["setMuted"]);
+    }
+
+    [Fact]
+    public async Task WhenTheBrowserStartsAllowingSound_TheToggleSaysSoundOn()
+    {
+        SoundModule(muted: false, browserAllowsSound: false);
+        var cut = RenderWall(Snapshot(WithAlarms(Unknown), version: 1));
+        cut.WaitForAssertion(() => Assert.Equal("Tap to enable sound", cut.Find("[data-testid=alarm-mute]").TextContent.Trim()));
+
+        var cue = cut.FindComponent<OpsLvp.Web.Components.Shared.AlarmCue>();
+        await cue.Instance.SoundStateChanged(true);
+
+        cut.WaitForAssertion(() => Assert.Equal("Alarm sound on", cut.Find("[data-testid=alarm-mute]").TextContent.Trim()));
     }
 }

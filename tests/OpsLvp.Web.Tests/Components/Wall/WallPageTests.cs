@@ -11,8 +11,8 @@ namespace OpsLvp.Web.Tests.Components.Wall;
 public sealed class WallPageTests : WallTestBase
 {
     [Theory]
-    [InlineData(Phase.Normal, "NORMAL", "○", "wall-phase-normal")]
-    [InlineData(Phase.Preparation, "PREPARING LVP", "△", "wall-phase-preparation")]
+    [InlineData(Phase.Normal, "NORMAL OPERATIONS", "○", "wall-phase-normal")]
+    [InlineData(Phase.Preparation, "LVP PREPARATION", "△", "wall-phase-preparation")]
     [InlineData(Phase.Active, "LVP IN FORCE", "■", "wall-phase-active")]
     [InlineData(Phase.Cancellation, "CANCELLING LVP", "▽", "wall-phase-cancellation")]
     public void EachPhase_ShowsItsOwnText_GlyphAndPattern(Phase phase, string title, string glyph, string css)
@@ -25,6 +25,16 @@ public sealed class WallPageTests : WallTestBase
         Assert.Contains(css, band.ClassList);
         // Phase since 72 minutes before the snapshot (invented).
         Assert.Equal("since 20:48Z · 1 h 12 min", cut.Find("[data-testid=wall-phase-since]").TextContent);
+    }
+
+    [Fact]
+    public void PreparationHeldForSafeguards_IsNotCalledInForce_AndHasItsOwnLook()
+    {
+        // docs/engine.md R13
+        var cut = RenderWall(Snapshot(Status(Phase.Preparation) with { SafeguardsComplete = false, ConditionsMetSafeguardsIncomplete = true }));
+
+        Assert.Equal("LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE", cut.Find("[data-testid=wall-phase-title]").TextContent);
+        Assert.Contains("wall-phase-warning", cut.Find("[data-testid=wall-phase]").ClassList);
     }
 
     [Fact]
@@ -149,7 +159,7 @@ public sealed class WallPageTests : WallTestBase
 
         var notices = cut.FindAll("[data-testid=wall-notice]");
         Assert.Equal(["AWAITING CONFIRMATION", "HOLD", "FORECAST"], notices.Select(n => n.QuerySelector(".wall-notice-label")!.TextContent));
-        Assert.Equal("preparation → LVP in force, proposed 21:58Z: RVR 07L TDZ 500 m < 550 m", notices[0].QuerySelector(".wall-notice-text")!.TextContent);
+        Assert.Equal("LVP preparation to LVP in force, proposed 21:58Z: RVR 07L TDZ 500 m < 550 m", notices[0].QuerySelector(".wall-notice-text")!.TextContent);
         // The confirmation wait is the notice; it is not repeated under "waiting for".
         Assert.Empty(cut.FindAll("[data-testid=wall-wait]"));
     }
@@ -164,7 +174,7 @@ public sealed class WallPageTests : WallTestBase
 
         cut.InvokeAsync(() => Live.PublishAsync(Snapshot(Status(Phase.Preparation))));
 
-        cut.WaitForAssertion(() => Assert.Equal("PREPARING LVP", cut.Find("[data-testid=wall-phase-title]").TextContent));
+        cut.WaitForAssertion(() => Assert.Equal("LVP PREPARATION", cut.Find("[data-testid=wall-phase-title]").TextContent));
         Assert.Empty(cut.FindAll("[data-testid=wall-nodata]"));
     }
 

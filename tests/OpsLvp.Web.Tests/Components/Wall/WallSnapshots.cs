@@ -50,7 +50,11 @@ public static class WallSnapshots
         null,
         null,
         [],
-        []);
+        [])
+    {
+        // The wall's examples of "LVP in force" are safeguarded; the safeguards-open state has its own test.
+        SafeguardsComplete = phase is Phase.Active or Phase.Cancellation,
+    };
 
     public static LiveSnapshot Snapshot(
         EngineStatus? status = null,

@@ -11,7 +11,7 @@ public sealed class WallViewModelTests
     [Theory]
     [InlineData(45, "45 s")]
     [InlineData(60, "1 min")]
-    [InlineData(3599, "59 min")]
+    [InlineData(3599, "59 min 59 s")]
     [InlineData(3900, "1 h 05 min")]
     [InlineData(93600, "1 d 2 h")]
     [InlineData(-5, "0 s")]
@@ -47,7 +47,7 @@ public sealed class WallViewModelTests
         var vm = WallViewModel.Build(Snapshot(), At);
 
         // Demo profile's illustrative values (seed-demo/profile.json), invented.
-        Assert.Equal(new WallThresholdRow("Preparation", "1000 m · 300 ft", "1200 m · 400 ft", "1 min / 15 min"), vm.Thresholds[0]);
+        Assert.Equal(new WallThresholdRow("LVP preparation", "1000 m · 300 ft", "1200 m · 400 ft", "1 min / 15 min"), vm.Thresholds[0]);
         Assert.Equal(new WallThresholdRow("LVP in force", "550 m · 200 ft", "650 m · 250 ft", "30 s / 10 min"), vm.Thresholds[1]);
     }
 

@@ -1,8 +1,8 @@
 using Microsoft.AspNetCore.Components;
 using MudBlazor;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
-using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
 
 namespace OpsLvp.Web.Components.Pages.Actions;
@@ -56,9 +56,9 @@ public partial class ActionItemCard
 
     private string DueText => Item switch
     {
-        { Status: ItemStatus.Done or ItemStatus.NotApplicable } => $"was due {DisplayTime.Clock(Item.DueAt)}",
-        { Overdue: true } => $"OVERDUE by {DisplayTime.Span(Now - Item.DueAt)} — was due {DisplayTime.Clock(Item.DueAt)}",
-        _ => $"due {DisplayTime.Clock(Item.DueAt)} (in {DisplayTime.Span(Item.DueAt - Now)})",
+        { Status: ItemStatus.Done or ItemStatus.NotApplicable } => $"was due {DisplayFormat.UtcClock(Item.DueAt)}",
+        { Overdue: true } => $"OVERDUE by {DisplayFormat.Duration(Now - Item.DueAt)} — was due {DisplayFormat.UtcClock(Item.DueAt)}",
+        _ => $"due {DisplayFormat.UtcClock(Item.DueAt)} (in {DisplayFormat.Duration(Item.DueAt - Now)})",
     };
 
     protected override void OnParametersSet()
@@ -67,7 +67,7 @@ public partial class ActionItemCard
         if (_stage == TickStage.Confirming && Item.Status == ItemStatus.Done && Item.Tick is { } tick)
         {
             _stage = TickStage.Idle;
-            _message = $"Already done by {tick.User} at {DisplayTime.ClockSeconds(tick.At)}";
+            _message = $"Already done by {tick.User} at {DisplayFormat.UtcClockSeconds(tick.At)}";
             _messageSeverity = Severity.Info;
         }
         else if ((_stage == TickStage.UndoReason && Item.Status is not (ItemStatus.Done or ItemStatus.NotApplicable))

@@ -1,6 +1,6 @@
 using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
-using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
@@ -31,6 +31,9 @@ public partial class TabletActions : LiveComponentBase
         }
     }
 
+    /// <summary>The profile's idle time in seconds (10 min until the first snapshot names it).</summary>
+    private int IdleSeconds => (_snapshot?.Aerodrome.TabletIdleSignOutMinutes ?? 10) * 60;
+
     protected override async Task OnInitializedAsync()
     {
         if (AuthenticationState is not null)
@@ -46,12 +49,8 @@ public partial class TabletActions : LiveComponentBase
         _items = ActionList.For(snapshot.Items, _caller.Teams);
     }
 
-    private static string PhaseText(LiveSnapshot s) => s.Status.Phase switch
-    {
-        Phase.Active when s.Status.SafeguardsComplete => "LVP IN FORCE",
-        Phase.Active => "ACTIVE: safeguards incomplete",
-        Phase.Preparation => "PREPARATION",
-        Phase.Cancellation => "CANCELLATION",
-        _ => "NORMAL",
-    };
+    /// <summary>The state's name from the one vocabulary, in capitals as on the wall and the console.</summary>
+    internal static string PhaseText(LiveSnapshot s) => LvpVocabulary.For(s.Status).Headline;
+
+    private static string PhaseClass(LiveSnapshot s) => "phase-" + LvpVocabulary.For(s.Status).Tone.ToString().ToLowerInvariant();
 }

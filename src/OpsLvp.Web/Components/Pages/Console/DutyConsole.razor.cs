@@ -3,6 +3,7 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Components.Shared;
 using OpsLvp.Web.Live;
@@ -30,6 +31,12 @@ public partial class DutyConsole : LiveComponentBase
     [Inject]
     private ISnackbar Snackbar { get; set; } = default!;
 
+    /// <summary>The server's clock: ages and times-in-phase count from it, never from the engine's last evaluation.</summary>
+    [Inject]
+    private TimeProvider Clock { get; set; } = default!;
+
+    private DateTimeOffset Now => Clock.GetUtcNow();
+
     [CascadingParameter]
     private Task<AuthenticationState>? AuthenticationState { get; set; }
 
@@ -49,22 +56,32 @@ public partial class DutyConsole : LiveComponentBase
         _progress = TeamProgress.For(snapshot.Items);
     }
 
-    internal static string PhaseText(EngineStatus status) => status.Phase switch
-    {
-        Phase.Active when status.SafeguardsComplete => "LVP IN FORCE",
-        Phase.Active => "ACTIVE — SAFEGUARDS INCOMPLETE",
-        Phase.Preparation => "PREPARATION",
-        Phase.Cancellation => "CANCELLATION",
-        _ => "NORMAL",
-    };
+    /// <summary>The state's name from the one vocabulary, in capitals as on the wall.</summary>
+    internal static string PhaseText(EngineStatus status) => LvpVocabulary.For(status).Headline;
 
-    internal static string SafeguardsText(EngineStatus status) => status switch
+    /// <summary>The chip's CSS class from the state's tone (the palette shared with the tablet).</summary>
+    internal static string PhaseClass(EngineStatus status) => "phase-" + LvpVocabulary.For(status).Tone.ToString().ToLowerInvariant();
+
+    /// <summary>The safeguards line, naming outstanding items by their texts (ids only for items the snapshot does not list).</summary>
+    internal static string SafeguardsText(LiveSnapshot snapshot)
     {
-        { Episode: null } => "safeguards: not applicable (normal)",
-        { SafeguardsComplete: true } => "safeguards complete",
-        { SafeguardsOutstanding.Count: 0 } => "safeguards incomplete",
-        _ => $"safeguards incomplete: {string.Join(", ", status.SafeguardsOutstanding)} outstanding",
-    };
+        var status = snapshot.Status;
+        if (status.Episode is null)
+        {
+            return "safeguards: not applicable (normal operations)";
+        }
+        if (status.SafeguardsComplete)
+        {
+            return "safeguards complete";
+        }
+        if (status.SafeguardsOutstanding.Count == 0)
+        {
+            return "safeguards incomplete";
+        }
+        var texts = status.SafeguardsOutstanding
+            .Select(id => snapshot.Items.LastOrDefault(i => i.ItemId == id)?.Text ?? id);
+        return $"safeguards incomplete, outstanding: {string.Join("; ", texts)}";
+    }
 
     private static string PositionText(PositionRvr p) => p switch
     {
@@ -90,7 +107,7 @@ public partial class DutyConsole : LiveComponentBase
         {
             return Task.CompletedTask;
         }
-        var what = $"{Name(p.From)} → {Name(p.To)}";
+        var what = LvpVocabulary.Change(p.From, p.To);
         return AskAndRunAsync($"Confirm {what}", $"Confirm the pending transition {what} ({p.Reason}).", $"Confirm {Name(p.To)}", Color.Warning,
             reason => new ConfirmPending(_caller.Name, reason));
     }
@@ -166,5 +183,5 @@ public partial class DutyConsole : LiveComponentBase
         });
     }
 
-    private static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+    private static string Name(Phase phase) => LvpVocabulary.For(phase).Name;
 }

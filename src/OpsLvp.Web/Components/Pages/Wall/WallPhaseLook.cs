@@ -1,33 +1,27 @@
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 
 namespace OpsLvp.Web.Components.Pages.Wall;
 
 /// <summary>
-/// How the wall shows a phase: words, a glyph and a CSS class (colour plus a background pattern), so the phase
-/// never rests on colour alone. Wording and look are OpsLvp's own.
+/// How the wall shows a state: the words and glyph of <see cref="LvpVocabulary"/> (the one table every screen uses)
+/// and a CSS class (colour plus a background pattern) from its tone, so the phase never rests on colour alone.
 /// </summary>
-/// <param name="Title">The dominant text, e.g. "LVP IN FORCE"; short enough for one line at 9vh.</param>
-/// <param name="Subtitle">One line saying what the phase means.</param>
-/// <param name="Glyph">A shape unique to the phase.</param>
+/// <param name="Title">The dominant text, e.g. "LVP IN FORCE".</param>
+/// <param name="Subtitle">One line saying what the state means.</param>
+/// <param name="Glyph">A shape unique to the state.</param>
 /// <param name="CssClass">Colour and pattern class on the phase band.</param>
 public sealed record WallPhaseLook(string Title, string Subtitle, string Glyph, string CssClass)
 {
-    public static WallPhaseLook For(Phase phase) => phase switch
-    {
-        Phase.Normal => new("NORMAL", "normal operations, no low-visibility measures", "○", "wall-phase-normal"),
-        Phase.Preparation => new("PREPARING LVP", "safeguarding the airfield while conditions deteriorate", "△", "wall-phase-preparation"),
-        Phase.Active => new("LVP IN FORCE", "low-visibility procedures in force", "■", "wall-phase-active"),
-        Phase.Cancellation => new("CANCELLING LVP", "LVP cancelled, protective measures being withdrawn", "▽", "wall-phase-cancellation"),
-        _ => throw new ArgumentOutOfRangeException(nameof(phase), phase, "unknown phase"),
-    };
+    /// <summary>The look of the engine's status now (phase refined by its safeguards).</summary>
+    public static WallPhaseLook For(EngineStatus status) => From(LvpVocabulary.For(status));
 
-    /// <summary>Short phase name for running text ("preparation", "LVP in force").</summary>
-    public static string ShortName(Phase phase) => phase switch
-    {
-        Phase.Normal => "normal",
-        Phase.Preparation => "preparation",
-        Phase.Active => "LVP in force",
-        Phase.Cancellation => "cancellation",
-        _ => throw new ArgumentOutOfRangeException(nameof(phase), phase, "unknown phase"),
-    };
+    /// <summary>The look of a phase seen without its safeguards.</summary>
+    public static WallPhaseLook For(Phase phase) => From(LvpVocabulary.For(phase));
+
+    /// <summary>Phase name for running text ("LVP preparation", "LVP in force").</summary>
+    public static string ShortName(Phase phase) => LvpVocabulary.For(phase).Name;
+
+    private static WallPhaseLook From(StateWords words) =>
+        new(words.Headline, words.Meaning, words.Glyph, "wall-phase-" + words.Tone.ToString().ToLowerInvariant());
 }

@@ -1,5 +1,6 @@
 using System.Globalization;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 using OpsLvp.Web.Live;
@@ -98,9 +99,9 @@ public sealed class WallViewModel
     {
         ArgumentNullException.ThrowIfNull(snapshot);
         var status = snapshot.Status;
-        // Ages in the snapshot are as of its instant; the wall keeps counting between snapshots.
-        var drift = Math.Max(0, (now - snapshot.At).TotalSeconds);
-        var runways = BuildRunways(snapshot, drift);
+        // Ages are measured from each reading's time to the server's clock now, never to the engine's last
+        // evaluation: a frozen engine must not show "0 s old" (issue 13).
+        var runways = BuildRunways(snapshot, now);
         var (localTime, localLabel) = Local(snapshot.Aerodrome.TimeZone, now);
         var (teams, summary) = BuildTeams(snapshot.Items, now);
         var notices = BuildNotices(status);
@@ -110,7 +111,7 @@ public sealed class WallViewModel
             .ThenByDescending(a => a.RaisedAt)
             .Select(a => new WallAlarm(
                 a.Key,
-                a.Message,
+                AlarmWords.Message(a, status.Pending),
                 "since " + Hm(a.RaisedAt),
                 a.Acknowledged,
                 a.Acknowledged ? "wall-alarm-acked" : "wall-alarm-raised"))
@@ -123,20 +124,20 @@ public sealed class WallViewModel
 
         return new WallViewModel
         {
-            Phase = WallPhaseLook.For(status.Phase),
+            Phase = WallPhaseLook.For(status),
             PhaseSince = $"since {Hm(status.PhaseSince)} · {Duration(now - status.PhaseSince)}",
             EpisodeText = status.Episode is { } e ? $"Episode {e.Id} · deepest: {WallPhaseLook.ShortName(e.DeepestPhase)}" : "",
             AerodromeText = $"{snapshot.Aerodrome.Id} · {snapshot.Aerodrome.Name}",
             ProfileText = $"profile {snapshot.Aerodrome.ProfileVersion}",
             Illustrative = snapshot.Aerodrome.Illustrative,
             DemoBadge = snapshot.Demo is { } demo ? string.Create(CultureInfo.InvariantCulture, $"DEMO ×{demo.Speed:0.##}") : null,
-            UtcTime = now.UtcDateTime.ToString("HH:mm:ss'Z'", CultureInfo.InvariantCulture),
+            UtcTime = DisplayFormat.UtcClockSeconds(now),
             LocalTime = localTime,
             LocalLabel = localLabel,
             Runways = runways,
-            GoverningRvr = Figure("Governing RVR", status.GoverningRvr, "m", drift, "no fresh governing RVR"),
-            Ceiling = status.CeilingConfigured ? Figure("Ceiling", status.Ceiling, "ft", drift, "no fresh ceiling") : null,
-            Thresholds = [Row("Preparation", status.Thresholds.Preparation), Row("LVP in force", status.Thresholds.Active)],
+            GoverningRvr = Figure("Governing RVR", status.GoverningRvr, v => DisplayFormat.Rvr(v), now, "no fresh governing RVR"),
+            Ceiling = status.CeilingConfigured ? Figure("Ceiling", status.Ceiling, DisplayFormat.Feet, now, "no fresh ceiling") : null,
+            Thresholds = [Row(WallPhaseLook.ShortName(Core.Engine.Phase.Preparation), status.Thresholds.Preparation), Row(WallPhaseLook.ShortName(Core.Engine.Phase.Active), status.Thresholds.Active)],
             Notices = notices,
             PhaseNotes = StatusNotes.For(status),
             Waiting = waiting,
@@ -177,41 +178,23 @@ public sealed class WallViewModel
         return shown;
     }
 
-    /// <summary>"45 s", "12 min", "1 h 05 min", "2 d 3 h".</summary>
-    public static string Duration(TimeSpan span)
-    {
-        if (span < TimeSpan.Zero)
-        {
-            span = TimeSpan.Zero;
-        }
-        return span.TotalSeconds < 60 ? $"{(int)span.TotalSeconds} s"
-            : span.TotalMinutes < 60 ? $"{(int)span.TotalMinutes} min"
-            : span.TotalHours < 24 ? string.Create(CultureInfo.InvariantCulture, $"{(int)span.TotalHours} h {span.Minutes:00} min")
-            : $"{(int)span.TotalDays} d {span.Hours} h";
-    }
+    /// <summary>The one duration format (<see cref="DisplayFormat.Duration"/>): "45 s", "4 min 20 s", "1 h 05 min".</summary>
+    public static string Duration(TimeSpan span) => DisplayFormat.Duration(span);
 
-    private static string Hm(DateTimeOffset t) => t.UtcDateTime.ToString("HH:mm'Z'", CultureInfo.InvariantCulture);
+    private static string Hm(DateTimeOffset t) => DisplayFormat.UtcClock(t);
 
-    private static string N(double value) => value.ToString("0", CultureInfo.InvariantCulture);
+    private static string N(double value) => DisplayFormat.Number(value);
 
-    private static (string Time, string Label) Local(string timeZone, DateTimeOffset now)
-    {
-        try
-        {
-            var zone = TimeZoneInfo.FindSystemTimeZoneById(timeZone);
-            return (TimeZoneInfo.ConvertTime(now, zone).ToString("HH:mm:ss", CultureInfo.InvariantCulture), "local " + timeZone);
-        }
-        catch (Exception ex) when (ex is TimeZoneNotFoundException or InvalidTimeZoneException or ArgumentException)
-        {
-            return ("--:--:--", $"local time zone '{timeZone}' unknown");
-        }
-    }
+    private static (string Time, string Label) Local(string timeZone, DateTimeOffset now) =>
+        DisplayFormat.LocalClockSeconds(now, timeZone) is { } local
+            ? (local, "local " + timeZone)
+            : ("--:--:--", $"local time zone '{timeZone}' unknown");
 
-    private static List<WallRunway> BuildRunways(LiveSnapshot snapshot, double drift)
+    private static List<WallRunway> BuildRunways(LiveSnapshot snapshot, DateTimeOffset now)
     {
         var trends = snapshot.Trends.GroupBy(t => t.SensorId).ToDictionary(g => g.Key, g => g.Last());
         var runways = snapshot.Status.Runways
-            .Select(r => (Runway: r, Positions: r.Positions.Select(p => Position(p, trends, drift)).ToList()))
+            .Select(r => (Runway: r, Positions: r.Positions.Select(p => Position(p, trends, now)).ToList()))
             .ToList();
         var usable = runways.SelectMany(r => r.Positions).Select(p => p.Value).Where(v => v is not null).ToList();
         // When every usable position reads the same there is no lowest worth pointing at.
@@ -224,7 +207,7 @@ public sealed class WallViewModel
             .ToList();
     }
 
-    private static WallPosition Position(PositionRvr p, Dictionary<string, SensorTrend> trends, double drift)
+    private static WallPosition Position(PositionRvr p, Dictionary<string, SensorTrend> trends, DateTimeOffset now)
     {
         var name = p.Position switch
         {
@@ -254,17 +237,18 @@ public sealed class WallViewModel
         {
             return new(name, "–", "", "", "", "no reading yet", "wall-pos-missing", false, p.Governing, null);
         }
-        var age = Duration(TimeSpan.FromSeconds(r.AgeSeconds + drift));
+        var age = Duration(now - r.Time);
+        var value = DisplayFormat.RvrNumber(r.Value);
         return r.Stale
-            ? new(name, N(r.Value), "", "", "", $"STALE · {age}", "wall-pos-stale", false, p.Governing, null)
-            : new(name, N(r.Value), mean, arrow, word, $"{age} old", "wall-pos-fresh", false, p.Governing, r.Value);
+            ? new(name, value, "", "", "", $"STALE · {age}", "wall-pos-stale", false, p.Governing, null)
+            : new(name, value, mean, arrow, word, $"{age} old", "wall-pos-fresh", false, p.Governing, r.Value);
     }
 
-    private static WallFigure Figure(string label, MeasuredValue? value, string unit, double drift, string unknown) => value switch
+    private static WallFigure Figure(string label, MeasuredValue? value, Func<double, string> format, DateTimeOffset now, string unknown) => value switch
     {
         null => new(label, "UNKNOWN", unknown, "wall-fig-unknown"),
-        { Stale: true } v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{N(v.Value)} {unit}", $"STALE · {v.Label}{FlagNote(v.Flags)}", "wall-fig-stale"),
-        var v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{N(v.Value)} {unit}", $"{v.Label} · {Duration(TimeSpan.FromSeconds(v.AgeSeconds + drift))} old{FlagNote(v.Flags)}", "wall-fig-fresh"),
+        { Stale: true } v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{format(v.Value)}", $"STALE · {v.Label}{FlagNote(v.Flags)}", "wall-fig-stale"),
+        var v => new(label, $"{ReadingFlagText.ValuePrefix(v.Flags)}{format(v.Value)}", $"{v.Label} · {Duration(now - v.Time)} old{FlagNote(v.Flags)}", "wall-fig-fresh"),
     };
 
     // "luminance unknown" and the like beside the value (docs/engine.md R19–R22); "or more" is the value's "≥" prefix.
@@ -292,7 +276,7 @@ public sealed class WallViewModel
         {
             notices.Add(new(
                 "AWAITING CONFIRMATION",
-                $"{WallPhaseLook.ShortName(p.From)} → {WallPhaseLook.ShortName(p.To)}, proposed {Hm(p.ConditionMetAt)}: {p.Reason}",
+                $"{LvpVocabulary.Change(p.From, p.To)}, proposed {Hm(p.ConditionMetAt)}: {p.Reason}",
                 "wall-notice-pending"));
         }
         if (status.Hold is { } h)
