@@ -62,7 +62,7 @@ public sealed class ReviewComponentTests : BunitContext, IAsyncLifetime
 
         Assert.Equal("2026-01-15 20:36:00Z", cut.Find("[data-testid=summary-start]").TextContent);
         Assert.Equal("2026-01-16 01:00:00Z", cut.Find("[data-testid=summary-end]").TextContent);
-        Assert.Equal("active", cut.Find("[data-testid=summary-deepest]").TextContent);
+        Assert.Equal("LVP in force", cut.Find("[data-testid=summary-deepest]").TextContent);
         Assert.Equal("175 m (rvr-07l-mid)", cut.Find("[data-testid=summary-rvr]").TextContent);
         Assert.Equal("100 ft (ceil-1)", cut.Find("[data-testid=summary-ceiling]").TextContent);
         // Active 21:41 → 00:42 = 181 min.
@@ -102,10 +102,10 @@ public sealed class ReviewComponentTests : BunitContext, IAsyncLifetime
         Assert.Equal(3, rows.Count);
         Assert.Equal(["on time", "late", "late"], cut.FindAll("[data-testid=perf-late]").Select(e => e.TextContent));
         Assert.Contains("review-late", rows[1].ClassName, StringComparison.Ordinal);
-        Assert.Contains("29 min 00 s", rows[1].TextContent, StringComparison.Ordinal);
+        Assert.Contains("29 min", rows[1].TextContent, StringComparison.Ordinal);
         Assert.Contains("(optional)", rows[2].TextContent, StringComparison.Ordinal);
-        Assert.StartsWith("29 min 00 s (20:00:00Z → 20:29:00Z)", cut.Find("[data-testid=perf-safeguards]").TextContent, StringComparison.Ordinal);
-        Assert.Contains("3 min 00 s", cut.Find("[data-testid=perf-confirmation]").TextContent, StringComparison.Ordinal);
+        Assert.StartsWith("29 min (20:00:00Z → 20:29:00Z)", cut.Find("[data-testid=perf-safeguards]").TextContent, StringComparison.Ordinal);
+        Assert.Contains("3 min", cut.Find("[data-testid=perf-confirmation]").TextContent, StringComparison.Ordinal);
         Assert.Equal(["preparation", "active"], cut.FindAll("[data-testid=perf-phase]").Select(e => e.GetAttribute("data-phase")));
     }
 
@@ -120,7 +120,7 @@ public sealed class ReviewComponentTests : BunitContext, IAsyncLifetime
         var cut = Render<ReviewEpisode>(p => p.Add(c => c.EpisodeId, id));
 
         cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=episode-summary]")));
-        Assert.Equal("active", cut.Find("[data-testid=summary-deepest]").TextContent);
+        Assert.Equal("LVP in force", cut.Find("[data-testid=summary-deepest]").TextContent);
         Assert.Contains("chain verifies", cut.Find("[data-testid=summary-integrity]").TextContent, StringComparison.Ordinal);
         Assert.True(int.Parse(cut.Find("[data-testid=timeline-chart]").GetAttribute("data-series")!, System.Globalization.CultureInfo.InvariantCulture) > 6);
         Assert.NotEmpty(cut.FindAll("[data-testid=perf-row]"));
