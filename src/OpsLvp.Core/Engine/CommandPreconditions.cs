@@ -46,6 +46,14 @@ public static class CommandPreconditions
                 return c.SensorId is null || !profile.Sensors.Any(s => s is not null && s.Id == c.SensorId)
                     ? $"unknown sensor '{c.SensorId}'"
                     : null;
+            case SetLightStep c:
+                if (Blank(c.Reason))
+                {
+                    return "a reason is required to set the light step";
+                }
+                return c.Step == 0 || profile.Lights.IntensityCdByStep.ContainsKey(c.Step)
+                    ? null
+                    : $"light step {c.Step} is not configured (steps: 0 (off), {string.Join(", ", profile.Lights.IntensityCdByStep.Keys.Order())})";
             case AcknowledgeAlarm c:
                 return Blank(c.AlarmKey) ? "no alarm named" : null;
             case TickItem c:

@@ -33,6 +33,9 @@ public sealed record EngineState
     /// <summary>Deterioration forecast flag (docs/engine.md R4).</summary>
     public bool DeteriorationForecast { get; init; }
 
+    /// <summary>The runway-light step last set by a duty manager (docs/engine.md R20); null while none was set.</summary>
+    public ManualLightStep? ManualLightStep { get; init; }
+
     /// <summary>A declared phase below which the engine does not relax automatically (docs/engine.md R9).</summary>
     public Hold? Hold { get; init; }
 

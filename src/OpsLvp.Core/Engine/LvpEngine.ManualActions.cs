@@ -57,6 +57,11 @@ public sealed partial class LvpEngine
                     State = State with { OutOfService = c.InService ? State.OutOfService.Remove(c.SensorId) : State.OutOfService.Add(c.SensorId) };
                     Applied(now, c.Actor, c.InService ? "sensor_in" : "sensor_out", $"sensor {c.SensorId} {(c.InService ? "back in service" : "out of service")}", c.Reason);
                     return null;
+                case SetLightStep c:
+                    // no "already set" refusal: a lighting sensor may have changed the step since (R20)
+                    State = State with { ManualLightStep = new ManualLightStep(c.Step, c.Actor, c.Reason, now) };
+                    Applied(now, c.Actor, "light_step", $"light step {c.Step}{(c.Step == 0 ? " (lights off)" : "")}", c.Reason);
+                    return null;
                 case ConfirmPending c:
                     if (State.Pending is not { } pending)
                     {

@@ -48,34 +48,80 @@ public sealed class RvrDerivation(AerodromeProfile profile)
     public Candela LightIntensity { get; } = new(profile.Lights.IntensityCdByStep.TryGetValue(profile.Lights.StepInUse, out var cd) ? cd : 10_000);
 
     /// <summary>
-    /// The runway-light intensity in use at <paramref name="at"/> (docs/engine.md R20): the step of the latest fresh
-    /// <see cref="ReadingKind.LightStep"/> reading of any lighting sensor, or the profile's <c>stepInUse</c> while no
-    /// lighting sensor has reported (its starting value). Step 0 is lights off: 0 cd, so RVR = MOR (ICAO Annex 3,
-    /// App 3, §4.3.5 — from memory). A step the profile has no intensity for, a step that is not a whole number, or a
-    /// lighting sensor whose last reading went stale is unknown: the lowest configured intensity is used (a lower
-    /// intensity can only shorten Allard's range; common practice) and <paramref name="unknown"/> is true.
+    /// The step a duty manager set by hand (docs/engine.md R20), from the engine state: the live host and the replay
+    /// runner set it from the state before each evaluation, so both derive with the same setting.
+    /// </summary>
+    public Engine.ManualLightStep? ManualStep { get; set; }
+
+    /// <summary>
+    /// The runway-light step in use at <paramref name="at"/> (docs/engine.md R20). The newest of the duty manager's
+    /// setting (<see cref="ManualStep"/>, from its instant on) and the lighting sensors' <see cref="ReadingKind.LightStep"/>
+    /// readings wins: a setting made after the latest lighting reading stands until a newer reading arrives (a
+    /// setting does not go stale); otherwise the step of the latest fresh lighting reading, or the profile's
+    /// <c>stepInUse</c> while neither exists (its starting value). A lighting sensor whose last reading went stale
+    /// gives an unknown step (null).
+    /// </summary>
+    public LightStepInUse StepInUse(DateTimeOffset at)
+    {
+        Reading? latest = null;
+        Reading? fresh = null;
+        if (_hasLighting)
+        {
+            foreach (var (id, r) in _steps)
+            {
+                if (r.Time > at)
+                {
+                    continue;
+                }
+                if (latest is null || r.Time > latest.Time)
+                {
+                    latest = r;
+                }
+                if (at < r.Time + MaxAge(id, ReadingKind.LightStep) && (fresh is null || r.Time > fresh.Time))
+                {
+                    fresh = r;
+                }
+            }
+        }
+        double? step;
+        LightStepInUse use;
+        if (ManualStep is { } manual && manual.At <= at && (latest is null || manual.At >= latest.Time))
+        {
+            step = manual.Step;
+            use = new LightStepInUse(step, LightStepOrigin.Manual, manual.Actor, manual.At, false);
+        }
+        else if (_hasLighting && _steps.Count > 0)
+        {
+            step = fresh?.Value;
+            use = new LightStepInUse(step, LightStepOrigin.Sensor, (fresh ?? latest)?.SensorId, (fresh ?? latest)?.Time, false);
+        }
+        else
+        {
+            step = profile.Lights.StepInUse;
+            use = new LightStepInUse(step, LightStepOrigin.Profile, null, null, false);
+        }
+        var known = step is 0
+            || (step is { } s && s == Math.Floor(s) && s <= int.MaxValue && profile.Lights.IntensityCdByStep.ContainsKey((int)s))
+            || profile.Lights.IntensityCdByStep.Count == 0;
+        return known ? use : use with { Unknown = true };
+    }
+
+    /// <summary>
+    /// The runway-light intensity in use at <paramref name="at"/> (docs/engine.md R20): that of <see cref="StepInUse"/>.
+    /// Step 0 is lights off: 0 cd, so RVR = MOR (ICAO Annex 3, App 3, §4.3.5 — from memory). A step the profile has
+    /// no intensity for, a step that is not a whole number, or a lighting sensor whose last reading went stale is
+    /// unknown: the lowest configured intensity is used (a lower intensity can only shorten Allard's range; common
+    /// practice) and <paramref name="unknown"/> is true.
     /// </summary>
     public Candela IntensityAt(DateTimeOffset at, out bool unknown)
     {
+        var use = StepInUse(at);
         unknown = false;
-        double? step = profile.Lights.StepInUse;
-        if (_hasLighting && _steps.Count > 0)
-        {
-            Reading? best = null;
-            foreach (var (id, r) in _steps)
-            {
-                if (r.Time <= at && at < r.Time + MaxAge(id, ReadingKind.LightStep) && (best is null || r.Time > best.Time))
-                {
-                    best = r;
-                }
-            }
-            step = best?.Value;
-        }
-        if (step is 0)
+        if (use.Step is 0)
         {
             return new Candela(0);
         }
-        if (step is { } s && s == Math.Floor(s) && s <= int.MaxValue && profile.Lights.IntensityCdByStep.TryGetValue((int)s, out var cd))
+        if (use.Step is { } s && s == Math.Floor(s) && s <= int.MaxValue && profile.Lights.IntensityCdByStep.TryGetValue((int)s, out var cd))
         {
             return new Candela(cd);
         }

@@ -11,6 +11,7 @@ namespace OpsLvp.Core.Review;
 public static class RecordedCommands
 {
     private const string SensorPrefix = "sensor ";
+    private const string LightStepPrefix = "light step ";
     private const string DeclaredPrefix = "declared ";
 
     /// <summary>The action rows, in event order.</summary>
@@ -82,6 +83,7 @@ public static class RecordedCommands
             "cancel" or "release_hold" => new ActionRow(e.At, actor, action, "", "", reason),
             "forecast" => new ActionRow(e.At, actor, "forecast", "", detail.EndsWith(" on", StringComparison.Ordinal) ? "on" : "off", reason),
             "sensor_out" or "sensor_in" => new ActionRow(e.At, actor, action, SensorId(detail), "", reason),
+            "light_step" => new ActionRow(e.At, actor, "light_step", "", LightStep(detail), reason),
             _ => throw new FormatException($"manual_action at {e.At:O}: unknown action '{action}'"),
         };
     }
@@ -91,6 +93,12 @@ public static class RecordedCommands
         detail.StartsWith(DeclaredPrefix, StringComparison.Ordinal)
             ? detail[DeclaredPrefix.Length..].Split(' ')[0]
             : throw new FormatException($"declare detail '{detail}' does not name the phase");
+
+    // "light step 3" / "light step 0 (lights off)"
+    private static string LightStep(string detail) =>
+        detail.StartsWith(LightStepPrefix, StringComparison.Ordinal)
+            ? detail[LightStepPrefix.Length..].Split(' ')[0]
+            : throw new FormatException($"light step detail '{detail}' does not name the step");
 
     // "sensor rvr-07l-tdz out of service" / "... back in service"
     private static string SensorId(string detail) =>

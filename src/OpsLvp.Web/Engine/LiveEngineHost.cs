@@ -158,6 +158,8 @@ public sealed class LiveEngineHost(
             }
         }
         _state ??= _engine.Initial(now);
+        // the restored setting applies to raw readings from its instant on, as it did live (docs/engine.md R20)
+        _derivation.ManualStep = _state.ManualLightStep;
         await RebuildAveragingAsync(now, cancellationToken);
         _written = restored ? _state : null;
         var started = AuditEvents.HostEntry("engine_started", now, new
@@ -361,6 +363,8 @@ public sealed class LiveEngineHost(
             old = Rebase(old, now);
         }
 
+        // the duty manager's light-step setting as of this evaluation, as the replay runner does (docs/engine.md R20)
+        _derivation!.ManualStep = old.ManualLightStep;
         var inputs = new List<EngineInput>();
         var fresh = new List<(Reading Reading, string Source)>();
         var perBatch = new List<(ReadingBatch Batch, int From, int To)>();
@@ -598,10 +602,17 @@ public sealed class LiveEngineHost(
         }
         var snapshot = SnapshotBuilder.Build(
             _version, _engine!, state, now, feeds.Snapshot(), _trends!.At(now),
-            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarms, Recording);
+            demo.Enabled ? new DemoView(demo.Speed) : null, hostAlarms, Recording, StepInUse(state, now));
         _published = state;
         _lastPublishReal = realNow;
         live.Publish(snapshot);
+    }
+
+    /// <summary>The light step in use at <paramref name="now"/> with <paramref name="state"/>'s manual setting (docs/engine.md R20).</summary>
+    private LightStepInUse StepInUse(EngineState state, DateTimeOffset now)
+    {
+        _derivation!.ManualStep = state.ManualLightStep;
+        return _derivation.StepInUse(now);
     }
 
     public override void Dispose()

@@ -23,7 +23,8 @@ public static class SnapshotBuilder
         IReadOnlyList<SensorTrend> trends,
         DemoView? demo,
         IReadOnlyList<Alarm> hostAlarms,
-        RecordingView? recording = null)
+        RecordingView? recording = null,
+        OpsLvp.Core.Optics.LightStepInUse? lightStep = null)
     {
         ArgumentNullException.ThrowIfNull(hostAlarms);
         var profile = engine.Profile;
@@ -64,6 +65,8 @@ public static class SnapshotBuilder
             feeds.Select(FeedHealthDto.From).ToList(),
             trends,
             demo,
-            recording ?? RecordingView.Ok);
+            recording ?? RecordingView.Ok,
+            lightStep,
+            [0, .. profile.Lights.IntensityCdByStep.Keys.Where(k => k != 0).Order()]);
     }
 }

@@ -19,6 +19,9 @@ namespace OpsLvp.Web.Live;
 /// <param name="Demo">Set in demo mode (the "DEMO ×N" badge).</param>
 /// <param name="Recording">Whether the server is recording; while it is not, the values shown are the last ones recorded
 /// and screens say so (docs/reliability.md "Storage faults"). Null reads as recording.</param>
+/// <param name="LightStep">The runway-light step in use and its origin (profile, lighting sensor, or set by a duty
+/// manager; docs/engine.md R20). Null when the host did not say.</param>
+/// <param name="LightSteps">The steps a duty manager may set: 0 (lights off) and the profile's configured steps.</param>
 public sealed record LiveSnapshot(
     long Version,
     DateTimeOffset At,
@@ -29,4 +32,6 @@ public sealed record LiveSnapshot(
     IReadOnlyList<FeedHealthDto> Feeds,
     IReadOnlyList<SensorTrend> Trends,
     DemoView? Demo,
-    RecordingView? Recording = null);
+    RecordingView? Recording = null,
+    OpsLvp.Core.Optics.LightStepInUse? LightStep = null,
+    IReadOnlyList<int>? LightSteps = null);

@@ -182,6 +182,54 @@ public sealed class RvrDerivationTests
     }
 
     [Fact]
+    public void ManualStepZero_AtNight_GivesRvrEqualToMor_WithoutALightingSensor()
+    {
+        // docs/engine.md R20: a duty manager's step 0 (lights off) gives RVR = MOR (ICAO Annex 3 App 3 §4.3.5 — from memory)
+        var sigmaPerKm = -Math.Log(0.05) / 0.300; // MOR 300 m (WMO-No. 8: MOR = −ln 0.05 / σ)
+        var d = new RvrDerivation(Profile()) { ManualStep = new OpsLvp.Core.Engine.ManualLightStep(0, "dm (invented)", "lights failed (invented)", T0) };
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(5), "fs1", ReadingKind.Extinction, sigmaPerKm)));
+        // reported 0300 on the 25 m scale below 400 m (ICAO Annex 3, App 3, §4.3.6 — from memory); 0900 at 10 000 cd
+        Assert.Equal(300, derived.Value);
+        Assert.Equal(900, ExpectedAt(sigmaPerKm, 1.5, 10_000));
+        Assert.Equal(new LightStepInUse(0, LightStepOrigin.Manual, "dm (invented)", T0, false), d.StepInUse(T0.AddSeconds(5)));
+    }
+
+    [Fact]
+    public void ManualStep_IsUsedByTheDerivation_FromItsInstantOn()
+    {
+        var d = new RvrDerivation(WithLighting()) { ManualStep = new OpsLvp.Core.Engine.ManualLightStep(3, "dm (invented)", "r (invented)", T0.AddSeconds(60)) };
+        d.Observe(new Reading(T0, "lum", ReadingKind.BackgroundLuminance, 1.5));
+        // before the setting: the profile's starting step 5
+        Assert.Equal(ExpectedAt(10, 1.5, 10_000), Assert.Single(d.Observe(new Reading(T0.AddSeconds(1), "fs1", ReadingKind.Extinction, 10))).Value);
+        // a minute after the setting, so the mean holds only step-3 samples (luminance refreshed: 120 s maximum age)
+        d.Observe(new Reading(T0.AddSeconds(120), "lum", ReadingKind.BackgroundLuminance, 1.5));
+        var derived = Assert.Single(d.Observe(new Reading(T0.AddSeconds(125), "fs1", ReadingKind.Extinction, 10)));
+        Assert.Equal(ExpectedAt(10, 1.5, 1000), derived.Value);
+        Assert.NotEqual(ExpectedAt(10, 1.5, 10_000), derived.Value);
+    }
+
+    [Fact]
+    public void ManualStep_AndLightingReadings_TheNewestWins_AndTheSettingDoesNotGoStale()
+    {
+        var d = new RvrDerivation(WithLighting());
+        d.Observe(new Reading(T0, "agl", ReadingKind.LightStep, 1));
+        d.ManualStep = new OpsLvp.Core.Engine.ManualLightStep(5, "dm (invented)", "r (invented)", T0.AddSeconds(10));
+        // before the setting's instant the sensor's step stands
+        Assert.Equal(new Candela(100), d.IntensityAt(T0.AddSeconds(5), out _));
+        Assert.Equal(LightStepOrigin.Manual, d.StepInUse(T0.AddSeconds(20)).Origin);
+        Assert.Equal(new Candela(10_000), d.IntensityAt(T0.AddSeconds(20), out var unknown));
+        Assert.False(unknown);
+        // past the light_step maximum age (600 s, invented) the sensor would be stale; the setting is not
+        Assert.Equal(new Candela(10_000), d.IntensityAt(T0.AddSeconds(3600), out var later));
+        Assert.False(later);
+        // a newer lighting reading takes over again
+        d.Observe(new Reading(T0.AddSeconds(30), "agl", ReadingKind.LightStep, 0));
+        Assert.Equal(new LightStepInUse(0, LightStepOrigin.Sensor, "agl", T0.AddSeconds(30), false), d.StepInUse(T0.AddSeconds(40)));
+        Assert.Equal(new Candela(0), d.IntensityAt(T0.AddSeconds(40), out _));
+    }
+
+    [Fact]
     public void Derived_IsTheOneMinuteMean_OfTheSensorsAssessedSamples()
     {
         var d = new RvrDerivation(Profile());

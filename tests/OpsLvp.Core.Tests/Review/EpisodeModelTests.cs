@@ -141,6 +141,20 @@ public sealed class EpisodeModelTests
         Assert.Equal("lens icing (invented)", ((SetSensorService)commands[3].Command).Reason);
     }
 
+    [Theory]
+    [InlineData(0)]
+    [InlineData(5)]
+    public void RecordedCommands_LightStep_ReplaysAsTheStepThatWasSet(int step)
+    {
+        // docs/engine.md R20: the what-if replays a duty manager's light step through the actions file; event from the engine itself
+        var engine = new LvpEngine(TestProfiles.Standard());
+        var applied = engine.Evaluate(engine.Initial(M(0)), [new SetLightStep("dm.invented", step, "lights checked (invented)")], M(1)).Events;
+        var rows = RecordedCommands.FromEvents(applied.Select(RecordedEvent.FromEvent));
+        var command = Assert.Single(RecordedCommands.ToCommands(rows, "test"));
+        Assert.Equal(new SetLightStep("dm.invented", step, "lights checked (invented)"), command.Command);
+        Assert.Equal(M(1), command.Time);
+    }
+
     [Fact]
     public void RecordedCommands_NotApplicableAndSafeguardsOverride_ReplayAsTheyWereGiven()
     {

@@ -49,6 +49,41 @@ public sealed class LvpCommandServiceTests
     }
 
     [Fact]
+    public async Task LightStep_IsTheDutyManagers_Audited_AndApiStateShowsTheStepAndWhoSetIt()
+    {
+        // docs/engine.md R20; the test profile configures step 5 only (invented)
+        await using var run = await Run.StartAsync();
+        var before = await LiveClient.StateAsync(run.App);
+        Assert.Equal("profile", before.GetProperty("lightStep").GetProperty("origin").GetString());
+        Assert.Equal(5, before.GetProperty("lightStep").GetProperty("step").GetDouble());
+        Assert.Equal([0, 5], before.GetProperty("lightSteps").EnumerateArray().Select(e => e.GetInt32()));
+
+        var viewer = await run.Commands.ExecuteAsync(Caller("v.test", Roles.Viewer), new SetLightStep("x", 0, "lights off (test)"));
+        Assert.Equal(CommandOutcomeKind.Refused, viewer.Kind);
+        Assert.Contains("role", viewer.Message, StringComparison.Ordinal);
+        var ground = await run.Commands.ExecuteAsync(Caller("g.test", Roles.GroundStaff, LiveTestProfile.Team), new SetLightStep("x", 0, "lights off (test)"));
+        Assert.Equal(CommandOutcomeKind.Refused, ground.Kind);
+        var unknown = await run.Commands.ExecuteAsync(Manager, new SetLightStep("x", 3, "step 3 (test)"));
+        Assert.Equal(CommandOutcomeKind.Refused, unknown.Kind);
+        Assert.Contains("light step 3 is not configured", unknown.Message, StringComparison.Ordinal);
+        var blank = await run.Commands.ExecuteAsync(Manager, new SetLightStep("x", 0, " "));
+        Assert.Equal(CommandOutcomeKind.Refused, blank.Kind);
+        Assert.Contains("reason", blank.Message, StringComparison.Ordinal);
+
+        var outcome = await run.Commands.ExecuteAsync(Manager, new SetLightStep("someone-else", 0, "runway lights failed (test)"));
+        Assert.Equal(CommandOutcomeKind.Applied, outcome.Kind);
+        var entry = (await LiveClient.EntriesAsync(run.App)).Single(e => e.Sequence == outcome.AuditSequence);
+        Assert.Equal(("dm.test", "manual_action"), (entry.Actor, entry.Kind));
+        Assert.Contains("\"light_step\"", entry.PayloadJson, StringComparison.Ordinal);
+        Assert.Contains("runway lights failed (test)", entry.PayloadJson, StringComparison.Ordinal);
+        var after = (await LiveClient.StateAsync(run.App)).GetProperty("lightStep");
+        Assert.Equal("manual", after.GetProperty("origin").GetString());
+        Assert.Equal(0, after.GetProperty("step").GetDouble());
+        Assert.Equal("dm.test", after.GetProperty("source").GetString());
+        await LiveClient.AssertChainVerifiesAsync(run.App);
+    }
+
+    [Fact]
     public async Task AppliedCommand_IsAuditedUnderTheCallersName_BeforeTheStateShowsIt()
     {
         await using var run = await Run.StartAsync();

@@ -3,7 +3,7 @@ namespace OpsLvp.Core.Engine.Replay;
 /// <summary>
 /// Actions CSV (docs/replay.md): header <c>time,actor,action,target,value,reason</c>, fields quoted per
 /// RFC 4180 when they hold commas. Actions: declare (target preparation|active), cancel, release_hold,
-/// forecast (value on|off), sensor_out / sensor_in (target sensor id), confirm, tick (target item id, value
+/// forecast (value on|off), light_step (value the step, 0 = lights off), sensor_out / sensor_in (target sensor id), confirm, tick (target item id, value
 /// team id, reason = optional note), untick (target item id), ack (target alarm key). Syntax errors throw
 /// <see cref="FormatException"/> naming file and line; whether an action can apply (a blank reason, an
 /// unknown item) is the engine's decision and appears as a command_refused event.
@@ -47,6 +47,9 @@ public static class ActionsCsv
                 }, reason),
                 "sensor_out" => new SetSensorService(actor, Required(target, "target (sensor id)", row.Error), false, reason),
                 "sensor_in" => new SetSensorService(actor, Required(target, "target (sensor id)", row.Error), true, reason),
+                "light_step" => new SetLightStep(actor, int.TryParse(value, System.Globalization.NumberStyles.None, System.Globalization.CultureInfo.InvariantCulture, out var step)
+                    ? step
+                    : throw row.Error($"light_step value must be a whole step number (0 = lights off), not '{value}'"), reason),
                 "confirm" => new ConfirmPending(actor, reason.Length == 0 ? null : reason),
                 "tick" => new TickItem(actor, Required(value, "value (team id)", row.Error), Required(target, "target (item id)", row.Error), reason.Length == 0 ? null : reason),
                 "untick" => new UntickItem(actor, Required(target, "target (item id)", row.Error), reason),

@@ -59,6 +59,7 @@ public static class ReplayRunner
             {
                 now = readingNow!.Value;
                 var reading = readings[r++];
+                derivation.ManualStep = state.ManualLightStep; // the duty manager's setting as of now (docs/engine.md R20)
                 inputs = [new ReadingInput(reading), .. derivation.Observe(reading).Select(d => new ReadingInput(d))];
             }
             var result = engine.Evaluate(state, inputs, now);

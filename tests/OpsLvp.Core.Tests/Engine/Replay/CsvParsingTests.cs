@@ -51,7 +51,8 @@ public class CsvParsingTests
             + "2026-12-01T03:06:00Z,Lin,confirm,,,\n"
             + "2026-12-01T03:07:00Z,Kim,tick,P1,airside,note\n"
             + "2026-12-01T03:08:00Z,Kim,untick,P1,,mistake\n"
-            + "2026-12-01T03:09:00Z,Lin,ack,rvr-unknown,,\n";
+            + "2026-12-01T03:09:00Z,Lin,ack,rvr-unknown,,\n"
+            + "2026-12-01T03:10:00Z,Lin,light_step,,0,lights off\n";
         var commands = ActionsCsv.Parse(text, "a.csv").Select(a => a.Command).ToList();
         Assert.Equal<EngineCommand>(
         [
@@ -65,6 +66,7 @@ public class CsvParsingTests
             new TickItem("Kim", "airside", "P1", "note"),
             new UntickItem("Kim", "P1", "mistake"),
             new AcknowledgeAlarm("Lin", "rvr-unknown"),
+            new SetLightStep("Lin", 0, "lights off"),
         ], commands);
     }
 
@@ -72,6 +74,8 @@ public class CsvParsingTests
     [InlineData("2026-12-01T03:00:00Z,Lin,dance,,,r", "a.csv line 2: unknown action 'dance'")]
     [InlineData("2026-12-01T03:00:00Z,Lin,declare,normal,,r", "a.csv line 2: declare target must be preparation or active")]
     [InlineData("2026-12-01T03:00:00Z,Lin,forecast,,maybe,r", "a.csv line 2: forecast value must be on or off")]
+    [InlineData("2026-12-01T03:00:00Z,Lin,light_step,,high,r", "a.csv line 2: light_step value must be a whole step number")]
+    [InlineData("2026-12-01T03:00:00Z,Lin,light_step,,,r", "a.csv line 2: light_step value must be a whole step number")]
     [InlineData("2026-12-01T03:00:00Z,Lin,tick,P1,,", "a.csv line 2: value (team id) is empty")]
     [InlineData("2026-12-01T03:00:00Z,Lin,cancel,,,\"open", "a.csv line 2: unterminated quoted field")]
     public void Actions_MalformedLine_NamesFileAndLine(string line, string expected)

@@ -55,4 +55,40 @@ public sealed class LightStepReplayTests
         Assert.Equal(Phase.Normal, t.From);
         Assert.StartsWith("RVR 07 END 300 m <", t.Reason, StringComparison.Ordinal);
     }
+
+    private static List<Reading> NightWithoutLightingSensor()
+    {
+        var sigmaPerKm = -Math.Log(0.05) / 0.300; // MOR 300 m (WMO-No. 8)
+        return
+        [
+            new Reading(T0, "LUM", ReadingKind.BackgroundLuminance, 1),
+            new Reading(T0, "RVR07T", ReadingKind.Rvr, 1500),
+            new Reading(T0, "RVR07M", ReadingKind.Rvr, 1500),
+            new Reading(T0, "CEIL1", ReadingKind.CloudBase, 5000),
+            new Reading(T0.AddSeconds(1), "RVR25T", ReadingKind.Extinction, sigmaPerKm),
+            new Reading(T0.AddSeconds(70), "RVR25T", ReadingKind.Extinction, sigmaPerKm),
+        ];
+    }
+
+    [Fact]
+    public void LightStepAction_SetsTheStepTheDerivationUses_AsLiveWould()
+    {
+        var profile = TestProfiles.Standard() with
+        {
+            Sensors = [.. TestProfiles.Standard().Sensors, new SensorConfig("LUM", SensorType.Luminance)],
+            Lights = new LightsConfig { IntensityCdByStep = new Dictionary<int, double> { [1] = 100, [5] = 10_000 }, StepInUse = 5 },
+        };
+        var key = EngineState.SensorKey("RVR25T", ReadingKind.Rvr);
+        // without the action: step 5 (10 000 cd) at night, 0900 (docs/sources.md "Optics" worked check)
+        Assert.Equal(900, ReplayRunner.Run(profile, NightWithoutLightingSensor(), [], T0.AddSeconds(90)).FinalState.Latest[key].Value);
+
+        var actions = ActionsCsv.Parse(ActionsCsv.Header + "\n"
+            + $"{T0.AddSeconds(5):yyyy-MM-ddTHH:mm:ssZ},Lin (invented),light_step,,0,runway lights failed (invented)\n", "a.csv");
+        var result = ReplayRunner.Run(profile, NightWithoutLightingSensor(), actions, T0.AddSeconds(90));
+        // the sample at +70 s is the only one in its 1-minute mean and was assessed with the lights off: RVR = MOR, 0300
+        Assert.Equal(300, result.FinalState.Latest[key].Value);
+        Assert.Equal(0, result.FinalState.ManualLightStep?.Step);
+        var applied = Assert.Single(result.Events.OfType<ManualActionApplied>());
+        Assert.Equal(("light_step", "Lin (invented)"), (applied.Action, applied.Actor));
+    }
 }

@@ -141,6 +141,35 @@ public sealed class DutyConsoleTests : LiveComponentTest
     }
 
     [Fact]
+    public void LightStep_ShowsWhoSetIt_AndEachStepButtonSendsSetLightStep()
+    {
+        // docs/engine.md R20; steps, names and reasons invented
+        SignIn(Dm, Roles.DutyManager);
+        Live.Set(TestSnapshots.Make(1) with
+        {
+            LightStep = new OpsLvp.Core.Optics.LightStepInUse(3, OpsLvp.Core.Optics.LightStepOrigin.Manual, "lee (invented)", TestSnapshots.T0, false),
+            LightSteps = [0, 3, 5],
+        });
+        var cut = RenderConsole();
+        Assert.Equal("3 (set by lee (invented) at 03:00Z)", cut.Find("[data-testid=console-light-step]").TextContent.Trim());
+        Assert.Equal(["0", "3", "5"], cut.FindAll("[data-testid=console-light-step-set]").Select(b => b.GetAttribute("data-step")));
+
+        cut.Find("[data-testid=console-light-step-set][data-step='0']").Click();
+        cut.WaitForElement("[data-testid=reason-dialog]");
+        TypeReason(cut, "runway lights failed (invented)");
+        cut.Find("[data-testid=reason-submit]").Click();
+        cut.WaitForAssertion(() => Assert.Single(Commands.Calls));
+        Assert.Equal(new SetLightStep(Dm, 0, "runway lights failed (invented)"), Commands.Calls[0].Command);
+    }
+
+    [Theory]
+    [InlineData(0.0, "Sensor", "agl", false, "0, lights off (lighting sensor agl)")]
+    [InlineData(null, "Sensor", "agl", true, "unknown (lighting sensor agl stale) — lowest configured intensity used")]
+    [InlineData(5.0, "Profile", null, false, "5 (profile starting value)")]
+    public void LightStepText_SaysTheStepAndItsOrigin(double? step, string origin, string? source, bool unknown, string expected) =>
+        Assert.Equal(expected, DutyConsole.LightStepText(new OpsLvp.Core.Optics.LightStepInUse(step, Enum.Parse<OpsLvp.Core.Optics.LightStepOrigin>(origin), source, null, unknown)));
+
+    [Fact]
     public void RefusedOutcome_IsShownAsASnackbar()
     {
         SignIn(Dm, Roles.DutyManager);

@@ -12,7 +12,7 @@ namespace OpsLvp.Web.Components.Pages.Console;
 
 /// <summary>
 /// The duty manager's console: condition summary, what the engine waits for, the pending transition, the
-/// declare/cancel/hold/forecast/sensor actions (each asking a reason in a dialog) and each team's progress.
+/// declare/cancel/hold/forecast/light-step/sensor actions (each asking a reason in a dialog) and each team's progress.
 /// Buttons show only for duty managers; the command service decides and its outcome is shown as a snackbar.
 /// </summary>
 public partial class DutyConsole : LiveComponentBase
@@ -151,6 +151,31 @@ public partial class DutyConsole : LiveComponentBase
             currentlyOutOfService ? $"Mark {sensorId} back in service: its readings count again." : $"Mark {sensorId} out of service: its readings no longer count.",
             currentlyOutOfService ? "Back in service" : "Out of service", Color.Primary,
             reason => new SetSensorService(_caller.Name, sensorId, currentlyOutOfService, reason));
+
+    private Task SetLightStepAsync(int step) =>
+        AskAndRunAsync($"Set runway-light step {step}",
+            step == 0
+                ? "Record that the runway lights are off (step 0): RVR is then the object range alone (MOR). The setting is audited and stands until a newer lighting-sensor reading."
+                : $"Record that the runway lights are at step {step}: RVR uses its intensity. The setting is audited and stands until a newer lighting-sensor reading.",
+            $"Set step {step}", Color.Primary,
+            reason => new SetLightStep(_caller.Name, step, reason));
+
+    /// <summary>"3 (set by kim at 06:10)", "0, lights off (lighting sensor LGT1)", "unknown (lighting sensor LGT1 stale) — lowest intensity used".</summary>
+    internal static string LightStepText(OpsLvp.Core.Optics.LightStepInUse? use)
+    {
+        if (use is null)
+        {
+            return "—";
+        }
+        var step = use.Step is { } v ? (v == 0 ? "0, lights off" : v.ToString("0.##", CultureInfo.InvariantCulture)) : "unknown";
+        var origin = use.Origin switch
+        {
+            OpsLvp.Core.Optics.LightStepOrigin.Manual => $"set by {use.Source}{(use.Since is { } at ? " at " + DisplayFormat.UtcClock(at) : "")}",
+            OpsLvp.Core.Optics.LightStepOrigin.Sensor => use.Step is null ? $"lighting sensor {use.Source} stale" : $"lighting sensor {use.Source}",
+            _ => "profile starting value",
+        };
+        return $"{step} ({origin}){(use.Unknown ? " — lowest configured intensity used" : "")}";
+    }
 
     private async Task AskAndRunAsync(string title, string prompt, string confirmText, Color color, Func<string, EngineCommand> command)
     {
