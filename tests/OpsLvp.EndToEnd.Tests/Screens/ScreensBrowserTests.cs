@@ -117,9 +117,12 @@ public sealed partial class ScreensBrowserTests(ITestOutputHelper output)
         await phone.WaitForURLAsync(url => new Uri(url).AbsolutePath == "/actions", new() { Timeout = 45_000 });
         await Expect(phone.Locator("[data-testid=action-item]").First).ToBeVisibleAsync(new() { Timeout = 10_000 });
         await AssertNothingCoveredAsync(phone, "phone 390x844");
+        // The interactive render may replace the header while it is measured: wait until it is shown, then measure.
+        await Expect(phone.Locator("[data-testid=app-header]")).ToBeVisibleAsync(new() { Timeout = 10_000 });
         var header = await phone.Locator("[data-testid=app-header]").BoundingBoxAsync();
         Assert.NotNull(header);
         Assert.True(header.Height <= 64, $"the phone header wraps: {header.Height} px high");
+        await Expect(phone.Locator("[data-testid=signout-button]")).ToBeVisibleAsync(new() { Timeout = 10_000 });
         var signOut = await phone.Locator("[data-testid=signout-button]").BoundingBoxAsync();
         Assert.True(signOut is not null && signOut.X + signOut.Width <= 390, "the phone header pushes its sign-out off the screen");
         await SaveAsync(phone, "phone-390x844.png");
