@@ -117,14 +117,17 @@ public sealed partial class ScreensBrowserTests(ITestOutputHelper output)
         await phone.WaitForURLAsync(url => new Uri(url).AbsolutePath == "/actions", new() { Timeout = 45_000 });
         await Expect(phone.Locator("[data-testid=action-item]").First).ToBeVisibleAsync(new() { Timeout = 10_000 });
         await AssertNothingCoveredAsync(phone, "phone 390x844");
-        // The interactive render may replace the header while it is measured: wait until it is shown, then measure.
+        // Measured in one script turn: the interactive render may replace the header between two Playwright calls.
         await Expect(phone.Locator("[data-testid=app-header]")).ToBeVisibleAsync(new() { Timeout = 10_000 });
-        var header = await phone.Locator("[data-testid=app-header]").BoundingBoxAsync();
-        Assert.NotNull(header);
-        Assert.True(header.Height <= 64, $"the phone header wraps: {header.Height} px high");
-        await Expect(phone.Locator("[data-testid=signout-button]")).ToBeVisibleAsync(new() { Timeout = 10_000 });
-        var signOut = await phone.Locator("[data-testid=signout-button]").BoundingBoxAsync();
-        Assert.True(signOut is not null && signOut.X + signOut.Width <= 390, "the phone header pushes its sign-out off the screen");
+        var box = await phone.EvaluateAsync<double[]>("""
+            () => {
+              const h = document.querySelector('[data-testid=app-header]');
+              const s = document.querySelector('[data-testid=signout-button]');
+              return [h ? h.getBoundingClientRect().height : -1, s ? s.getBoundingClientRect().right : -1];
+            }
+            """);
+        Assert.True(box[0] > 0 && box[0] <= 64, $"the phone header wraps or is missing: {box[0]} px high");
+        Assert.True(box[1] > 0 && box[1] <= 390, $"the phone header pushes its sign-out off the screen (right edge {box[1]} px)");
         await SaveAsync(phone, "phone-390x844.png");
 
         var signIn = await browser.NewPageAsync(390, 844, touch: true);
