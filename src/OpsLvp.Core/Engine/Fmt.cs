@@ -21,4 +21,7 @@ internal static class Fmt
             : $"{N(Math.Floor(held.TotalMinutes))} of {N(Math.Round(required.TotalMinutes, 1))} min";
 
     public static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+
+    /// <summary>A change of phase in running text, in the one vocabulary's words ("LVP preparation to LVP in force"; never "->").</summary>
+    public static string Change(Phase from, Phase to) => Presentation.LvpVocabulary.Change(from, to);
 }

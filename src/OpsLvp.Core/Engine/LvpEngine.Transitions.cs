@@ -22,7 +22,7 @@ public sealed partial class LvpEngine
                 if (State.Pending is { } pending && (desired is null || desired.Value.To != pending.To))
                 {
                     var why = desired is { } other
-                        ? $"superseded: {Fmt.Name(pending.From)} -> {Fmt.Name(other.To)} is due instead"
+                        ? $"superseded: {Fmt.Change(pending.From, other.To)} is due instead"
                         : State.Hold is { } hold && Severity(pending.To) < Severity(hold.Phase)
                             ? $"hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}"
                             : pending.To == Phase.Active && DwellDone(ConditionKind.Active, t)
@@ -40,7 +40,7 @@ public sealed partial class LvpEngine
                     if (State.Phase == Phase.Normal && d.To == Phase.Active && !_model.NeedsConfirmation(Phase.Normal, Phase.Preparation))
                     {
                         // never a calmer screen than the conditions (R14): preparation needs no confirmation, so it is entered now
-                        Transition(Phase.Preparation, TransitionBy.Auto, null, $"{d.Reason}; normal -> active needs confirmation", sit, null, t);
+                        Transition(Phase.Preparation, TransitionBy.Auto, null, $"{d.Reason}; {Fmt.Change(Phase.Normal, Phase.Active)} needs confirmation", sit, null, t);
                         continue;
                     }
                     if (State.Pending is null)

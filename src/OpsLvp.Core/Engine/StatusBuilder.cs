@@ -96,7 +96,7 @@ internal static class StatusBuilder
         {
             waiting.Add(new WaitingFor(
                 WaitKind.Confirmation,
-                $"waiting for confirmation: {Fmt.Name(pending.From)} -> {Fmt.Name(pending.To)} proposed {Fmt.Time(pending.ConditionMetAt)} ({pending.Reason})",
+                $"waiting for confirmation: {Fmt.Change(pending.From, pending.To)} proposed {Fmt.Time(pending.ConditionMetAt)} ({pending.Reason})",
                 null, null, []));
         }
         if (state.Hold is { } hold)

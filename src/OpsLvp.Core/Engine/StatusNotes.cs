@@ -21,7 +21,7 @@ public static class StatusNotes
         }
         if (status.RelaxedAgainstConditions is { } r)
         {
-            notes.Add($"relaxed by {r.Actor} against conditions ({Fmt.Name(r.From)} -> {Fmt.Name(r.To)} at {Fmt.Time(r.At)})");
+            notes.Add($"relaxed by {r.Actor} against conditions ({Fmt.Change(r.From, r.To)} at {Fmt.Time(r.At)})");
         }
         return notes;
     }

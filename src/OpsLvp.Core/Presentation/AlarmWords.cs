@@ -31,7 +31,13 @@ public static class AlarmWords
         {
             return $"confirm {LvpVocabulary.Change(pending.From, pending.To)}: {pending.Reason}";
         }
-        var text = alarm.Message;
+        return Words(alarm.Message);
+    }
+
+    /// <summary>An engine text (a reason, a detail) with any ASCII arrow between phase names written as the vocabulary's words.</summary>
+    public static string Words(string text)
+    {
+        ArgumentNullException.ThrowIfNull(text);
         foreach (var from in Enum.GetValues<Phase>())
         {
             foreach (var to in Enum.GetValues<Phase>())

@@ -41,8 +41,11 @@ public sealed class LiveEngineHost(
     DemoMode demo,
     TimeProvider clock,
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
-    ILogger<LiveEngineHost> logger) : BackgroundService
+    ILogger<LiveEngineHost> logger,
+    ILoggerFactory loggerFactory) : BackgroundService
 {
+    private readonly ILogger _night = loggerFactory.CreateLogger(NightLog.Category);
+
     private const int MaxBatchesPerEvaluation = 64;
 
     private static readonly TimeSpan s_heartbeat = TimeSpan.FromSeconds(2);
@@ -456,6 +459,8 @@ public sealed class LiveEngineHost(
             batch.Receipt?.Confirm();
         }
         _feedJournal.Recorded(feedChanges, realNow);
+        // the night's account, only of what the commit above put on record (docs/deployment.md "The server log")
+        NightLog.Write(_night, result.Events, feedChanges, now);
         foreach (var (reading, _) in fresh)
         {
             if (!rejected.ContainsKey(reading))
