@@ -14,7 +14,15 @@ if (HealthCheckMode.Requested(args))
     return await HealthCheckMode.RunAsync(args);
 }
 
-var builder = WebApplication.CreateBuilder(args);
+// Settings, web root, profile and assets from the application's folder when started from another working folder
+// (docs/deployment.md "Folders"); anything missing stops the start with a message naming it.
+var builder = WebApplication.CreateBuilder(StartupPaths.Options(args, Directory.GetCurrentDirectory(), AppContext.BaseDirectory, Environment.GetEnvironmentVariable));
+StartupPaths.UseBuildAssetsWhenNotPublished(builder);
+if (StartupPaths.Missing(builder.Environment) is { } missing)
+{
+    await Console.Error.WriteLineAsync(missing);
+    return 2;
+}
 
 // SQL statements at Warning in every environment, whatever appsettings a folder happens to provide: a night's log
 // tells the night, not the queries (a more specific Logging:LogLevel category can still ask for them).
