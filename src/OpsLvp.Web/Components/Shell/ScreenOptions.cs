@@ -11,4 +11,10 @@ public sealed class ScreenOptions
     /// Between 0.2 s and 60 s; default 2 s.
     /// </summary>
     public TimeSpan HeartbeatInterval { get; set; } = TimeSpan.FromSeconds(2);
+
+    /// <summary>
+    /// How long a tablet's cards stay in place after the last touch when the person does not scroll
+    /// (Pages/Actions/TabletCards). Real time, between 1 s and 10 min; default 5 s.
+    /// </summary>
+    public TimeSpan TabletCardHold { get; set; } = TimeSpan.FromSeconds(5);
 }

@@ -41,6 +41,10 @@ public partial class ActionItemCard
     [Parameter]
     public DateTimeOffset Now { get; set; }
 
+    /// <summary>Raised when the person starts acting on this card (tick, undo, not applicable) and when it is sent: the page holds its order (<see cref="TabletCards"/>).</summary>
+    [Parameter]
+    public EventCallback Touched { get; set; }
+
     internal TickStage Stage => _stage;
 
     private string PhaseLabel => Item.Phase.ToString().ToLowerInvariant();
@@ -83,25 +87,28 @@ public partial class ActionItemCard
         }
     }
 
-    private void AskConfirm()
+    private Task AskConfirm()
     {
         _message = null;
         _note = null;
         _stage = TickStage.Confirming;
+        return Touched.InvokeAsync();
     }
 
-    private void AskUndo()
+    private Task AskUndo()
     {
         _message = null;
         _reason = null;
         _stage = TickStage.UndoReason;
+        return Touched.InvokeAsync();
     }
 
-    private void AskNotApplicable()
+    private Task AskNotApplicable()
     {
         _message = null;
         _reason = null;
         _stage = TickStage.NotApplicableReason;
+        return Touched.InvokeAsync();
     }
 
     private void Back() => _stage = TickStage.Idle;
@@ -118,6 +125,7 @@ public partial class ActionItemCard
     private async Task SendAsync(EngineCommand command, ItemStatus wanted)
     {
         _stage = TickStage.Sending;
+        await Touched.InvokeAsync();
         _wanted = wanted;
         _waitBeyondVersion = null;
         _message = null;
