@@ -47,7 +47,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     public string Output => string.Join(Environment.NewLine, _output);
 
     /// <summary>Starts the app on <paramref name="profileJson"/> (default <see cref="TestProfile.Json"/>) with the standard accounts seeded.</summary>
-    public static async Task<OpsLvpServer> StartAsync(string? profileJson = null)
+    public static async Task<OpsLvpServer> StartAsync(string? profileJson = null, IReadOnlyDictionary<string, string>? settings = null)
     {
         var dll = WebAppDll();
         var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-e2e", Guid.NewGuid().ToString("N"));
@@ -79,6 +79,10 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         start.Environment["Access__SignInPerAddressPerMinute"] = "1000";
         start.Environment["Access__SignInAttemptsPerAccount"] = "1000";
         start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
+        foreach (var (key, value) in settings ?? new Dictionary<string, string>())
+        {
+            start.Environment[key] = value;
+        }
 
         var output = new ConcurrentQueue<string>();
         var listening = new TaskCompletionSource<Uri>(TaskCreationOptions.RunContinuationsAsynchronously);
