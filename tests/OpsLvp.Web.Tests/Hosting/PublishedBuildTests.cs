@@ -16,7 +16,7 @@ public sealed class PublishedBuildTests
 {
     [Fact]
     [Trait("Speed", "Slow")]
-    public async Task PublishedBuild_StartedFromAnotherFolder_ServesRealScripts_Assets_Settings_AndProfile()
+    public async Task PublishedBuild_StartedFromAnotherFolder_ServesRealScripts_Assets_Settings_AndProfile_AndLogsNoSql()
     {
         var root = Path.Combine(Path.GetTempPath(), "opslvp-tests", "publish-" + Guid.NewGuid().ToString("N"));
         var app = Path.Combine(root, "app");
@@ -28,7 +28,9 @@ public sealed class PublishedBuildTests
             Assert.True(File.Exists(Path.Combine(app, "wwwroot-assets", "opslvp.css")), "wwwroot-assets is not in the publish output");
             Assert.True(File.Exists(Path.Combine(app, "seed-demo", "profile.json")), "seed-demo is not in the publish output");
 
-            await using var server = await PublishedServer.StartAsync(app, elsewhere, []);
+            // a settings source asking for SQL at Information: the server keeps it at Warning in every environment (issue 13)
+            await using var server = await PublishedServer.StartAsync(app, elsewhere, [],
+                new Dictionary<string, string> { ["Logging__LogLevel__Microsoft.EntityFrameworkCore"] = "Information" });
 
             var blazor = await server.Client.GetByteArrayAsync(new Uri("/_framework/blazor.web.js", UriKind.Relative));
             var mud = await server.Client.GetByteArrayAsync(new Uri("/_content/MudBlazor/MudBlazor.min.js", UriKind.Relative));
@@ -45,6 +47,10 @@ public sealed class PublishedBuildTests
             Assert.Empty(Directory.EnumerateFileSystemEntries(elsewhere));
 
             // the script the pages actually name (fingerprinted) is served too
+            Assert.DoesNotContain(server.Output, l => l.StartsWith("info: Microsoft.EntityFrameworkCore", StringComparison.Ordinal)
+                || l.StartsWith("dbug: Microsoft.EntityFrameworkCore", StringComparison.Ordinal));
+            Assert.Contains(server.Output, l => l.StartsWith("info: Microsoft.Hosting.Lifetime", StringComparison.Ordinal)); // the console log is read at all
+
             var page = await server.Client.GetStringAsync(new Uri("/", UriKind.Relative));
             var named = System.Text.RegularExpressions.Regex.Match(page, "src=\"([^\"]*_framework/blazor\\.web[^\"]*\\.js)\"");
             Assert.True(named.Success, "the home page names no blazor.web script");

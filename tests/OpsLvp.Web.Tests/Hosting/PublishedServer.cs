@@ -21,10 +21,13 @@ public sealed partial class PublishedServer : IAsyncDisposable
 
     public HttpClient Client { get; }
 
-    public static async Task<PublishedServer> StartAsync(string appFolder, string workingFolder, string[] args)
+    /// <summary>Everything the server wrote so far (stdout and stderr), one entry per line.</summary>
+    public IReadOnlyList<string> Output => [.. _output];
+
+    public static async Task<PublishedServer> StartAsync(string appFolder, string workingFolder, string[] args, IReadOnlyDictionary<string, string>? environment = null)
     {
         var output = new ConcurrentQueue<string>();
-        var process = Start(appFolder, workingFolder, ["--urls", "http://127.0.0.1:0", .. args], output);
+        var process = Start(appFolder, workingFolder, ["--urls", "http://127.0.0.1:0", .. args], output, environment);
         var deadline = DateTime.UtcNow.AddSeconds(90); // generous: a loaded CI machine can take tens of seconds to start
         Uri? address = null;
         while (address is null)
@@ -79,7 +82,7 @@ public sealed partial class PublishedServer : IAsyncDisposable
         return (process.ExitCode, string.Join(Environment.NewLine, output));
     }
 
-    private static Process Start(string appFolder, string workingFolder, string[] args, ConcurrentQueue<string> output)
+    private static Process Start(string appFolder, string workingFolder, string[] args, ConcurrentQueue<string> output, IReadOnlyDictionary<string, string>? environment = null)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -98,6 +101,10 @@ public sealed partial class PublishedServer : IAsyncDisposable
         start.Environment.Remove("ASPNETCORE_CONTENTROOT");
         start.Environment.Remove("DOTNET_CONTENTROOT");
         start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
+        foreach (var (key, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[key] = value;
+        }
         var process = Process.Start(start)!;
         process.OutputDataReceived += (_, e) => { if (e.Data is not null) { output.Enqueue(e.Data); } };
         process.ErrorDataReceived += (_, e) => { if (e.Data is not null) { output.Enqueue(e.Data); } };
