@@ -185,7 +185,8 @@ public sealed partial class LvpEngine
                 return;
             }
             State = State with { DeteriorationForecast = on, ForecastSource = source };
-            Events.Add(new ForecastFlagChanged(t, on, source?.Manual ?? false, source?.Manual == true ? $"set by hand by {source.Actor}" : source?.ShortForm, reason));
+            Events.Add(new ForecastFlagChanged(t, on, source?.Manual ?? false, source?.Manual == true ? $"set by hand by {source.Actor}" : source?.ShortForm, reason,
+                source?.Manual == false ? source.From : null, source?.Manual == false ? source.Until : null));
         }
 
         /// <summary>Instants in (after, …) at which the automatic flag can change with no input (R28): see <see cref="ForecastOutlook.ChangeInstants"/>.</summary>

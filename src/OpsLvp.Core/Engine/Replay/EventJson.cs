@@ -163,6 +163,11 @@ public static class EventJson
                     w.WriteString("by", f.Manual ? "manual" : "forecast");
                     Optional(w, "source", f.Source, writeNull: true);
                     w.WriteString("reason", f.Reason);
+                    if (f.From is { } windowFrom && f.Until is { } windowUntil)
+                    {
+                        w.WriteString("window_from", Fmt.Time(windowFrom));
+                        w.WriteString("window_until", Fmt.Time(windowUntil));
+                    }
                     break;
                 case EpisodeEnded s:
                     w.WriteString("episode", s.EpisodeId);
