@@ -69,6 +69,7 @@ app.UseAntiforgery();
 app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
+app.MapForecastsApi();
 app.MapLiveApi();
 app.MapReviewApi().RequireAuthorization(AccessPolicies.Review);
 app.MapAccessEndpoints();

@@ -5,7 +5,7 @@ using OpsLvp.Core.Review;
 namespace OpsLvp.Cli.Commands;
 
 /// <summary>
-/// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME]` (docs/cli.md): runs the
+/// `opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--forecasts F.csv] [--until TIME]` (docs/cli.md): runs the
 /// engine over the files and writes one JSON line per event. Formats: docs/replay.md.
 /// `opslvp replay --episode E.json [--profile other.json]` replays an episode export (docs/review.md) with its own
 /// profile or another one (what-if).
@@ -14,7 +14,7 @@ public sealed class ReplayCommand : ICliCommand
 {
     public IReadOnlyList<string> Path { get; } = ["replay"];
 
-    public string Usage => "opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--until TIME] | opslvp replay --episode E.json [--profile P.json]";
+    public string Usage => "opslvp replay --profile P.json --readings R.csv [--actions A.csv] [--forecasts F.csv] [--until TIME] | opslvp replay --episode E.json [--profile P.json]";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
@@ -22,7 +22,7 @@ public sealed class ReplayCommand : ICliCommand
         for (var i = 0; i < args.Count; i++)
         {
             var name = args[i];
-            if (name is not ("--profile" or "--readings" or "--actions" or "--until" or "--episode"))
+            if (name is not ("--profile" or "--readings" or "--actions" or "--forecasts" or "--until" or "--episode"))
             {
                 throw new CliUsageException($"unknown option '{name}'; usage: {Usage}");
             }
@@ -51,6 +51,9 @@ public sealed class ReplayCommand : ICliCommand
         var actions = options.TryGetValue("--actions", out var actionsPath)
             ? ActionsCsv.Parse(File.ReadAllText(actionsPath), actionsPath)
             : [];
+        var forecasts = options.TryGetValue("--forecasts", out var forecastsPath)
+            ? ForecastsCsv.Parse(File.ReadAllText(forecastsPath), forecastsPath)
+            : [];
         DateTimeOffset? until = null;
         if (options.TryGetValue("--until", out var untilText))
         {
@@ -58,7 +61,7 @@ public sealed class ReplayCommand : ICliCommand
                 ? u
                 : throw new CliUsageException($"--until must be an ISO 8601 UTC time ending in Z, not '{untilText}'");
         }
-        var result = ReplayRunner.Run(profile, readings, actions, until);
+        var result = ReplayRunner.Run(profile, readings, actions, forecasts, until);
         foreach (var e in result.Events)
         {
             stdout.WriteLine(EventJson.ToLine(e));
@@ -68,7 +71,7 @@ public sealed class ReplayCommand : ICliCommand
 
     private int RunEpisode(string episodePath, Dictionary<string, string> options, TextWriter stdout, TextWriter stderr)
     {
-        if (options.ContainsKey("--readings") || options.ContainsKey("--actions") || options.ContainsKey("--until"))
+        if (options.ContainsKey("--readings") || options.ContainsKey("--actions") || options.ContainsKey("--forecasts") || options.ContainsKey("--until"))
         {
             throw new CliUsageException($"--episode takes its readings, actions and end from the export; only --profile may be added; usage: {Usage}");
         }

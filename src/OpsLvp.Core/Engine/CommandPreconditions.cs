@@ -38,6 +38,8 @@ public static class CommandPreconditions
                 return Blank(c.Reason) ? "a reason is required to release a hold" : null;
             case SetForecast c:
                 return Blank(c.Reason) ? "a reason is required to set or clear the forecast" : null;
+            case ReleaseForecast c:
+                return Blank(c.Reason) ? "a reason is required to release the manual forecast setting" : null;
             case SetSensorService c:
                 if (Blank(c.Reason))
                 {

@@ -33,6 +33,15 @@ public sealed record EngineState
     /// <summary>Deterioration forecast flag (docs/engine.md R4).</summary>
     public bool DeteriorationForecast { get; init; }
 
+    /// <summary>Forecasts held: received, not expired (docs/engine.md R25, R28), oldest first.</summary>
+    public ImmutableList<HeldForecast> Forecasts { get; init; } = ImmutableList<HeldForecast>.Empty;
+
+    /// <summary>The duty manager's manual forecast setting, until released or a newer forecast arrives (docs/engine.md R27); null otherwise.</summary>
+    public ManualForecast? ManualForecast { get; init; }
+
+    /// <summary>What decides <see cref="DeteriorationForecast"/> now: a forecast part or a manual setting (docs/engine.md R26, R27); null when off by forecasts.</summary>
+    public ForecastFlagSource? ForecastSource { get; init; }
+
     /// <summary>The runway-light step last set by a duty manager (docs/engine.md R20); null while none was set.</summary>
     public ManualLightStep? ManualLightStep { get; init; }
 

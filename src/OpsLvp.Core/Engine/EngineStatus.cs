@@ -51,6 +51,9 @@ public sealed record EngineStatus(
     /// <summary>Active declared over open safeguards (docs/engine.md R13), shown while the phase is active; else null.</summary>
     public SafeguardsOverride? SafeguardsOverride { get; init; }
 
+    /// <summary>The forecast flag's source, manual setting and look-ahead (docs/engine.md R29); null before any forecast or setting.</summary>
+    public ForecastStatus? Forecast { get; init; }
+
     /// <summary>A manual relaxation against the conditions, shown beside the phase until they agree (docs/engine.md R15); else null.</summary>
     public Relaxation? RelaxedAgainstConditions { get; init; }
 }

@@ -42,13 +42,9 @@ public sealed partial class LvpEngine
                     Applied(now, c.Actor, "release_hold", $"released hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}", c.Reason);
                     return null;
                 case SetForecast c:
-                    if (State.DeteriorationForecast == c.On)
-                    {
-                        return $"deterioration forecast is already {(c.On ? "on" : "off")}";
-                    }
-                    State = State with { DeteriorationForecast = c.On };
-                    Applied(now, c.Actor, "forecast", $"deterioration forecast {(c.On ? "on" : "off")}", c.Reason);
-                    return null;
+                    return SetForecastByHand(c, now); // docs/engine.md R27
+                case ReleaseForecast c:
+                    return Release(c, now);
                 case SetSensorService c:
                     if (State.OutOfService.Contains(c.SensorId) != c.InService)
                     {

@@ -55,6 +55,10 @@ public sealed partial class LvpEngine
             {
                 Consider(DwellStart(kind, since) + _model.Dwell(kind));
             }
+            foreach (var instant in ForecastInstants())
+            {
+                Consider(instant);
+            }
             foreach (var item in State.Items)
             {
                 if (item.Status == ItemStatus.Open)

@@ -10,6 +10,7 @@ public sealed partial class LvpEngine
     {
         private void StepOnce(DateTimeOffset t)
         {
+            UpdateForecast(t); // docs/engine.md R26–R28
             for (var i = 0; i < MaxTransitionsPerInstant; i++)
             {
                 var sit = SituateNow(t);

@@ -83,6 +83,12 @@ public sealed partial class LvpEngine(AerodromeProfile profile)
                 case ReadingInput r:
                     run.Accept(r.Reading, now);
                     break;
+                case ForecastInput f:
+                    // like a command: sees the state at now with the inputs before it (docs/engine.md R25)
+                    run.Step(now);
+                    run.AcceptForecast(f, now);
+                    run.Step(now);
+                    break;
                 case EngineCommand c:
                     // the command sees the state at now with every input before it applied
                     run.Step(now);
@@ -104,5 +110,6 @@ public sealed partial class LvpEngine(AerodromeProfile profile)
     }
 
     /// <summary>What displays show: governing values with freshness, per-runway RVR, thresholds, and what the engine waits for.</summary>
-    public EngineStatus Describe(EngineState state, DateTimeOffset now) => StatusBuilder.Build(_model, state, now);
+    public EngineStatus Describe(EngineState state, DateTimeOffset now) =>
+        StatusBuilder.Build(_model, state, now) with { Forecast = DescribeForecast(state, now) };
 }

@@ -59,7 +59,9 @@ public sealed record EpisodeExport(
         ArgumentNullException.ThrowIfNull(audit);
         var from = episode.Start - LeadIn(profile);
         var cut = readings.Where(r => r.Time >= from && (episode.End is null || r.Time <= episode.End)).ToList();
-        var inEpisode = events.Where(e => e.At >= from && (episode.End is null || e.At <= episode.End)).ToList();
+        // forecasts received before the lead-in that are still valid at its start count in the replay too (docs/engine.md R25)
+        var inEpisode = events.Where(e => (e.At >= from || (e.Name == ForecastReceivedName && e.TimeField("valid_until") > from))
+            && (episode.End is null || e.At <= episode.End)).ToList();
         var until = episode.End ?? new[] { cut.Count > 0 ? cut.Max(r => r.Time) : episode.Start, inEpisode.Count > 0 ? inEpisode.Max(e => e.At) : episode.Start }.Max();
         return new EpisodeExport(
             episode.Id,
@@ -74,9 +76,31 @@ public sealed record EpisodeExport(
             until);
     }
 
-    /// <summary>Replays the export's readings and commands through <see cref="ReplayRunner"/> with <paramref name="profile"/> (default: its own).</summary>
+    /// <summary>
+    /// Replays the export's readings, commands and received forecasts (each at the instant it was received) through
+    /// <see cref="ReplayRunner"/> with <paramref name="profile"/> (default: its own).
+    /// </summary>
     public ReplayResult Replay(AerodromeProfile? profile = null) =>
-        ReplayRunner.Run(profile ?? Profile, Readings, RecordedCommands.ToCommands(Actions, $"episode {EpisodeId} actions"), ReplayUntil);
+        ReplayRunner.Run(profile ?? Profile, Readings, RecordedCommands.ToCommands(Actions, $"episode {EpisodeId} actions"), ForecastsFrom(Readings.Count > 0 ? Readings[0].Time : Start), ReplayUntil);
+
+    /// <summary>
+    /// The forecasts received, those received before the replay's first reading given at that instant instead (the
+    /// flag is then what it was live: it depends on the forecasts held and their issue times, not on when they came).
+    /// </summary>
+    private IReadOnlyList<ForecastInput> ForecastsFrom(DateTimeOffset first) =>
+        ForecastsOf(Events).Select(f => f.ReceivedAt < first ? f with { ReceivedAt = first } : f).ToList();
+
+    /// <summary>The event name of a received forecast (<see cref="ForecastReceived"/>).</summary>
+    public const string ForecastReceivedName = "forecast_received";
+
+    /// <summary>The forecasts the recorded events say were received, as replay inputs at their instants.</summary>
+    public static IReadOnlyList<ForecastInput> ForecastsOf(IEnumerable<RecordedEvent> events)
+    {
+        ArgumentNullException.ThrowIfNull(events);
+        return events.Where(e => e.Name == ForecastReceivedName && e.Str("text") is not null)
+            .Select(e => new ForecastInput(e.Str("origin") == "trend" ? Forecast.ForecastOrigin.Trend : Forecast.ForecastOrigin.Taf, e.Str("text")!, e.At))
+            .ToList();
+    }
 
     public string ToJson()
     {

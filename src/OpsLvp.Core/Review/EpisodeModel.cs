@@ -16,7 +16,11 @@ public static class EpisodeModel
     {
         ArgumentNullException.ThrowIfNull(events);
         ArgumentNullException.ThrowIfNull(readings);
-        return Bounds(events).Select(b => Summarise(b.Id, b.Start, b.End, Within(events, b.Start, b.End), readings, now)).ToList();
+        return Bounds(events).Select(b => Summarise(b.Id, b.Start, b.End, Within(events, b.Start, b.End), readings, now) with
+        {
+            ForecastLead = ForecastLead.Of(events, b.Start, b.End),
+            ForecastsReceived = events.Count(e => e.Name == EpisodeExport.ForecastReceivedName && e.At >= b.Start && (b.End is null || e.At <= b.End)),
+        }).ToList();
     }
 
     /// <summary>Every episode's id, start and end (null while it runs), in start order, from the events alone.</summary>

@@ -30,6 +30,12 @@ public sealed record EpisodeSummary(
     int Ticks,
     IReadOnlyList<PhaseSpan> Phases)
 {
+    /// <summary>How early preparation started compared with the first forecast that called for it (docs/review.md); null when none did.</summary>
+    public ForecastLead? ForecastLead { get; init; }
+
+    /// <summary>Forecasts (TAF, TREND) received during the episode.</summary>
+    public int ForecastsReceived { get; init; }
+
     /// <summary>Total time spent in <paramref name="phase"/> within the episode.</summary>
     public TimeSpan TimeIn(Phase phase) => Phases.Where(p => p.Phase == phase).Aggregate(TimeSpan.Zero, (sum, p) => sum + p.Duration);
 }

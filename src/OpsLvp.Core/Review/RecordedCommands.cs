@@ -80,7 +80,7 @@ public static class RecordedCommands
         return action switch
         {
             "declare" => new ActionRow(e.At, actor, "declare", DeclaredPhase(detail), "", reason),
-            "cancel" or "release_hold" => new ActionRow(e.At, actor, action, "", "", reason),
+            "cancel" or "release_hold" or "release_forecast" => new ActionRow(e.At, actor, action, "", "", reason),
             "forecast" => new ActionRow(e.At, actor, "forecast", "", detail.EndsWith(" on", StringComparison.Ordinal) ? "on" : "off", reason),
             "sensor_out" or "sensor_in" => new ActionRow(e.At, actor, action, SensorId(detail), "", reason),
             "light_step" => new ActionRow(e.At, actor, "light_step", "", LightStep(detail), reason),

@@ -18,6 +18,7 @@ public static class CommandAuthorizer
         [typeof(CancelLvp)] = Set(Roles.DutyManager),
         [typeof(ReleaseHold)] = Set(Roles.DutyManager),
         [typeof(SetForecast)] = Set(Roles.DutyManager),
+        [typeof(ReleaseForecast)] = Set(Roles.DutyManager),
         [typeof(SetSensorService)] = Set(Roles.DutyManager),
         [typeof(SetLightStep)] = Set(Roles.DutyManager),
         [typeof(ConfirmPending)] = Set(Roles.DutyManager),

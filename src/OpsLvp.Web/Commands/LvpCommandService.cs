@@ -66,6 +66,7 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
         CancelLvp => "LVP cancelled",
         ReleaseHold => "hold released",
         SetForecast f => f.On ? "deterioration forecast set" : "deterioration forecast cleared",
+        ReleaseForecast => "manual forecast setting released",
         SetSensorService s => s.InService ? $"{s.SensorId} back in service" : $"{s.SensorId} out of service",
         SetLightStep l => l.Step == 0 ? "light step 0 (lights off) set" : $"light step {l.Step} set",
         ConfirmPending => "transition confirmed",

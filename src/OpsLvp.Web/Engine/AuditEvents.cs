@@ -19,7 +19,8 @@ public static class AuditEvents
     /// <summary>The one entry a recording gap leaves: its start, end, cause and what was refused meanwhile (docs/reliability.md "Storage faults").</summary>
     public const string RecordingGap = "recording_gap";
 
-    public static bool IsAudited(EngineEvent e) => e is not ReadingRejected;
+    /// <summary>Rejected readings and forecasts are logged, not audited (a feed may repeat them every poll; docs/engine.md R25).</summary>
+    public static bool IsAudited(EngineEvent e) => e is not ReadingRejected and not ForecastRejected;
 
     public static string ActorOf(EngineEvent e) => e switch
     {

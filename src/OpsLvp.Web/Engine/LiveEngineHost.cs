@@ -389,6 +389,11 @@ public sealed class LiveEngineHost(
                 }
             }
             perBatch.Add((batch, from, fresh.Count));
+            foreach (var f in batch.Forecasts)
+            {
+                // received now, as a replay of the recorded forecast_received sees it (docs/engine.md R25)
+                inputs.Add(f with { ReceivedAt = now });
+            }
         }
         if (command is not null)
         {
@@ -402,6 +407,10 @@ public sealed class LiveEngineHost(
             if (e is ReadingRejected rr)
             {
                 rejected.TryAdd(rr.Reading, rr);
+            }
+            else if (e is ForecastRejected fr)
+            {
+                logger.LogWarning("Forecast rejected ({Origin}): {Reason}: {Text}", fr.Origin, fr.Reason, fr.Text);
             }
         }
 

@@ -11,6 +11,9 @@ public sealed class FeedsOptions
     /// <summary>METAR/SPECI text feeds, each under <c>Feeds:Metar:{i}</c>.</summary>
     public List<MetarFeedOptions> Metar { get; set; } = [];
 
+    /// <summary>TAF text feeds, each under <c>Feeds:Taf:{i}</c> (docs/feeds.md "TAF feeds").</summary>
+    public List<TafFeedOptions> Taf { get; set; } = [];
+
     public PushIngestOptions Push { get; set; } = new();
 
     /// <summary>

@@ -85,6 +85,30 @@ public sealed class FeedsOptionsValidator : IValidateOptions<FeedsOptions>
             CheckPolling(errors, at, feed.PollInterval, feed.Timeout, feed.Retries);
         }
 
+        var tafNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        for (var i = 0; i < options.Taf.Count; i++)
+        {
+            var feed = options.Taf[i];
+            var at = Msg($"Feeds:Taf:{i}");
+            if (string.IsNullOrWhiteSpace(feed.Name))
+            {
+                errors.Add($"{at}:Name must be set.");
+            }
+            else if (!tafNames.Add(feed.Name))
+            {
+                errors.Add($"{at}:Name '{feed.Name}' is used by another TAF feed.");
+            }
+            if (string.IsNullOrWhiteSpace(feed.Source))
+            {
+                errors.Add($"{at}:Source must be an http(s) URL or a file path.");
+            }
+            CheckPolling(errors, at, feed.PollInterval, feed.Timeout, feed.Retries);
+            if (feed.StaleAfter is { } stale && stale <= TimeSpan.Zero)
+            {
+                errors.Add($"{at}:StaleAfter must be positive when set.");
+            }
+        }
+
         var keyNames = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < options.Push.ApiKeys.Count; i++)
         {

@@ -26,6 +26,7 @@ public static class FeedsServiceCollectionExtensions
         services.AddHostedService<PushHealthRegistration>();
         services.AddHostedService<HttpFeedPoller>();
         services.AddHostedService<MetarFeedPoller>();
+        services.AddHostedService<TafFeedPoller>();
         services.AddHostedService<DemoSimulator>();
         return services;
     }

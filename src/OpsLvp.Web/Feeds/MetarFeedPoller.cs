@@ -1,5 +1,7 @@
 using System.Globalization;
 using Microsoft.Extensions.Options;
+using OpsLvp.Core.Engine;
+using OpsLvp.Core.Forecast;
 using OpsLvp.Core.Metar;
 using OpsLvp.Core.Readings;
 using OpsLvp.Web.Hosting;
@@ -14,7 +16,8 @@ namespace OpsLvp.Web.Feeds;
 /// each line with <see cref="MetarDecoder"/>, turn it into readings with <see cref="MetarReport.ToReadings"/> at the
 /// observation time resolved near the app clock, and hand them to the <see cref="ReadingPipeline"/>. A line that does
 /// not decode is a <see cref="RejectReason.Malformed"/> rejection; a report already sent gives duplicates that the
-/// engine rejects. A failing feed only changes its own health.
+/// engine rejects. A report with a TREND also gives a forecast input (docs/engine.md R25). A failing feed only changes
+/// its own health.
 /// </summary>
 public sealed class MetarFeedPoller(
     IOptions<FeedsOptions> options,
@@ -46,6 +49,7 @@ public sealed class MetarFeedPoller(
         ArgumentNullException.ThrowIfNull(text);
         var map = new MetarSensorMap(feed.RvrSensorByRunway, feed.VisibilitySensorId, feed.CloudBaseSensorId, feed.VerticalVisibilitySensorId, feed.NoCeilingCloudBaseFeet);
         var readings = new List<Reading>();
+        var forecasts = new List<ForecastInput>();
         var rejections = new List<ReadingRejection>();
         var index = 0;
         foreach (var raw in text.Split('\n'))
@@ -58,6 +62,11 @@ public sealed class MetarFeedPoller(
             if (MetarDecoder.TryDecode(line, out var report, out var error) && report is not null)
             {
                 readings.AddRange(report.ToReadings(report.Time.ResolveNear(now), map));
+                if (!string.IsNullOrWhiteSpace(report.Trend))
+                {
+                    // the TREND is a forecast input (docs/engine.md R25); the engine refuses one it cannot decode, with its reason
+                    forecasts.Add(new ForecastInput(ForecastOrigin.Trend, line, now));
+                }
             }
             else
             {
@@ -65,7 +74,7 @@ public sealed class MetarFeedPoller(
             }
             index++;
         }
-        return new ReadingBatch(SourceName(feed), now, readings, rejections);
+        return new ReadingBatch(SourceName(feed), now, readings, rejections) { Forecasts = forecasts };
     }
 
     private async Task RunFeedAsync(MetarFeedOptions feed, CancellationToken stoppingToken)

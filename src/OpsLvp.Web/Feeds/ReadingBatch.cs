@@ -8,4 +8,8 @@ namespace OpsLvp.Web.Feeds;
 /// Rejections here are structural (<see cref="RejectReason.Malformed"/>); the engine host applies the rest.
 /// A feed that must know whether the batch was durably recorded passes a <paramref name="Receipt"/>.
 /// </summary>
-public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IReadOnlyList<Reading> Readings, IReadOnlyList<ReadingRejection> Rejections, BatchReceipt? Receipt = null);
+public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IReadOnlyList<Reading> Readings, IReadOnlyList<ReadingRejection> Rejections, BatchReceipt? Receipt = null)
+{
+    /// <summary>Forecasts that came with the batch (a TAF, the TREND of a METAR/SPECI; docs/engine.md R25), applied after its readings.</summary>
+    public IReadOnlyList<OpsLvp.Core.Engine.ForecastInput> Forecasts { get; init; } = [];
+}

@@ -57,10 +57,16 @@ public static class TimelineChartOptions
         series.Add(Markers("Confirmations", "triangle", "#80deea", top * 0.98, export.Events.Where(e => e.Name == "confirmation").Select(e => (e.At, $"confirmed {e.Str("to")} by {e.Str("actor")}"))));
         series.Add(Markers("Manual actions", "rect", "#ffab40", top * 0.92, export.Events.Where(e => e.Name == "manual_action").Select(e => (e.At, $"{e.Str("detail")} by {e.Str("actor")}: {e.Str("reason")}"))));
         series.Add(Markers("Ticks", "circle", "#a5d6a7", top * 0.86, export.Events.Where(e => e.Name == "item_ticked").Select(e => (e.At, $"{e.Str("item")} done by {e.Str("actor")} ({e.Str("team")})"))));
+        series.Add(Markers("Forecasts", "pin", "#7fb2ff", top * 0.80, export.Events
+            .Where(e => e.Name is EpisodeExport.ForecastReceivedName or "forecast_flag_changed")
+            .Select(e => (e.At, e.Name == EpisodeExport.ForecastReceivedName
+                ? $"{(e.Str("origin") == "trend" ? "TREND" : "TAF")} received: {e.Str("text")}"
+                : $"forecast flag {(e.Json.Contains("\"on\":true", StringComparison.Ordinal) ? "on" : "off")} ({e.Str("by")}): {e.Str("source") ?? e.Str("reason")}"))));
         legend.Add("Transitions");
         legend.Add("Confirmations");
         legend.Add("Manual actions");
         legend.Add("Ticks");
+        legend.Add("Forecasts");
         if (whatIf is not null)
         {
             series.Add(WhatIfLines(whatIf));

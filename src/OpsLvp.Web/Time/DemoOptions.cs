@@ -19,6 +19,13 @@ public sealed class DemoOptions
     /// <summary>Optional demo actions CSV (<c>time,actor,action,target,value,reason</c>); empty = none; a missing file is skipped.</summary>
     public string? ActionsPath { get; set; } = "seed-demo/scenarios/demo-night.actions.csv";
 
+    /// <summary>
+    /// Optional demo forecasts CSV (<c>time,origin,text</c>, docs/replay.md "Forecasts"), played with the readings: each
+    /// report's times are moved by the same shift as the readings (docs/feeds.md "Demo forecasts"); empty = none; a
+    /// missing file is skipped.
+    /// </summary>
+    public string? ForecastsPath { get; set; } = "seed-demo/scenarios/demo-night.forecasts.csv";
+
     /// <summary>Simulated time between the last row of one loop and the first row of the next.</summary>
     public TimeSpan LoopGap { get; set; } = TimeSpan.FromMinutes(1);
 }

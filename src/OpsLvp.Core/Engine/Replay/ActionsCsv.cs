@@ -3,7 +3,7 @@ namespace OpsLvp.Core.Engine.Replay;
 /// <summary>
 /// Actions CSV (docs/replay.md): header <c>time,actor,action,target,value,reason</c>, fields quoted per
 /// RFC 4180 when they hold commas. Actions: declare (target preparation|active), cancel, release_hold,
-/// forecast (value on|off), light_step (value the step, 0 = lights off), sensor_out / sensor_in (target sensor id), confirm, tick (target item id, value
+/// forecast (value on|off), release_forecast, light_step (value the step, 0 = lights off), sensor_out / sensor_in (target sensor id), confirm, tick (target item id, value
 /// team id, reason = optional note), untick (target item id), ack (target alarm key). Syntax errors throw
 /// <see cref="FormatException"/> naming file and line; whether an action can apply (a blank reason, an
 /// unknown item) is the engine's decision and appears as a command_refused event.
@@ -39,6 +39,7 @@ public static class ActionsCsv
                 }),
                 "cancel" => new CancelLvp(actor, reason),
                 "release_hold" => new ReleaseHold(actor, reason),
+                "release_forecast" => new ReleaseForecast(actor, reason),
                 "forecast" => new SetForecast(actor, value switch
                 {
                     "on" => true,

@@ -144,6 +144,31 @@ public static class EventJson
                 case EpisodeStarted s:
                     w.WriteString("episode", s.EpisodeId);
                     break;
+                case ForecastReceived f:
+                    w.WriteString("origin", f.Origin == Forecast.ForecastOrigin.Taf ? "taf" : "trend");
+                    w.WriteString("station", f.Station);
+                    w.WriteString("issued", Fmt.Time(f.IssuedAt));
+                    w.WriteString("valid_from", Fmt.Time(f.ValidFrom));
+                    w.WriteString("valid_until", Fmt.Time(f.ValidUntil));
+                    w.WriteString("text", f.Text);
+                    Optional(w, "note", f.Note);
+                    break;
+                case ForecastRejected f:
+                    w.WriteString("origin", f.Origin == Forecast.ForecastOrigin.Taf ? "taf" : "trend");
+                    w.WriteString("text", f.Text);
+                    w.WriteString("reason", f.Reason);
+                    break;
+                case ForecastFlagChanged f:
+                    w.WriteBoolean("on", f.On);
+                    w.WriteString("by", f.Manual ? "manual" : "forecast");
+                    Optional(w, "source", f.Source, writeNull: true);
+                    w.WriteString("reason", f.Reason);
+                    if (f.From is { } windowFrom && f.Until is { } windowUntil)
+                    {
+                        w.WriteString("window_from", Fmt.Time(windowFrom));
+                        w.WriteString("window_until", Fmt.Time(windowUntil));
+                    }
+                    break;
                 case EpisodeEnded s:
                     w.WriteString("episode", s.EpisodeId);
                     w.WriteString("start", Fmt.Time(s.Start));

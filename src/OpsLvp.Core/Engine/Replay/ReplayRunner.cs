@@ -20,14 +20,29 @@ public static class ReplayRunner
         AerodromeProfile profile,
         IReadOnlyList<Reading> readings,
         IReadOnlyList<TimedCommand> actions,
+        DateTimeOffset? until = null) => Run(profile, readings, actions, [], until);
+
+    /// <summary>
+    /// Runs the replay with forecasts (docs/replay.md "Forecasts"): each forecast is an input at its receipt time,
+    /// merged with the actions by time (on equal times actions first, then forecasts, each in file order), a reading first
+    /// when times are equal.
+    /// </summary>
+    public static ReplayResult Run(
+        AerodromeProfile profile,
+        IReadOnlyList<Reading> readings,
+        IReadOnlyList<TimedCommand> actions,
+        IReadOnlyList<ForecastInput> forecasts,
         DateTimeOffset? until = null)
     {
         ArgumentNullException.ThrowIfNull(profile);
         ArgumentNullException.ThrowIfNull(readings);
         ArgumentNullException.ThrowIfNull(actions);
+        ArgumentNullException.ThrowIfNull(forecasts);
         var engine = new LvpEngine(profile);
         var derivation = new RvrDerivation(profile);
-        var ordered = actions.Select((a, i) => (a, i)).OrderBy(x => x.a.Time).ThenBy(x => x.i).Select(x => x.a).ToList();
+        var ordered = actions.Select((a, i) => (Time: a.Time, Input: (EngineInput)a.Command, Order: i))
+            .Concat(forecasts.Select((f, i) => (Time: f.ReceivedAt, Input: (EngineInput)f, Order: actions.Count + i)))
+            .OrderBy(x => x.Time).ThenBy(x => x.Order).Select(x => (x.Time, x.Input)).ToList();
         var firsts = new List<DateTimeOffset>();
         if (readings.Count > 0)
         {
@@ -53,7 +68,7 @@ public static class ReplayRunner
             if (a < ordered.Count && (readingNow is null || ordered[a].Time < readingNow))
             {
                 now = Max(ordered[a].Time, now);
-                inputs = [ordered[a++].Command];
+                inputs = [ordered[a++].Input];
             }
             else
             {

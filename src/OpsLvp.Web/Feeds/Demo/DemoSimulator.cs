@@ -70,11 +70,14 @@ public sealed class DemoSimulator(
     {
         var r = 0;
         var a = 0;
-        while (r < scenario.Readings.Count || a < scenario.Actions.Count)
+        var f = 0;
+        while (r < scenario.Readings.Count || a < scenario.Actions.Count || f < scenario.Forecasts.Count)
         {
             var nextReading = r < scenario.Readings.Count ? scenario.Readings[r].Offset : TimeSpan.MaxValue;
             var nextAction = a < scenario.Actions.Count ? scenario.Actions[a].Offset : TimeSpan.MaxValue;
+            var nextForecast = f < scenario.Forecasts.Count ? scenario.Forecasts[f].Offset : TimeSpan.MaxValue;
             var offset = nextReading <= nextAction ? nextReading : nextAction;
+            offset = nextForecast < offset ? nextForecast : offset;
             var due = loopStart + offset;
             await WaitUntilAsync(due, stoppingToken);
 
@@ -93,6 +96,18 @@ public sealed class DemoSimulator(
             while (a < scenario.Actions.Count && scenario.Actions[a].Offset == offset)
             {
                 await actions.SubmitAsync(scenario.Actions[a++].At(due), stoppingToken);
+            }
+
+            var forecasts = new List<OpsLvp.Core.Engine.ForecastInput>();
+            while (f < scenario.Forecasts.Count && scenario.Forecasts[f].Offset == offset)
+            {
+                var forecast = scenario.Forecasts[f++].Forecast;
+                var shift = scenario.Origin is { } origin ? loopStart - origin : TimeSpan.Zero;
+                forecasts.Add(forecast with { Text = DemoForecastShift.Shift(forecast.Text, forecast.ReceivedAt, shift), ReceivedAt = due });
+            }
+            if (forecasts.Count > 0)
+            {
+                await pipeline.SubmitAsync(new ReadingBatch(SourceName, clock.GetUtcNow(), [], []) { Forecasts = forecasts }, stoppingToken);
             }
         }
     }
@@ -168,6 +183,29 @@ public sealed class DemoSimulator(
         {
             Fail($"Demo:ScenarioPath '{readingsPath}' has no valid reading rows");
             return null;
+        }
+
+        if (!string.IsNullOrWhiteSpace(demo.ForecastsPath) && scenario.Origin is { } scenarioOrigin)
+        {
+            var forecastsPath = paths.Resolve(demo.ForecastsPath);
+            if (File.Exists(forecastsPath))
+            {
+                try
+                {
+                    scenario = scenario with
+                    {
+                        Forecasts = OpsLvp.Core.Engine.Replay.ForecastsCsv.Parse(File.ReadAllText(forecastsPath), forecastsPath)
+                            .Select(x => (x.ReceivedAt - scenarioOrigin, x))
+                            .Where(x => x.Item1 >= TimeSpan.Zero)
+                            .OrderBy(x => x.Item1)
+                            .ToList(),
+                    };
+                }
+                catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or FormatException)
+                {
+                    logger.LogWarning("Demo:ForecastsPath '{Path}' cannot be used, playing without forecasts: {Error}", forecastsPath, ex.Message);
+                }
+            }
         }
 
         logger.LogInformation("Demo simulator: {Readings} readings, {Actions} actions over {Duration} of demo time at x{Speed}",

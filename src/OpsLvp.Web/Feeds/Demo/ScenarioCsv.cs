@@ -89,7 +89,7 @@ public static class ScenarioCsv
             }
         }
 
-        return new Scenario(readings, actions.OrderBy(a => a.Offset).ToList(), rejections, actionErrors);
+        return new Scenario(readings, actions.OrderBy(a => a.Offset).ToList(), rejections, actionErrors) { Origin = origin.Absolute };
     }
 
     private static Stamp ParseStamp(string text, ref bool? absoluteStyle, List<string> errors)
