@@ -62,6 +62,7 @@ public sealed partial class LvpEngine
                     Consider(item.DueAt);
                 }
             }
+            ConsiderCapability(Consider);
             return best;
         }
 

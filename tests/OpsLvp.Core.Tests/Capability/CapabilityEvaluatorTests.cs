@@ -53,12 +53,12 @@ public class CapabilityEvaluatorTests
     }
 
     [Fact]
-    public void TdzLightsUnserviceable_DowngradesCatIIIToCatI_WithTheReporterReason()
+    public void TdzLightsUnserviceable_DowngradesCatIIIToCatII_WithTheReporterReason()
     {
         var facilities = new Dictionary<string, FacilityState> { ["tdzl-07"] = Status(FacilityStatus.Unserviceable, "cable fault (invented)") };
         var c = Direction(Inputs(Rvr07(2000, 2000, 2000), facilities: facilities));
 
-        Assert.Equal(OperationKind.CatI, c.BestApproach);
+        Assert.Equal(OperationKind.CatII, c.BestApproach);
         var reason = Assert.Single(Op(c, OperationKind.CatIII).Reasons);
         Assert.Equal(new CapabilityReason(ReasonKind.FacilityUnserviceable, "tdzl-07", "TDZ lights 07", "cable fault (invented)"), reason);
         Assert.Equal("TDZ lights 07 unserviceable (cable fault (invented))", CapabilityWords.Reason(reason));

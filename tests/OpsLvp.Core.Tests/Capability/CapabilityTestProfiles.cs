@@ -35,7 +35,7 @@ public static class CapabilityTestProfiles
         Operations =
         [
             new OperationConfig("07", OperationKind.CatI, ["ils-07", "als-07"], [new(RvrPosition.Tdz, CatITdzM)], NeedsLvp: false),
-            new OperationConfig("07", OperationKind.CatII, ["ils-07", "als-07", "cl-07", "tdzl-07", "power"],
+            new OperationConfig("07", OperationKind.CatII, ["ils-07", "als-07", "cl-07", "power"],
                 [new(RvrPosition.Tdz, CatIITdzM), new(RvrPosition.Mid, CatIIMidM)], NeedsLvp: true),
             new OperationConfig("07", OperationKind.CatIII, ["ils-07", "cl-07", "tdzl-07", "sb-07", "power"],
                 [new(RvrPosition.Tdz, CatIIITdzM), new(RvrPosition.Mid, CatIIIMidM), new(RvrPosition.End, CatIIIEndM)], NeedsLvp: true,

@@ -35,6 +35,7 @@ public static class EventJson
         CommandRefused => "command_refused",
         EpisodeStarted => "episode_started",
         EpisodeEnded => "episode_ended",
+        CapabilityChanged => "capability_changed",
         _ => Snake(e.GetType().Name),
     };
 
@@ -143,6 +144,9 @@ public static class EventJson
                     break;
                 case EpisodeStarted s:
                     w.WriteString("episode", s.EpisodeId);
+                    break;
+                case CapabilityChanged c:
+                    CapabilityJson.Write(w, c);
                     break;
                 case EpisodeEnded s:
                     w.WriteString("episode", s.EpisodeId);
