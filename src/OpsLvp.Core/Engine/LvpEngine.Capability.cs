@@ -131,7 +131,7 @@ public sealed partial class LvpEngine
                     }
                     var entry = new ObserverRvr(c.Direction, c.Position, c.ValueM, c.Observer, c.Actor, now);
                     State = State with { ObserverRvr = State.ObserverRvr.SetItem(ObserverRvr.KeyOf(c.Direction, c.Position), entry) };
-                    Applied(now, c.Actor, "observer_rvr", $"RVR {c.Direction} {CapabilityWords.Position(c.Position)} {DisplayFormat.Metres(c.ValueM)} (observer {c.Observer})", c.Reason ?? "");
+                    Applied(now, c.Actor, "observer_rvr", $"RVR {c.Direction} {CapabilityWords.Position(c.Position)} {c.ValueM.ToString(System.Globalization.CultureInfo.InvariantCulture)} m (observer {c.Observer})", c.Reason ?? "");
                     return null;
                 default:
                     return $"unknown command {command.GetType().Name}";
