@@ -63,6 +63,9 @@ public sealed record EngineStatus(
     /// <summary>Observer RVR values entered, fresh or not, with who and when (docs/engine.md R35).</summary>
     public IReadOnlyList<ObserverRvr> ObserverRvr { get; init; } = [];
 
+    /// <summary>The profile's facilities (docs/capability.md), for boards that report on them; empty without a capability section.</summary>
+    public IReadOnlyList<Capability.FacilityConfig> FacilityConfigs { get; init; } = [];
+
     /// <summary>Direction in use per runway id, every runway of the profile (docs/engine.md R34).</summary>
     public IReadOnlyDictionary<string, string> DirectionsInUse { get; init; } = new Dictionary<string, string>();
 }

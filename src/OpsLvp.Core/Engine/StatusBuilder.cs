@@ -55,6 +55,7 @@ internal static class StatusBuilder
             RelaxedAgainstConditions = state.RelaxedAgainstConditions,
             Capability = state.Capability,
             Facilities = state.Facilities,
+            FacilityConfigs = model.Profile.Capability?.Facilities ?? [],
             ObserverRvr = state.ObserverRvr.Values.OrderBy(o => o.Direction, StringComparer.Ordinal).ThenBy(o => o.Position).ToList(),
             DirectionsInUse = model.Profile.Runways
                 .Where(r => r?.Directions is { Count: > 0 })
