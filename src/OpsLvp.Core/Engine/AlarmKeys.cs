@@ -13,4 +13,7 @@ public static class AlarmKeys
 
     /// <summary>A checklist item past its due time, e.g. "item-overdue:P1".</summary>
     public static string ItemOverdue(string itemId) => $"item-overdue:{itemId}";
+
+    /// <summary>A downgrade of a runway direction in use, e.g. "capability-down:07L" (docs/engine.md R37).</summary>
+    public static string CapabilityDowngrade(string direction) => $"capability-down:{direction}";
 }

@@ -14,4 +14,6 @@ public enum AlarmKind
     AuditStorageFailing,
     /// <summary>Raised by the host, not the engine, when the engine's time was found ahead of the clock (the clock stepped back).</summary>
     ClockRegression,
+    /// <summary>The capability of a runway direction in use went down (docs/engine.md R37).</summary>
+    CapabilityDowngrade,
 }

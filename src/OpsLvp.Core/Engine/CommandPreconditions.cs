@@ -77,7 +77,7 @@ public static class CommandPreconditions
                 }
                 return Blank(c.Reason) ? "a reason is required to mark an item not applicable" : null;
             default:
-                return null;
+                return CapabilityPreconditions.Check(command, profile);
         }
     }
 

@@ -147,6 +147,38 @@ internal sealed class EngineModel
 
     public bool CeilingConfigured => Ceilometers.Count > 0;
 
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, (IReadOnlyList<GoverningSensor>, IReadOnlyList<string>)> _governingByDirections = new(StringComparer.Ordinal);
+
+    /// <summary>The direction in use of <paramref name="runway"/> in <paramref name="state"/>: the duty manager's setting, else the profile's (docs/engine.md R34).</summary>
+    public static string DirectionInUse(RunwayConfig runway, EngineState state) =>
+        state.DirectionsInUse.Count > 0 && state.DirectionsInUse.TryGetValue(runway.Id, out var d) && runway.Directions.Contains(d) ? d : DirectionInUse(runway);
+
+    /// <summary>The governing sensors and their RVR keys for the directions in use of <paramref name="state"/> (docs/engine.md R3, R34).</summary>
+    public (IReadOnlyList<GoverningSensor> Sensors, IReadOnlyList<string> Keys) GoverningIn(EngineState state)
+    {
+        if (state.DirectionsInUse.Count == 0)
+        {
+            return (Governing, GoverningRvrKeys);
+        }
+        var signature = string.Join(";", LvpRunways.Select(x => DirectionInUse(x.Runway, state)));
+        return _governingByDirections.GetOrAdd(signature, _ =>
+        {
+            var governing = new List<GoverningSensor>();
+            foreach (var (runway, _) in LvpRunways)
+            {
+                var direction = DirectionInUse(runway, state);
+                foreach (var sensor in Sensors.Values.Where(s => SensorKinds.GivesRvr(s.Type) && s.Runway == runway.Id))
+                {
+                    if (sensor.Sites is not null && sensor.Sites.TryGetValue(direction, out var position) && Profile.GoverningPositions.Contains(position))
+                    {
+                        governing.Add(new GoverningSensor(sensor.Id, runway.Id, direction, position));
+                    }
+                }
+            }
+            return (governing, governing.Select(g => Key(g.SensorId, ReadingKind.Rvr)).ToArray());
+        });
+    }
+
     public static string DirectionInUse(RunwayConfig runway) =>
         runway.DirectionInUse is { } d && runway.Directions.Contains(d) ? d : runway.Directions[0];
 

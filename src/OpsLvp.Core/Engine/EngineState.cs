@@ -69,6 +69,21 @@ public sealed record EngineState
     /// <summary>Alarms raised and not yet cleared (acknowledged ones included).</summary>
     public ImmutableList<Alarm> Alarms { get; init; } = ImmutableList<Alarm>.Empty;
 
+    /// <summary>Reported facility status per facility id (docs/engine.md R30); a facility with no entry is serviceable.</summary>
+    public ImmutableDictionary<string, Capability.FacilityState> Facilities { get; init; } = ImmutableDictionary<string, Capability.FacilityState>.Empty;
+
+    /// <summary>Direction in use per runway id as set by a duty manager (docs/engine.md R34); a runway with no entry uses the profile's.</summary>
+    public ImmutableDictionary<string, string> DirectionsInUse { get; init; } = ImmutableDictionary<string, string>.Empty;
+
+    /// <summary>Observer RVR per <see cref="Engine.ObserverRvr.KeyOf"/> (docs/engine.md R35), kept until replaced (it counts only while fresh).</summary>
+    public ImmutableDictionary<string, ObserverRvr> ObserverRvr { get; init; } = ImmutableDictionary<string, ObserverRvr>.Empty;
+
+    /// <summary>The capability per runway direction at <see cref="EvaluatedAt"/> (docs/engine.md R31); null when the profile has no capability section.</summary>
+    public IReadOnlyList<Capability.RunwayCapability>? Capability { get; init; }
+
+    /// <summary>Headlines before a downgrade of a direction in use, per direction, while the downgrade alarm stands (docs/engine.md R37).</summary>
+    public ImmutableDictionary<string, CapabilityBaseline> CapabilityDowngrades { get; init; } = ImmutableDictionary<string, CapabilityBaseline>.Empty;
+
     /// <summary>The key of <see cref="Latest"/> for a sensor and kind.</summary>
     public static string SensorKey(string sensorId, ReadingKind kind) => $"{sensorId}|{kind}";
 }

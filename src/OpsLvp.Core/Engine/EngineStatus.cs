@@ -56,4 +56,19 @@ public sealed record EngineStatus(
 
     /// <summary>A manual relaxation against the conditions, shown beside the phase until they agree (docs/engine.md R15); else null.</summary>
     public Relaxation? RelaxedAgainstConditions { get; init; }
+
+    /// <summary>Capability per runway direction, in-use directions first (docs/engine.md R31); null without a capability section.</summary>
+    public IReadOnlyList<Capability.RunwayCapability>? Capability { get; init; }
+
+    /// <summary>Reported facility status per facility id; a facility not listed is serviceable (docs/engine.md R30).</summary>
+    public IReadOnlyDictionary<string, Capability.FacilityState> Facilities { get; init; } = new Dictionary<string, Capability.FacilityState>();
+
+    /// <summary>Observer RVR values entered, fresh or not, with who and when (docs/engine.md R35).</summary>
+    public IReadOnlyList<ObserverRvr> ObserverRvr { get; init; } = [];
+
+    /// <summary>The profile's facilities (docs/capability.md), for boards that report on them; empty without a capability section.</summary>
+    public IReadOnlyList<Capability.FacilityConfig> FacilityConfigs { get; init; } = [];
+
+    /// <summary>Direction in use per runway id, every runway of the profile (docs/engine.md R34).</summary>
+    public IReadOnlyDictionary<string, string> DirectionsInUse { get; init; } = new Dictionary<string, string>();
 }

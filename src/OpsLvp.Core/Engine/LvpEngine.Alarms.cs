@@ -44,6 +44,7 @@ public sealed partial class LvpEngine
             {
                 wanted.Add((AlarmKeys.SafeguardsIncomplete, AlarmKind.SafeguardsIncomplete, "active condition holds while mandatory preparation items are open"));
             }
+            CapabilityAlarms(wanted);
             var alarms = State.Alarms;
             foreach (var old in State.Alarms)
             {

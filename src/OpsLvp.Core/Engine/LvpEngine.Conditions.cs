@@ -13,8 +13,7 @@ public sealed partial class LvpEngine
         double? rvr = null;
         GoverningSensor? rvrSensor = null;
         var rvrMissing = new List<string>();
-        var governing = model.Governing;
-        var governingKeys = model.GoverningRvrKeys;
+        var (governing, governingKeys) = model.GoverningIn(state); // follows the runway in use (docs/engine.md R34)
         for (var gi = 0; gi < governing.Count; gi++)
         {
             var g = governing[gi];
@@ -101,12 +100,14 @@ public sealed partial class LvpEngine
         private ImmutableDictionary<string, Reading>? _sitLatest;
         private ImmutableHashSet<string>? _sitOutOfService;
         private bool _sitForecast;
+        private ImmutableDictionary<string, string>? _sitDirections;
 
         /// <summary><see cref="Situate"/> at <paramref name="t"/>, reusing the last result when its inputs are the same objects.</summary>
         private Situation SituateNow(DateTimeOffset t)
         {
             if (_sit is { } last && last.At == t && ReferenceEquals(_sitLatest, State.Latest)
-                && ReferenceEquals(_sitOutOfService, State.OutOfService) && _sitForecast == State.DeteriorationForecast)
+                && ReferenceEquals(_sitOutOfService, State.OutOfService) && _sitForecast == State.DeteriorationForecast
+                && ReferenceEquals(_sitDirections, State.DirectionsInUse))
             {
                 return last;
             }
@@ -114,6 +115,7 @@ public sealed partial class LvpEngine
             _sitLatest = State.Latest;
             _sitOutOfService = State.OutOfService;
             _sitForecast = State.DeteriorationForecast;
+            _sitDirections = State.DirectionsInUse;
             return _sit;
         }
 

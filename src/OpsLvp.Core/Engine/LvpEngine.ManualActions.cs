@@ -85,6 +85,8 @@ public sealed partial class LvpEngine
                     State = State with { Alarms = State.Alarms.Replace(alarm, alarm with { AcknowledgedBy = c.Actor, AcknowledgedAt = now }) };
                     Events.Add(new AlarmAcknowledged(now, alarm.Key, alarm.Kind, c.Actor));
                     return null;
+                case SetFacilityStatus or SetRunwayInUse or EnterObserverRvr:
+                    return ApplyCapabilityCommand(command, now);
                 default:
                     return $"unknown command {command.GetType().Name}";
             }

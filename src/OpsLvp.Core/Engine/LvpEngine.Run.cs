@@ -66,6 +66,7 @@ public sealed partial class LvpEngine
                     Consider(item.DueAt);
                 }
             }
+            ConsiderCapability(Consider);
             return best;
         }
 

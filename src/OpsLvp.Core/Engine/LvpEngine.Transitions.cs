@@ -54,6 +54,7 @@ public sealed partial class LvpEngine
                 }
                 Transition(d.To, TransitionBy.Auto, null, d.Reason, sit, null, t);
             }
+            UpdateCapability(t);
             ReconcileAlarms(SituateNow(t), t);
         }
 

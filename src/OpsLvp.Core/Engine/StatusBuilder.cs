@@ -24,8 +24,9 @@ internal static class StatusBuilder
                 .MinBy(m => m!.Value);
         }
         var runways = new List<RunwayRvrStatus>();
-        foreach (var (runway, direction) in model.LvpRunways)
+        foreach (var (runway, _) in model.LvpRunways)
         {
+            var direction = EngineModel.DirectionInUse(runway, state); // docs/engine.md R34
             var positions = new List<PositionRvr>();
             foreach (var position in Enum.GetValues<RvrPosition>())
             {
@@ -52,6 +53,14 @@ internal static class StatusBuilder
             ConditionsMetSafeguardsIncomplete = HeldForSafeguards(model, state, now),
             SafeguardsOverride = state.SafeguardsOverride,
             RelaxedAgainstConditions = state.RelaxedAgainstConditions,
+            Capability = state.Capability,
+            Facilities = state.Facilities,
+            FacilityConfigs = model.Profile.Capability?.Facilities ?? [],
+            ObserverRvr = state.ObserverRvr.Values.OrderBy(o => o.Direction, StringComparer.Ordinal).ThenBy(o => o.Position).ToList(),
+            DirectionsInUse = model.Profile.Runways
+                .Where(r => r?.Directions is { Count: > 0 })
+                .GroupBy(r => r.Id, StringComparer.Ordinal)
+                .ToDictionary(g => g.Key, g => EngineModel.DirectionInUse(g.First(), state), StringComparer.Ordinal),
         };
     }
 

@@ -16,6 +16,7 @@ public static class AlarmWords
         AlarmKind.SafeguardsIncomplete => "Safeguards incomplete",
         AlarmKind.AuditStorageFailing => "Audit storage failing",
         AlarmKind.ClockRegression => "Clock stepped back",
+        AlarmKind.CapabilityDowngrade => "Runway capability down",
         _ => kind.ToString(),
     };
 

@@ -61,4 +61,7 @@ public sealed record AerodromeProfile
 
     /// <summary>Optional: when forecasts (TAF, TREND) count as deterioration (docs/forecasts.md); null when not set.</summary>
     public ForecastSettings? Forecast { get; init; }
+
+    /// <summary>Optional: facilities and the operations each runway direction offers (docs/capability.md); null when not set.</summary>
+    public Capability.CapabilityProfile? Capability { get; init; }
 }

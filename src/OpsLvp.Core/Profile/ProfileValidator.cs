@@ -55,6 +55,7 @@ public static class ProfileValidator
         CheckConfirm(check, profile.Confirm);
         CheckChecklists(check, profile.Checklists, teams);
         problems.AddRange(ForecastSettingsValidator.Validate(profile.Forecast));
+        problems.AddRange(Capability.CapabilityValidator.Validate(profile.Capability, profile));
         return new ValidationResult(problems);
     }
 

@@ -84,6 +84,7 @@ public static class RecordedCommands
             "forecast" => new ActionRow(e.At, actor, "forecast", "", detail.EndsWith(" on", StringComparison.Ordinal) ? "on" : "off", reason),
             "sensor_out" or "sensor_in" => new ActionRow(e.At, actor, action, SensorId(detail), "", reason),
             "light_step" => new ActionRow(e.At, actor, "light_step", "", LightStep(detail), reason),
+            "facility" or "runway_in_use" or "observer_rvr" => CapabilityRecordedCommands.Row(e.At, actor, action, detail, reason),
             _ => throw new FormatException($"manual_action at {e.At:O}: unknown action '{action}'"),
         };
     }

@@ -26,6 +26,9 @@ public static class CommandAuthorizer
         [typeof(TickItem)] = Set(Roles.DutyManager, Roles.GroundStaff),
         [typeof(UntickItem)] = Set(Roles.DutyManager, Roles.GroundStaff),
         [typeof(MarkNotApplicable)] = Set(Roles.DutyManager),
+        [typeof(SetFacilityStatus)] = Set(Roles.DutyManager, Roles.GroundStaff),
+        [typeof(SetRunwayInUse)] = Set(Roles.DutyManager),
+        [typeof(EnterObserverRvr)] = Set(Roles.DutyManager),
     };
 
     /// <summary>Null when <paramref name="caller"/> may run <paramref name="command"/>, else why not (readable).</summary>
@@ -46,6 +49,14 @@ public static class CommandAuthorizer
         if (caller.IsInRole(Roles.DutyManager))
         {
             return null;
+        }
+        if (command is SetFacilityStatus f)
+        {
+            // ground staff: only their own teams' facilities, reported as that team (docs/engine.md R30)
+            var reporter = profile.Capability?.Facilities.FirstOrDefault(x => x is not null && x.Id == f.FacilityId)?.Team;
+            return reporter is not null && caller.Teams.Contains(reporter) && f.Team == reporter
+                ? null
+                : $"facility {f.FacilityId} is reported by another team";
         }
         // ground staff: only their own teams' items
         var itemId = command switch
@@ -78,6 +89,9 @@ public static class CommandAuthorizer
         TickItem => "tick items",
         UntickItem => "untick items",
         MarkNotApplicable => "mark items not applicable",
+        SetFacilityStatus => "report facility status",
+        SetRunwayInUse => "change the runway in use",
+        EnterObserverRvr => "enter an observer's RVR",
         _ => "run " + command.GetType().Name,
     };
 

@@ -156,6 +156,16 @@ public sealed class DemoSeedTests
         var confirm = Assert.Single(rows, r => r[2] == "confirm");
         Assert.Equal("duty_manager", users.RootElement.EnumerateArray().Single(u => u.GetProperty("name").GetString() == confirm[1]).GetProperty("role").GetString());
         rows = rows.Where(r => r != confirm).ToList();
+        // the scripted field-lighting crew reports a fault and clears it, the duty manager acknowledges the downgrade (docs/capability.md)
+        var facilities = profile.Capability!.Facilities.ToDictionary(f => f.Id);
+        foreach (var r in rows.Where(r => r[2] == "facility"))
+        {
+            var team = r[4].Split(':')[1];
+            Assert.Equal(facilities[r[3]].Team, team);
+            Assert.Contains(team, teamsOf[r[1]]);
+        }
+        Assert.Equal(2, rows.Count(r => r[2] == "facility"));
+        rows = rows.Where(r => r[2] is not ("facility" or "ack")).ToList();
         foreach (var r in rows)
         {
             Assert.Equal("tick", r[2]);

@@ -51,6 +51,19 @@ public sealed class CommandAccessTests
         Assert.True(problems.Count == 0, string.Join("\n", problems));
     }
 
+    [Fact]
+    public void GroundStaff_ReportOnlyTheirOwnTeamsFacilities_AsThatTeam()
+    {
+        // demo profile: tdzl-07l belongs to field-lighting (docs/capability.md; invented)
+        var report = new SetFacilityStatus("x", "tdzl-07l", Core.Capability.FacilityStatus.Unserviceable, "circuit fault (invented)", "field-lighting");
+
+        Assert.Null(CommandAuthorizer.Check(Caller(Roles.GroundStaff, "field-lighting"), report, Profile));
+        Assert.Equal("facility tdzl-07l is reported by another team", CommandAuthorizer.Check(Caller(Roles.GroundStaff, "airside-ops"), report, Profile));
+        Assert.Equal("facility tdzl-07l is reported by another team", CommandAuthorizer.Check(Caller(Roles.GroundStaff, "field-lighting"), report with { Team = null }, Profile));
+        Assert.Null(CommandAuthorizer.Check(Caller(Roles.DutyManager), report with { Team = null }, Profile));
+        Assert.Equal("your role does not allow you to change the runway in use", CommandAuthorizer.Check(Caller(Roles.GroundStaff, "field-lighting"), new SetRunwayInUse("x", "07L/25R", "25R", "r"), Profile));
+    }
+
     private static CommandCaller Caller(string role, params string[] teams) =>
         new("someone", new HashSet<string> { role }, teams.ToHashSet(), true);
 

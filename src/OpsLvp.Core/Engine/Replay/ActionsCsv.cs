@@ -4,7 +4,8 @@ namespace OpsLvp.Core.Engine.Replay;
 /// Actions CSV (docs/replay.md): header <c>time,actor,action,target,value,reason</c>, fields quoted per
 /// RFC 4180 when they hold commas. Actions: declare (target preparation|active), cancel, release_hold,
 /// forecast (value on|off), release_forecast, light_step (value the step, 0 = lights off), sensor_out / sensor_in (target sensor id), confirm, tick (target item id, value
-/// team id, reason = optional note), untick (target item id), ack (target alarm key). Syntax errors throw
+/// team id, reason = optional note), untick (target item id), ack (target alarm key), and the capability actions of
+/// <see cref="CapabilityActions"/> (facility, runway_in_use, observer_rvr). Syntax errors throw
 /// <see cref="FormatException"/> naming file and line; whether an action can apply (a blank reason, an
 /// unknown item) is the engine's decision and appears as a command_refused event.
 /// </summary>
@@ -56,6 +57,7 @@ public static class ActionsCsv
                 "untick" => new UntickItem(actor, Required(target, "target (item id)", row.Error), reason),
                 "not_applicable" => new MarkNotApplicable(actor, Required(target, "target (item id)", row.Error), reason),
                 "ack" => new AcknowledgeAlarm(actor, Required(target, "target (alarm key)", row.Error)),
+                "facility" or "runway_in_use" or "observer_rvr" => CapabilityActions.Parse(f[2].Trim(), actor, target, value, reason, row.Error),
                 var other => throw row.Error($"unknown action '{other}'"),
             };
             actions.Add(new TimedCommand(time, command));

@@ -35,6 +35,7 @@ public static class EventJson
         CommandRefused => "command_refused",
         EpisodeStarted => "episode_started",
         EpisodeEnded => "episode_ended",
+        CapabilityChanged => "capability_changed",
         _ => Snake(e.GetType().Name),
     };
 
@@ -168,6 +169,9 @@ public static class EventJson
                         w.WriteString("window_from", Fmt.Time(windowFrom));
                         w.WriteString("window_until", Fmt.Time(windowUntil));
                     }
+                    break;
+                case CapabilityChanged c:
+                    CapabilityJson.Write(w, c);
                     break;
                 case EpisodeEnded s:
                     w.WriteString("episode", s.EpisodeId);
