@@ -140,6 +140,11 @@ internal sealed class DbChecks
         if (row is null)
         {
             _stateSeal = "no_state";
+            if (await db.AuditEntries.AsNoTracking().Where(e => e.Kind == "engine_started").OrderByDescending(e => e.Sequence).Select(e => (long?)e.Sequence).FirstOrDefaultAsync() is { } started)
+            {
+                _anomalies.Add(new AuditAnomaly("state_mismatch", started, null,
+                    Text($"the engine state row is missing although the engine ran (engine_started at audit entry {started})")));
+            }
             return;
         }
         if (row.AuditSequence > head)

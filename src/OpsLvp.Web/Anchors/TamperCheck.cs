@@ -46,6 +46,11 @@ public sealed class TamperCheck(AuditStore audit, AnchorKey key, AnchorLog log, 
         {
             return ($"{anchorProblems[0].Detail} (anchor log {log.Path})", head);
         }
+        if (persisted is null && head > 0 && await audit.GetLastOfKindAsync("engine_started", cancellationToken) is { } started)
+        {
+            // every start writes the state with its engine_started entry, so a chain with one and no state row lost it
+            return ($"the engine state row is missing although the engine ran (engine_started at audit entry {started.Sequence})", head);
+        }
         if (persisted is not null && !key.VerifySeal(persisted))
         {
             return (persisted.StateSignature is null

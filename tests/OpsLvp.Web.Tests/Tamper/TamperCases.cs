@@ -33,6 +33,9 @@ public static class TamperCases
                 Assert.Equal(0L, await f.SqlAsync("SELECT instr(state_json, '\"Phase\":\"Active\"') FROM engine_state;"));
             },
             "state_mismatch", "seal does not verify"),
+        new("deleted_state_row", "the engine_state row deleted (the engine would start afresh from NORMAL)",
+            f => f.SqlAsync("DELETE FROM engine_state;"),
+            "state_mismatch", "the engine state row is missing"),
         new("forged_anchor", "a line added to the anchor log claiming a later head, its signature copied from the last real line",
             async f =>
             {
