@@ -86,6 +86,7 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(s => s.StateJson).HasColumnName("state_json");
             e.Property(s => s.AuditSequence).HasColumnName("audit_sequence");
             e.Property(s => s.AuditHash).HasColumnName("audit_hash");
+            e.Property(s => s.StateSignature).HasColumnName("state_signature");
             e.Property(s => s.ProfileVersion).HasColumnName("profile_version");
             e.Property(s => s.SavedAt).HasColumnName("saved_at");
         });

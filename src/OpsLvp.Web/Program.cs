@@ -1,5 +1,6 @@
 using MudBlazor.Services;
 using OpsLvp.Web.Access;
+using OpsLvp.Web.Anchors;
 using OpsLvp.Web.Components;
 using OpsLvp.Web.Components.Shell;
 using OpsLvp.Web.Engine;
@@ -33,6 +34,8 @@ builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
+// before the engine: the anchor service stops after it, so the shutdown anchor covers its last entries
+builder.Services.AddAnchors(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddReview();
 builder.Services.AddAccess(builder.Configuration);
@@ -71,6 +74,7 @@ app.MapHealthApi();
 app.MapReadingsApi();
 app.MapForecastsApi();
 app.MapLiveApi();
+app.MapAnchorApi();
 app.MapReviewApi().RequireAuthorization(AccessPolicies.Review);
 app.MapAccessEndpoints();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();

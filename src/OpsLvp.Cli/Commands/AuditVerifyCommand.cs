@@ -1,9 +1,11 @@
 using System.Buffers;
+using System.Security.Cryptography;
 using System.Text;
 using System.Text.Json;
 using Microsoft.Data.Sqlite;
 using Microsoft.EntityFrameworkCore;
 using OpsLvp.Core.Audit;
+using OpsLvp.Core.Audit.Anchors;
 using OpsLvp.Core.Review;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
@@ -16,25 +18,53 @@ namespace OpsLvp.Cli.Commands;
 /// Exit 0 when the chain verifies, <see cref="ChainBrokenExitCode"/> when it does not, 1 for a missing or
 /// unreadable file, 2 for a bad command line (docs/audit.md). <c>opslvp audit verify --export E.json</c> checks the
 /// audit entries of an episode export as a chain segment (docs/review.md), same output and exit codes.
+/// <para>With <c>--db</c> it also recomputes the readings each entry covers, and with <c>--anchors A.jsonl</c>
+/// (optionally <c>--public-key K.pem</c>) it checks the anchors' signatures, the chain against them (truncation,
+/// rewriting) and the engine state row's seal; what it finds is listed in <c>anomalies</c> and gives exit
+/// <see cref="AnomalyExitCode"/> (docs/audit.md "Verification with anchors").</para>
 /// </summary>
 public sealed class AuditVerifyCommand : ICliCommand
 {
     /// <summary>Exit code for a database whose chain does not verify.</summary>
     public const int ChainBrokenExitCode = 3;
 
+    /// <summary>Exit code for a chain that verifies but whose anchors, state seal or covered readings show tampering.</summary>
+    public const int AnomalyExitCode = 4;
+
     public IReadOnlyList<string> Path { get; } = ["audit", "verify"];
 
-    public string Usage => "audit verify --db <file> | audit verify --export <episode.json>";
+    public string Usage => "audit verify --db <file> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | audit verify --export <episode.json>";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
-        var (option, path) = ParseDb(args);
+        var (option, path, anchorsPath, keyPath) = ParseDb(args);
         if (!File.Exists(path))
         {
             stderr.WriteLine(option == "--db" ? $"error: database file '{path}' not found" : $"error: episode export '{path}' not found");
             return 1;
         }
+        IReadOnlyList<string>? anchorLines = null;
+        string? trustedFingerprint = null;
+        try
+        {
+            if (anchorsPath is not null)
+            {
+                anchorLines = File.ReadAllLines(anchorsPath);
+            }
+            if (keyPath is not null)
+            {
+                using var key = ECDsa.Create();
+                key.ImportFromPem(File.ReadAllText(keyPath));
+                trustedFingerprint = AuditAnchor.Fingerprint(Convert.ToBase64String(key.ExportSubjectPublicKeyInfo()));
+            }
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or ArgumentException or CryptographicException)
+        {
+            stderr.WriteLine($"error: cannot read {(anchorLines is null && anchorsPath is not null ? $"anchor log '{anchorsPath}'" : $"public key '{keyPath}'")}: {ex.Message.ReplaceLineEndings(" ")}");
+            return 1;
+        }
         AuditVerification result;
+        DbChecks? checks = null;
         if (option == "--export")
         {
             try
@@ -51,7 +81,7 @@ public sealed class AuditVerifyCommand : ICliCommand
         {
             try
             {
-                result = VerifyAsync(path).GetAwaiter().GetResult();
+                (result, checks) = VerifyAsync(path, anchorLines, trustedFingerprint).GetAwaiter().GetResult();
             }
             catch (Exception ex) when (ex is SqliteException or InvalidDataException or FormatException or InvalidCastException)
             {
@@ -77,16 +107,24 @@ public sealed class AuditVerifyCommand : ICliCommand
             }
             json.WriteString("detail", result.Detail);
             WriteNullable(json, "time_regression_sequence", result.FirstTimeRegressionSequence);
+            if (checks is not null)
+            {
+                checks.Write(json);
+            }
             json.WriteEndObject();
         }
         stdout.WriteLine(Encoding.UTF8.GetString(buffer.WrittenSpan));
-        return result.Ok ? 0 : ChainBrokenExitCode;
+        return !result.Ok ? ChainBrokenExitCode : checks is { Anomalies.Count: > 0 } ? AnomalyExitCode : 0;
     }
 
-    private static (string Option, string Path) ParseDb(IReadOnlyList<string> args)
+    private const string UsageText = "usage: opslvp audit verify --db <file> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | --export <episode.json>";
+
+    private static (string Option, string Path, string? Anchors, string? PublicKey) ParseDb(IReadOnlyList<string> args)
     {
         string? option = null;
         string? path = null;
+        string? anchors = null;
+        string? key = null;
         for (var i = 0; i < args.Count; i++)
         {
             if (args[i] is "--db" or "--export" && i + 1 < args.Count && path is null)
@@ -94,17 +132,35 @@ public sealed class AuditVerifyCommand : ICliCommand
                 option = args[i];
                 path = args[++i];
             }
+            else if (args[i] == "--anchors" && i + 1 < args.Count && anchors is null)
+            {
+                anchors = args[++i];
+            }
+            else if (args[i] == "--public-key" && i + 1 < args.Count && key is null)
+            {
+                key = args[++i];
+            }
             else
             {
-                throw new CliUsageException($"unexpected argument '{args[i]}'; usage: opslvp audit verify --db <file> | --export <episode.json>");
+                throw new CliUsageException($"unexpected argument '{args[i]}'; {UsageText}");
             }
         }
-        return string.IsNullOrWhiteSpace(path)
-            ? throw new CliUsageException("missing --db <file> or --export <episode.json>; usage: opslvp audit verify --db <file> | --export <episode.json>")
-            : (option!, path);
+        if (string.IsNullOrWhiteSpace(path))
+        {
+            throw new CliUsageException($"missing --db <file> or --export <episode.json>; {UsageText}");
+        }
+        if (option == "--export" && (anchors is not null || key is not null))
+        {
+            throw new CliUsageException($"--anchors and --public-key go with --db; {UsageText}");
+        }
+        if (key is not null && anchors is null)
+        {
+            throw new CliUsageException($"--public-key needs --anchors; {UsageText}");
+        }
+        return (option!, path, anchors, key);
     }
 
-    private static async Task<AuditVerification> VerifyAsync(string path)
+    private static async Task<(AuditVerification, DbChecks)> VerifyAsync(string path, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
     {
         var connectionString = new SqliteConnectionStringBuilder
         {
@@ -123,8 +179,11 @@ public sealed class AuditVerifyCommand : ICliCommand
                 throw new InvalidDataException("it has no audit_entries table");
             }
         }
-        using var store = new AuditStore(new OpsLvpDbContextFactory(options));
-        return await store.VerifyAsync();
+        var factory = new OpsLvpDbContextFactory(options);
+        using var store = new AuditStore(factory);
+        var chain = await store.VerifyAsync();
+        var checks = await DbChecks.RunAsync(factory, store, anchorLines, trustedFingerprint);
+        return (chain, checks);
     }
 
     private static void WriteNullable(Utf8JsonWriter json, string name, long? value)

@@ -17,6 +17,9 @@ public sealed class EngineStateRow
     /// <summary>Hash of the audit entry at <see cref="AuditSequence"/> when the state was written (null before the TamperEvidence migration or with an empty chain).</summary>
     public string? AuditHash { get; set; }
 
+    /// <summary>Signature binding the state to its audit entry with the anchor key (docs/audit.md "State seal"); null when written without a sealer.</summary>
+    public string? StateSignature { get; set; }
+
     public required string ProfileVersion { get; set; }
 
     public DateTimeOffset SavedAt { get; set; }

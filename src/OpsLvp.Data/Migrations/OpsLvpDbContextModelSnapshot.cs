@@ -355,6 +355,10 @@ namespace OpsLvp.Data.Migrations
                         .HasColumnType("TEXT")
                         .HasColumnName("state_json");
 
+                    b.Property<string>("StateSignature")
+                        .HasColumnType("TEXT")
+                        .HasColumnName("state_signature");
+
                     b.HasKey("Id");
 
                     b.ToTable("engine_state", null, t =>

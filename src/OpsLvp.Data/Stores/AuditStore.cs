@@ -20,7 +20,7 @@ namespace OpsLvp.Data.Stores;
 /// write lock is taken, so another writer (another store or process) can never leave this one with a stale head.
 /// EF keeps the model, the migrations and the reads.
 /// </remarks>
-public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDisposable
+public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStateSealer? sealer = null) : IDisposable
 {
     private const string HeadSql = "SELECT sequence, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1;";
 
@@ -28,9 +28,9 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         "INSERT INTO audit_entries (sequence, time, actor, kind, payload_json, previous_hash, hash) VALUES ($s, $t, $a, $k, $p, $ph, $h);";
 
     private const string StateSql =
-        "INSERT INTO engine_state (id, state_json, audit_sequence, audit_hash, profile_version, saved_at) VALUES ($id, $j, $q, $qh, $v, $at) "
+        "INSERT INTO engine_state (id, state_json, audit_sequence, audit_hash, state_signature, profile_version, saved_at) VALUES ($id, $j, $q, $qh, $sg, $v, $at) "
         + "ON CONFLICT (id) DO UPDATE SET state_json = excluded.state_json, audit_sequence = excluded.audit_sequence, "
-        + "audit_hash = excluded.audit_hash, profile_version = excluded.profile_version, saved_at = excluded.saved_at;";
+        + "audit_hash = excluded.audit_hash, state_signature = excluded.state_signature, profile_version = excluded.profile_version, saved_at = excluded.saved_at;";
 
     private readonly SqliteWriter _writer = new(factory, "audit writer");
 
@@ -62,7 +62,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
 
         try
         {
-            return await _writer.RunAsync(session => Append(session, pending, state), cancellationToken);
+            return await _writer.RunAsync(session => Append(session, pending, state, sealer), cancellationToken);
         }
         catch (Exception ex) when (ex is DbUpdateException or DbException or InvalidOperationException)
         {
@@ -84,6 +84,15 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         ArgumentNullException.ThrowIfNull(kind);
         await using var db = await factory.CreateDbContextAsync(cancellationToken);
         var row = await db.AuditEntries.AsNoTracking().Where(e => e.Kind == kind).OrderByDescending(e => e.Sequence).FirstOrDefaultAsync(cancellationToken);
+        return row is null ? null : ToEntry(row);
+    }
+
+    /// <summary>The last committed entry whose payload text contains <paramref name="text"/>, or null.</summary>
+    public async Task<AuditEntry?> GetLastContainingAsync(string text, CancellationToken cancellationToken = default)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(text);
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        var row = await db.AuditEntries.AsNoTracking().Where(e => e.PayloadJson.Contains(text)).OrderByDescending(e => e.Sequence).FirstOrDefaultAsync(cancellationToken);
         return row is null ? null : ToEntry(row);
     }
 
@@ -116,7 +125,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
     {
         await using var db = await factory.CreateDbContextAsync(cancellationToken);
         var row = await db.EngineState.AsNoTracking().SingleOrDefaultAsync(s => s.Id == EngineStateRow.SingleId, cancellationToken);
-        return row is null ? null : new PersistedEngineState(row.StateJson, row.AuditSequence, row.ProfileVersion, row.SavedAt, row.AuditHash);
+        return row is null ? null : new PersistedEngineState(row.StateJson, row.AuditSequence, row.ProfileVersion, row.SavedAt, row.AuditHash, row.StateSignature);
     }
 
     /// <summary>
@@ -174,7 +183,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
     private static AuditEntry ToEntry(AuditEntryRow row) =>
         new(row.Sequence, UtcTextConverter.Parse(row.Time), row.Actor, row.Kind, row.PayloadJson, row.PreviousHash, row.Hash);
 
-    private static List<AuditEntry> Append(SqliteWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state)
+    private static List<AuditEntry> Append(SqliteWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state, IStateSealer? sealer)
     {
         using var transaction = session.Connection.BeginTransaction(deferred: false);
         AuditChainHead? head = null;
@@ -197,8 +206,10 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory) : IDi
         }
         if (state is not null)
         {
-            var upsert = session.Command(StateSql, transaction, "$id", "$j", "$q", "$qh", "$v", "$at");
-            SqliteWriter.Session.Bind(upsert, EngineStateRow.SingleId, state.StateJson, head?.Sequence ?? 0, head?.Hash, state.ProfileVersion, UtcTextConverter.Format(state.SavedAt));
+            // sealed inside the transaction: the head it names is the one this commit leaves (docs/audit.md "State seal")
+            var signature = sealer?.Seal(head?.Sequence ?? 0, head?.Hash, state.StateJson, state.ProfileVersion);
+            var upsert = session.Command(StateSql, transaction, "$id", "$j", "$q", "$qh", "$sg", "$v", "$at");
+            SqliteWriter.Session.Bind(upsert, EngineStateRow.SingleId, state.StateJson, head?.Sequence ?? 0, head?.Hash, signature, state.ProfileVersion, UtcTextConverter.Format(state.SavedAt));
             upsert.ExecuteNonQuery();
         }
         // Once COMMIT is under way the outcome must be the one reported; a failed commit throws and rolls back.

@@ -1,4 +1,5 @@
 using Microsoft.EntityFrameworkCore;
+using OpsLvp.Core.Audit.Anchors;
 using OpsLvp.Core.Readings;
 using OpsLvp.Data.Entities;
 
@@ -57,6 +58,26 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : I
         return rows.ConvertAll(r => new ReceivedReading(
             r.ReceivedAt, r.Source, r.Sensor, r.Kind, r.Time, r.Value, r.Status, r.Accepted,
             r.RejectReason is null ? null : Enum.Parse<RejectReason>(r.RejectReason), r.RejectDetail));
+    }
+
+    /// <summary>
+    /// Count and digest of the stored readings with <paramref name="after"/> &lt; id ≤ <paramref name="to"/> (all above
+    /// <paramref name="after"/> when <paramref name="to"/> is null), streamed in id order (docs/audit.md "Readings covered").
+    /// </summary>
+    public async Task<ReadingsCoverage> CoverAsync(long after, long? to = null, CancellationToken cancellationToken = default)
+    {
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        var query = db.Readings.AsNoTracking().Where(r => r.Id > after);
+        if (to is { } last)
+        {
+            query = query.Where(r => r.Id <= last);
+        }
+        using var digest = new ReadingsDigest();
+        await foreach (var r in query.OrderBy(r => r.Id).AsAsyncEnumerable().WithCancellation(cancellationToken))
+        {
+            digest.Add(r.Id, r.ReceivedAt, r.Source, r.Sensor, r.Kind, r.Time, r.Value, r.Status, r.Accepted, r.RejectReason, r.RejectDetail);
+        }
+        return new ReadingsCoverage(after, to ?? (digest.Count > 0 ? digest.LastId : after), digest.Count, digest.Finish());
     }
 
     private static ReadingRow ToRow(ReceivedReading reading)

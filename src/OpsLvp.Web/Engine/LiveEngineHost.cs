@@ -6,6 +6,7 @@ using OpsLvp.Core.Profile;
 using OpsLvp.Core.Readings;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
+using OpsLvp.Web.Anchors;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Live;
@@ -42,7 +43,8 @@ public sealed class LiveEngineHost(
     TimeProvider clock,
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<LiveEngineHost> logger,
-    ILoggerFactory loggerFactory) : BackgroundService
+    ILoggerFactory loggerFactory,
+    TamperCheck tamper) : BackgroundService
 {
     private readonly ILogger _night = loggerFactory.CreateLogger(NightLog.Category);
 
@@ -76,6 +78,7 @@ public sealed class LiveEngineHost(
     private Alarm? _clockAlarm;
     private string? _stopped;
     private long _refusedReadings;
+    private long _readingsCoveredTo;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
     public AerodromeProfile? Profile => _engine?.Profile;
@@ -131,7 +134,7 @@ public sealed class LiveEngineHost(
         var persisted = await audit.GetLatestStateAsync(cancellationToken);
         var restored = false;
         NewAuditEntry? acknowledged = null;
-        if (await StateMismatchAsync(persisted, cancellationToken) is { } mismatch)
+        if ((await StateMismatchAsync(persisted, cancellationToken) ?? await tamper.CheckAsync(persisted, cancellationToken)) is { } mismatch)
         {
             if (o.AcknowledgeStateMismatch != mismatch.Head)
             {
@@ -190,7 +193,13 @@ public sealed class LiveEngineHost(
             // each episode by the thresholds then in force.
             hostEntries.Add(ProfileRecord.Entry(profile, now));
         }
+        _readingsCoveredTo = await tamper.ReadingsCoveredToAsync(cancellationToken);
         await EvaluateAsync([], null, hostEntries, cancellationToken);
+        if (acknowledged is not null)
+        {
+            // the anchors before this one described the chain the administrator acknowledged as lost (docs/audit.md "Anchors")
+            await tamper.AnchorResetAsync(cancellationToken);
+        }
         await base.StartAsync(cancellationToken);
     }
 
@@ -446,8 +455,16 @@ public sealed class LiveEngineHost(
         IReadOnlyList<OpsLvp.Core.Audit.AuditEntry> committed = [];
         if (mustWrite)
         {
+            var coveredTo = _readingsCoveredTo;
             try
             {
+                if (TamperCheck.CoveringIndex(entries) is { } covering)
+                {
+                    // the readings received since the last covering entry, so an edited readings table shows (docs/audit.md "Readings covered")
+                    var coverage = await readingStore.CoverAsync(_readingsCoveredTo, null, cancellationToken);
+                    entries[covering] = entries[covering] with { PayloadJson = coverage.AddTo(entries[covering].PayloadJson) };
+                    coveredTo = coverage.To;
+                }
                 committed = await audit.AppendAsync(
                     entries,
                     new EngineStateWrite(EngineStateJson.Serialize(state), engine.Profile.Version, now),
@@ -462,6 +479,7 @@ public sealed class LiveEngineHost(
             }
             _written = state;
             _lastWriteReal = realNow;
+            _readingsCoveredTo = coveredTo;
         }
         foreach (var batch in batches)
         {

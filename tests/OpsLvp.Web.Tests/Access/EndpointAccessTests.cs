@@ -39,6 +39,7 @@ public sealed class EndpointAccessTests
         ["/admin/users"] = AccessPolicies.Admin,
         ["/admin/displays"] = AccessPolicies.Admin,
         ["/admin/keys"] = AccessPolicies.Admin,
+        ["/api/admin/anchor"] = AccessPolicies.Admin,
         ["/console"] = AccessPolicies.Console,
         ["/actions"] = AccessPolicies.Actions,
         ["/wall"] = AccessPolicies.Wall,

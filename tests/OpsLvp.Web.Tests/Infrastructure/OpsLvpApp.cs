@@ -131,6 +131,17 @@ public sealed class OpsLvpApp : IAsyncDisposable
 
     public static void TryDelete(string folder)
     {
+        // the anchor key and log live beside the data folder by default (docs/audit.md "Anchors")
+        var anchors = Path.TrimEndingDirectorySeparator(folder) + "-anchors";
+        if (Directory.Exists(anchors))
+        {
+            TryDeleteFolder(anchors);
+        }
+        TryDeleteFolder(folder);
+    }
+
+    private static void TryDeleteFolder(string folder)
+    {
         try
         {
             Directory.Delete(folder, recursive: true);

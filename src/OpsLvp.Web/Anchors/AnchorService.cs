@@ -1,0 +1,86 @@
+using Microsoft.Extensions.Options;
+using OpsLvp.Core.Audit;
+using OpsLvp.Core.Audit.Anchors;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Time;
+
+namespace OpsLvp.Web.Anchors;
+
+/// <summary>
+/// Signs the audit chain's head and appends it to the anchor log and the server log: every
+/// <see cref="AnchorOptions.Interval"/> of real time, at shutdown and on demand (docs/audit.md "Anchors").
+/// Registered before the engine host, so it stops after it and the shutdown anchor covers the engine's last entries.
+/// </summary>
+public sealed class AnchorService(
+    AuditStore audit,
+    AnchorKey key,
+    AnchorLog log,
+    IOptions<AnchorOptions> options,
+    [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
+    ILogger<AnchorService> logger) : BackgroundService
+{
+    private readonly SemaphoreSlim _gate = new(1, 1);
+    private bool _resetPending;
+
+    /// <summary>The next anchor starts afresh (after an administrator acknowledged a mismatch).</summary>
+    public void RequestReset() => _resetPending = true;
+
+    /// <summary>Signs the current head now and writes it out; returns the anchor.</summary>
+    public async Task<AuditAnchor> AnchorNowAsync(string why, CancellationToken cancellationToken = default)
+    {
+        await _gate.WaitAsync(cancellationToken);
+        try
+        {
+            var head = await audit.GetHeadAsync(cancellationToken);
+            var reset = _resetPending;
+            var anchor = AuditAnchor.Sign(key.Key, head?.Sequence ?? 0, head?.Hash ?? AuditChain.GenesisHash, realClock.GetUtcNow(), reset);
+            log.Append(anchor);
+            _resetPending = false;
+            logger.LogInformation("Audit anchor ({Why}): {Anchor}", why, anchor.ToJsonLine());
+            return anchor;
+        }
+        finally
+        {
+            _gate.Release();
+        }
+    }
+
+    public override async Task StopAsync(CancellationToken cancellationToken)
+    {
+        await base.StopAsync(cancellationToken);
+        await TryAnchorAsync("shutdown", CancellationToken.None);
+    }
+
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        using var timer = new PeriodicTimer(options.Value.Interval, realClock);
+        try
+        {
+            while (await timer.WaitForNextTickAsync(stoppingToken))
+            {
+                await TryAnchorAsync("interval", stoppingToken);
+            }
+        }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+        }
+    }
+
+    private async Task TryAnchorAsync(string why, CancellationToken cancellationToken)
+    {
+        try
+        {
+            await AnchorNowAsync(why, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+        {
+            logger.LogError(ex, "Audit anchor ({Why}) could not be written to {Path}", why, log.Path);
+        }
+    }
+
+    public override void Dispose()
+    {
+        _gate.Dispose();
+        base.Dispose();
+    }
+}
