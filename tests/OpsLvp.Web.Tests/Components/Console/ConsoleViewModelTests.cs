@@ -42,7 +42,12 @@ public sealed class ConsoleViewModelTests
         var snapshot = TestSnapshots.Make(1, phase: Phase.Preparation, items: [TestSnapshots.Item("P1", "airside"), TestSnapshots.Item("P2", "lighting")]);
         snapshot = snapshot with
         {
-            Status = snapshot.Status with { SafeguardsOutstanding = ["P1", "P2"], ConditionsMetSafeguardsIncomplete = true },
+            Status = snapshot.Status with
+            {
+                SafeguardsOutstanding = ["P1", "P2"],
+                ConditionsMetSafeguardsIncomplete = true,
+                Waiting = [new WaitingFor(WaitKind.Safeguards, "LVP conditions met — safeguards incomplete: P1, P2 open", null, null, ["P1", "P2"])],
+            },
         };
 
         var view = ConsoleViewModel.Build(snapshot, TestSnapshots.T0.AddMinutes(5), Dm);
@@ -51,6 +56,7 @@ public sealed class ConsoleViewModelTests
         Assert.Equal(["LVP conditions met — safeguards incomplete: Item P1 (invented); Item P2 (invented) open"], view.PhaseNotes);
         Assert.Equal(["Item P1 (invented): not applicable…", "Item P2 (invented): not applicable…"], view.Safeguards.Select(s => s.ButtonLabel));
         Assert.Equal(["P1", "P2"], view.Safeguards.Select(s => s.ItemId));
+        Assert.Equal(["LVP conditions met — safeguards incomplete: Item P1 (invented); Item P2 (invented) open"], view.Waiting);
         Assert.Equal("LVP CONDITIONS MET — SAFEGUARDS INCOMPLETE", view.PhaseText);
         Assert.Equal("phase-warning", view.PhaseClass);
     }

@@ -119,7 +119,7 @@ public sealed class ConsoleViewModel
             ShowReleaseHold = status.Hold is not null,
             ShowOverride = status.Phase != Phase.Active,
             Runways = status.Runways.Select(r => new ConsoleRunway($"RWY {r.Direction}", r.Positions.Select(Position).ToList())).ToList(),
-            Waiting = status.Waiting.Select(w => w.Text).ToList(),
+            Waiting = status.Waiting.Select(w => WaitWords.Text(w, itemText)).ToList(),
             Pending = status.Pending is { } p
                 ? new ConsolePending(
                     $"{LvpVocabulary.Change(p.From, p.To)}: {p.Reason}",
