@@ -6,14 +6,17 @@ namespace OpsLvp.Core.Engine;
 /// </summary>
 public static class StatusNotes
 {
-    /// <summary>The notes for <paramref name="status"/>, most important first.</summary>
-    public static IReadOnlyList<string> For(EngineStatus status)
+    /// <summary>
+    /// The notes for <paramref name="status"/>, most important first. Open safeguards are named by
+    /// <paramref name="itemText"/> (the profile's item texts) when given and it knows the item, else by their ids.
+    /// </summary>
+    public static IReadOnlyList<string> For(EngineStatus status, Func<string, string?>? itemText = null)
     {
         ArgumentNullException.ThrowIfNull(status);
         var notes = new List<string>();
         if (status.ConditionsMetSafeguardsIncomplete)
         {
-            notes.Add($"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(", ", status.SafeguardsOutstanding)} open");
+            notes.Add($"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(itemText is null ? ", " : "; ", status.SafeguardsOutstanding.Select(id => itemText?.Invoke(id) ?? id))} open");
         }
         if (status.SafeguardsOverride is { } o)
         {

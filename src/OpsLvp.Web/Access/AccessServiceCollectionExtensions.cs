@@ -166,6 +166,7 @@ public static class AccessServiceCollectionExtensions
         services.AddSingleton<SetupGate>();
         services.AddSingleton<DemoAccounts>();
         services.AddScoped<UserAdmin>();
+        services.AddSingleton<ProfileTeamList>();
         services.AddSingleton<CredentialAdmin>();
         services.AddSingleton<HubConnectionMonitor>();
         services.AddHostedService(sp => sp.GetRequiredService<HubConnectionMonitor>());

@@ -13,7 +13,7 @@ namespace OpsLvp.Web.Access;
 /// written to the audit chain, then applied; when the audit entry cannot be committed nothing is changed. Role, team
 /// and enable/disable changes renew the security stamp so open sessions end at the next revalidation.
 /// </summary>
-public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit audit, TimeProvider clock, SetupGate setup)
+public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit audit, TimeProvider clock, SetupGate setup, ProfileTeamList profileTeams)
 {
     public async Task<IReadOnlyList<UserSummary>> ListAsync(CancellationToken cancellationToken = default)
     {
@@ -33,17 +33,17 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
         var problems = CheckRolesAndTeams(roles, teams);
         if (!UserNamePattern().IsMatch(name))
         {
-            problems.Add("user name: 2 to 64 characters, letters, digits, '.', '-' or '_'");
+            problems.Add((UserAdminFields.UserName, "user name: 2 to 64 characters, letters, digits, '.', '-' or '_'"));
         }
         else if (await users.FindByNameAsync(name) is not null)
         {
-            problems.Add($"user name '{name}' is taken");
+            problems.Add((UserAdminFields.UserName, $"user name '{name}' is taken"));
         }
         var user = new OpsLvpUser { UserName = name, DisplayName = displayName.Trim(), CreatedAt = clock.GetUtcNow() };
-        problems.AddRange(await PasswordProblemsAsync(user, password));
+        problems.AddRange((await PasswordProblemsAsync(user, password)).Select(m => (UserAdminFields.Password, m)));
         if (problems.Count > 0)
         {
-            return new UserAdminResult(false, problems);
+            return UserAdminResult.Refused(problems);
         }
         await audit.AppendAsync(actor, AccessAuditKinds.UserCreated, new { userName = name, displayName = user.DisplayName, roles, teams }, cancellationToken);
         var created = await users.CreateAsync(user, password);
@@ -87,7 +87,7 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
         var problems = CheckRolesAndTeams(roles, teams);
         if (problems.Count > 0)
         {
-            return new UserAdminResult(false, problems);
+            return UserAdminResult.Refused(problems);
         }
         await audit.AppendAsync(actor, AccessAuditKinds.RolesSet, new { userName = user.UserName, roles, teams }, cancellationToken);
         await ApplyRolesAndTeamsAsync(users, user, roles, teams);
@@ -127,7 +127,7 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
         var problems = await PasswordProblemsAsync(user, password);
         if (problems.Count > 0)
         {
-            return new UserAdminResult(false, problems);
+            return UserAdminResult.Refused(problems.Select(m => (UserAdminFields.Password, m)).ToList());
         }
         await audit.AppendAsync(actor, AccessAuditKinds.PasswordReset, new { userName = user.UserName }, cancellationToken);
         var token = await users.GeneratePasswordResetTokenAsync(user);
@@ -171,22 +171,36 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
         Check(await users.UpdateSecurityStampAsync(user));
     }
 
-    private static List<string> CheckRolesAndTeams(IReadOnlyCollection<string> roles, IReadOnlyCollection<string> teams)
+    /// <summary>
+    /// Roles must be known; teams must be teams of the running profile (an unknown team would leave its member with no
+    /// items to see), held by ground staff only, and ground staff need at least one.
+    /// </summary>
+    private List<(string Field, string Message)> CheckRolesAndTeams(IReadOnlyCollection<string> roles, IReadOnlyCollection<string> teams)
     {
-        var problems = new List<string>();
+        var problems = new List<(string Field, string Message)>();
         if (roles.Count == 0)
         {
-            problems.Add("choose at least one role");
+            problems.Add((UserAdminFields.Roles, "choose at least one role"));
         }
-        problems.AddRange(roles.Where(r => !AccessStartup.AllRoles.Contains(r)).Select(r => $"unknown role '{r}'"));
-        problems.AddRange(teams.Where(t => !TeamPattern().IsMatch(t)).Select(t => $"team id '{t}' is not a profile team id (lower-case letters, digits, '-')"));
+        problems.AddRange(roles.Where(r => !AccessStartup.AllRoles.Contains(r)).Select(r => (UserAdminFields.Roles, $"unknown role '{r}'")));
+        var known = profileTeams.Teams;
+        if (teams.Count > 0 && known is null)
+        {
+            problems.Add((UserAdminFields.Teams, "teams cannot be checked: no aerodrome profile is loaded"));
+        }
+        else if (known is not null)
+        {
+            var names = string.Join(", ", known.Select(t => $"{t.Name} ({t.Id})"));
+            problems.AddRange(teams.Where(t => !known.Any(k => k.Id == t))
+                .Select(t => (UserAdminFields.Teams, $"team '{t}' is not a team of the aerodrome profile (its teams: {names})")));
+        }
         if (roles.Contains(Roles.GroundStaff) && teams.Count == 0)
         {
-            problems.Add("ground staff must belong to at least one team");
+            problems.Add((UserAdminFields.Teams, "ground staff must belong to at least one team"));
         }
         if (!roles.Contains(Roles.GroundStaff) && teams.Count > 0)
         {
-            problems.Add("teams are only for ground staff");
+            problems.Add((UserAdminFields.Teams, "teams are only for ground staff"));
         }
         return problems;
     }
@@ -235,7 +249,4 @@ public sealed partial class UserAdmin(UserManager<OpsLvpUser> users, AccessAudit
 
     [GeneratedRegex(@"^[A-Za-z0-9._-]{2,64}$")]
     private static partial Regex UserNamePattern();
-
-    [GeneratedRegex(@"^[a-z0-9][a-z0-9-]{0,63}$")]
-    private static partial Regex TeamPattern();
 }

@@ -1,4 +1,5 @@
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 using OpsLvp.Core.Profile;
 using OpsLvp.Web.Engine;
 
@@ -61,8 +62,8 @@ public sealed class LvpCommandService(LiveEngineHost host, ILogger<LvpCommandSer
 
     private static string Describe(EngineCommand command) => command switch
     {
-        DeclarePhase { SafeguardsOverride: not null } d => $"{d.Phase.ToString().ToLowerInvariant()} declared over open safeguards",
-        DeclarePhase d => $"{d.Phase.ToString().ToLowerInvariant()} declared",
+        DeclarePhase { SafeguardsOverride: not null } d => $"{LvpVocabulary.For(d.Phase).Name} declared over open safeguards",
+        DeclarePhase d => $"{LvpVocabulary.For(d.Phase).Name} declared",
         CancelLvp => "LVP cancelled",
         ReleaseHold => "hold released",
         SetForecast f => f.On ? "deterioration forecast set" : "deterioration forecast cleared",

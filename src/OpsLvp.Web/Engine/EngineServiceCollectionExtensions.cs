@@ -36,6 +36,7 @@ public static class EngineServiceCollectionExtensions
         services.AddSingleton<LiveEngineHost>();
         services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
         services.AddSingleton<ILvpCommandService, LvpCommandService>();
+        services.AddSingleton<ICommandPreview, EngineCommandPreview>();
         services.AddHostedService<DemoActionRunner>();
         services.AddSignalR().AddJsonProtocol(o => LiveJson.Configure(o.PayloadSerializerOptions));
         services.AddHostedService<HubBroadcaster>();

@@ -214,8 +214,8 @@ public sealed class DutyConsoleTests : LiveComponentTest
             ]));
         var cut = RenderConsole();
         Assert.Equal("recovery from preparation held 6 of 15 min", cut.Find("[data-testid=console-wait]").TextContent.Trim());
-        Assert.Equal("1/2 done · 1 overdue", cut.Find("[data-team=airside] [data-testid=console-team-count]").TextContent.Trim());
-        Assert.Equal("0/1 done", cut.Find("[data-team=lighting] [data-testid=console-team-count]").TextContent.Trim());
+        Assert.Equal("1 of 2 done · 1 overdue", cut.Find("[data-team=airside] [data-testid=console-team-count]").TextContent.Trim());
+        Assert.Equal("0 of 1 done", cut.Find("[data-team=lighting] [data-testid=console-team-count]").TextContent.Trim());
     }
 
     [Theory]

@@ -17,6 +17,7 @@ public abstract class LiveComponentTest : BunitContext, IAsyncLifetime
         Services.AddMudServices();
         Services.AddSingleton<ILiveState>(Live);
         Services.AddSingleton<ILvpCommandService>(Commands);
+        Services.AddSingleton<ICommandPreview>(Previews);
         Services.AddSingleton<TimeProvider>(Clock);
     }
 
@@ -26,6 +27,9 @@ public abstract class LiveComponentTest : BunitContext, IAsyncLifetime
     protected TestLiveState Live { get; } = new();
 
     protected TestCommandService Commands { get; } = new();
+
+    /// <summary>The console's "what would this command do": none unless a test gives it a real engine and state.</summary>
+    protected TestCommandPreview Previews { get; } = new();
 
     /// <summary>Signs in <paramref name="name"/> with a role and team claims (values as in <see cref="Roles"/> and profile team ids).</summary>
     protected void SignIn(string name, string role, params string[] teams)

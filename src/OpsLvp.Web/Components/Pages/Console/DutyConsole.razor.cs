@@ -1,4 +1,3 @@
-using System.Globalization;
 using Microsoft.AspNetCore.Components;
 using Microsoft.AspNetCore.Components.Authorization;
 using MudBlazor;
@@ -12,18 +11,24 @@ namespace OpsLvp.Web.Components.Pages.Console;
 
 /// <summary>
 /// The duty manager's console: condition summary, what the engine waits for, the pending transition, the
-/// declare/cancel/hold/forecast/light-step/sensor actions (each asking a reason in a dialog) and each team's progress.
-/// Buttons show only for duty managers; the command service decides and its outcome is shown as a snackbar.
+/// declare/cancel/hold/forecast/light-step/sensor actions (each asking a reason in a dialog that says, from the
+/// engine's own preview, what the command would do) and each team's progress on the current phase. Everything shown
+/// comes from <see cref="ConsoleViewModel"/>; every command's outcome is told through <see cref="CommandFeedback"/>.
 /// </summary>
 public partial class DutyConsole : LiveComponentBase
 {
+    /// <summary>The reason the preview is evaluated with: the engine asks for one; nothing is recorded.</summary>
+    private const string PreviewReason = "(preview)";
+
     private CommandCaller _caller = CommandCaller.Anonymous;
     private LiveSnapshot? _snapshot;
-    private IReadOnlyList<TeamProgress> _progress = [];
-    private bool _isDutyManager;
+    private ConsoleViewModel? _view;
 
     [Inject]
     private ILvpCommandService Commands { get; set; } = default!;
+
+    [Inject]
+    private ICommandPreview Previews { get; set; } = default!;
 
     [Inject]
     private IDialogService Dialogs { get; set; } = default!;
@@ -35,8 +40,6 @@ public partial class DutyConsole : LiveComponentBase
     [Inject]
     private TimeProvider Clock { get; set; } = default!;
 
-    private DateTimeOffset Now => Clock.GetUtcNow();
-
     [CascadingParameter]
     private Task<AuthenticationState>? AuthenticationState { get; set; }
 
@@ -46,60 +49,14 @@ public partial class DutyConsole : LiveComponentBase
         {
             _caller = CommandCaller.FromPrincipal((await AuthenticationState).User);
         }
-        _isDutyManager = _caller.IsInRole(Roles.DutyManager);
         ShowSnapshot(Live.Current);
     }
 
     protected override void OnSnapshot(LiveSnapshot snapshot)
     {
         _snapshot = snapshot;
-        _progress = TeamProgress.For(snapshot.Items);
+        _view = ConsoleViewModel.Build(snapshot, Clock.GetUtcNow(), _caller);
     }
-
-    /// <summary>The state's name from the one vocabulary, in capitals as on the wall.</summary>
-    internal static string PhaseText(EngineStatus status) => LvpVocabulary.For(status).Headline;
-
-    /// <summary>The chip's CSS class from the state's tone (the palette shared with the tablet).</summary>
-    internal static string PhaseClass(EngineStatus status) => "phase-" + LvpVocabulary.For(status).Tone.ToString().ToLowerInvariant();
-
-    /// <summary>The safeguards line, naming outstanding items by their texts (ids only for items the snapshot does not list).</summary>
-    internal static string SafeguardsText(LiveSnapshot snapshot)
-    {
-        var status = snapshot.Status;
-        if (status.Episode is null)
-        {
-            return "safeguards: not applicable (normal operations)";
-        }
-        if (status.SafeguardsComplete)
-        {
-            return "safeguards complete";
-        }
-        if (status.SafeguardsOutstanding.Count == 0)
-        {
-            return "safeguards incomplete";
-        }
-        var texts = status.SafeguardsOutstanding
-            .Select(id => snapshot.Items.LastOrDefault(i => i.ItemId == id)?.Text ?? id);
-        return $"safeguards incomplete, outstanding: {string.Join("; ", texts)}";
-    }
-
-    private static string PositionText(PositionRvr p) => p switch
-    {
-        { SensorId: null } => "—",
-        { OutOfService: true } => "OOS",
-        { Reading: null } => "no data",
-        { Reading: { Stale: true } } => "stale",
-        { Reading: { } r } => string.Create(CultureInfo.InvariantCulture, $"{r.Value:0} m"),
-    };
-
-    /// <summary>Sensors the console can mark: those standing at an LVP runway position, the ceilometer in use, and any already out of service.</summary>
-    private static IEnumerable<string> Sensors(LiveSnapshot s) =>
-        s.Status.Runways.SelectMany(r => r.Positions).Select(p => p.SensorId)
-            .Append(s.Status.Ceiling?.SensorId)
-            .Concat(s.OutOfService)
-            .OfType<string>()
-            .Distinct(StringComparer.Ordinal)
-            .Order(StringComparer.Ordinal);
 
     private Task ConfirmPendingAsync()
     {
@@ -108,104 +65,134 @@ public partial class DutyConsole : LiveComponentBase
             return Task.CompletedTask;
         }
         var what = LvpVocabulary.Change(p.From, p.To);
-        return AskAndRunAsync($"Confirm {what}", $"Confirm the pending transition {what} ({p.Reason}).", $"Confirm {Name(p.To)}", Color.Warning,
-            reason => new ConfirmPending(_caller.Name, reason));
+        return AskAndRunAsync(new ConsoleAsk($"Confirm {what}", $"Confirm the pending transition {what} ({p.Reason}).", $"Confirm {Name(p.To)}", Color.Warning,
+            reason => new ConfirmPending(_caller.Name, reason))
+        {
+            // the proposal may be withdrawn (or replaced) while the reason is typed: never confirm another one
+            StillValid = () => _snapshot?.Status.Pending is { } now && now.From == p.From && now.To == p.To && now.ConditionMetAt == p.ConditionMetAt
+                ? null
+                : $"not sent: the proposal {what} was withdrawn while the reason was typed; nothing was confirmed",
+        });
     }
 
     private Task DeclareAsync(Phase phase) =>
-        AskAndRunAsync($"Declare {Name(phase)}", $"Declare {Name(phase)} now. This sets a hold: the phase will not relax automatically below {Name(phase)} until the hold is released.",
+        AskAndRunAsync(new ConsoleAsk($"Declare {Name(phase)}",
+            $"Declare {Name(phase)} now. This sets a hold: the phase will not relax automatically below {Name(phase)} until the hold is released.",
             $"Declare {Name(phase)}", phase == Phase.Active ? Color.Error : Color.Warning,
-            reason => new DeclarePhase(_caller.Name, phase, reason));
+            reason => new DeclarePhase(_caller.Name, phase, reason)));
 
     private Task DeclareOverrideAsync() =>
-        AskAndRunAsync("Declare active over open safeguards",
-            "Declare active although mandatory preparation items are open. The override and its reason are audited and shown on every screen until the phase leaves active.",
-            "Declare active anyway", Color.Error,
-            reason => new DeclarePhase(_caller.Name, Phase.Active, reason, reason));
+        AskAndRunAsync(new ConsoleAsk($"Declare {Name(Phase.Active)} over open safeguards",
+            $"Declare {Name(Phase.Active)} although mandatory preparation items are open. The override and its reason are audited and shown on every screen until the phase leaves active.",
+            "Declare anyway", Color.Error,
+            reason => new DeclarePhase(_caller.Name, Phase.Active, reason, reason)));
 
-    private Task NotApplicableAsync(string itemId) =>
-        AskAndRunAsync($"Mark {itemId} not applicable",
-            $"Mark the safeguard {itemId} not applicable. It then counts as done (docs/engine.md R13); the reason is audited.",
+    private Task NotApplicableAsync(ConsoleSafeguard item) =>
+        AskAndRunAsync(new ConsoleAsk($"Mark \"{item.Text}\" not applicable",
+            $"Mark the safeguard \"{item.Text}\" ({item.ItemId}) not applicable. It then counts as done (docs/engine.md R13); the reason is audited.",
             "Not applicable", Color.Warning,
-            reason => new MarkNotApplicable(_caller.Name, itemId, reason));
+            reason => new MarkNotApplicable(_caller.Name, item.ItemId, reason)));
 
     private Task CancelAsync() =>
-        AskAndRunAsync("Cancel LVP", "Cancel: active goes to cancellation, preparation goes to normal, even against the conditions.", "Cancel LVP", Color.Info,
-            reason => new CancelLvp(_caller.Name, reason));
+        AskAndRunAsync(new ConsoleAsk("Cancel LVP",
+            "Cancel: LVP in force goes to cancelling LVP, preparation goes to normal operations, even against the conditions.", "Cancel LVP", Color.Info,
+            reason => new CancelLvp(_caller.Name, reason))
+        {
+            ShowConditions = true,
+            SecondConfirmText = "Cancel LVP against the conditions",
+        });
 
     private Task ReleaseHoldAsync() =>
-        AskAndRunAsync("Release hold", "Release the declared hold: automatic relaxation may follow at once if its dwell has held.", "Release hold", Color.Primary,
-            reason => new ReleaseHold(_caller.Name, reason));
+        AskAndRunAsync(new ConsoleAsk("Release hold", "Release the declared hold: automatic relaxation may follow at once if its dwell has held.", "Release hold", Color.Primary,
+            reason => new ReleaseHold(_caller.Name, reason)));
 
     private Task ToggleForecastAsync()
     {
         var on = !(_snapshot?.Status.DeteriorationForecast ?? false);
-        return AskAndRunAsync(on ? "Set deterioration forecast" : "Clear deterioration forecast",
+        return AskAndRunAsync(new ConsoleAsk(on ? "Set deterioration forecast" : "Clear deterioration forecast",
             on ? "Set the deterioration forecast flag." : "Clear the deterioration forecast flag.",
             on ? "Set forecast" : "Clear forecast", Color.Primary,
-            reason => new SetForecast(_caller.Name, on, reason));
+            reason => new SetForecast(_caller.Name, on, reason)));
     }
 
-    private Task SetSensorAsync(string sensorId, bool currentlyOutOfService) =>
-        AskAndRunAsync(currentlyOutOfService ? $"Return {sensorId} to service" : $"Take {sensorId} out of service",
-            currentlyOutOfService ? $"Mark {sensorId} back in service: its readings count again." : $"Mark {sensorId} out of service: its readings no longer count.",
-            currentlyOutOfService ? "Back in service" : "Out of service", Color.Primary,
-            reason => new SetSensorService(_caller.Name, sensorId, currentlyOutOfService, reason));
+    private Task SetSensorAsync(ConsoleSensor sensor) =>
+        AskAndRunAsync(new ConsoleAsk(sensor.OutOfService ? $"Return {sensor.SensorId} to service" : $"Take {sensor.SensorId} out of service",
+            sensor.OutOfService ? $"Mark {sensor.SensorId} back in service: its readings count again." : $"Mark {sensor.SensorId} out of service: its readings no longer count.",
+            sensor.OutOfService ? "Back in service" : "Out of service", Color.Primary,
+            reason => new SetSensorService(_caller.Name, sensor.SensorId, sensor.OutOfService, reason)));
 
     private Task SetLightStepAsync(int step) =>
-        AskAndRunAsync($"Set runway-light step {step}",
+        AskAndRunAsync(new ConsoleAsk($"Set runway-light step {step}",
             step == 0
                 ? "Record that the runway lights are off (step 0): RVR is then the object range alone (MOR). The setting is audited and stands until a newer lighting-sensor reading."
                 : $"Record that the runway lights are at step {step}: RVR uses its intensity. The setting is audited and stands until a newer lighting-sensor reading.",
             $"Set step {step}", Color.Primary,
-            reason => new SetLightStep(_caller.Name, step, reason));
+            reason => new SetLightStep(_caller.Name, step, reason)));
 
-    /// <summary>"3 (set by kim at 06:10)", "0, lights off (lighting sensor LGT1)", "unknown (lighting sensor LGT1 stale) — lowest intensity used".</summary>
-    internal static string LightStepText(OpsLvp.Core.Optics.LightStepInUse? use)
-    {
-        if (use is null)
-        {
-            return "—";
-        }
-        var step = use.Step is { } v ? (v == 0 ? "0, lights off" : v.ToString("0.##", CultureInfo.InvariantCulture)) : "unknown";
-        var origin = use.Origin switch
-        {
-            OpsLvp.Core.Optics.LightStepOrigin.Manual => $"set by {use.Source}{(use.Since is { } at ? " at " + DisplayFormat.UtcClock(at) : "")}",
-            OpsLvp.Core.Optics.LightStepOrigin.Sensor => use.Step is null ? $"lighting sensor {use.Source} stale" : $"lighting sensor {use.Source}",
-            _ => "profile starting value",
-        };
-        return $"{step} ({origin}){(use.Unknown ? " — lowest configured intensity used" : "")}";
-    }
+    /// <summary>"3 (set by kim at 06:10Z)": see <see cref="ConsoleViewModel.LightStepLine"/>.</summary>
+    internal static string LightStepText(OpsLvp.Core.Optics.LightStepInUse? use) => ConsoleViewModel.LightStepLine(use);
 
-    private async Task AskAndRunAsync(string title, string prompt, string confirmText, Color color, Func<string, EngineCommand> command)
+    /// <summary>
+    /// Every console command goes through here: the dialog (with the engine's preview of the command: what it acts
+    /// against, whether it moves the state, a second ask when a cancel goes against the conditions), the page's own
+    /// last check, the command service, and the outcome told through <see cref="CommandFeedback"/>.
+    /// </summary>
+    private async Task AskAndRunAsync(ConsoleAsk ask)
     {
+        var preview = PreviewOf(ask.Command(PreviewReason));
         var parameters = new DialogParameters<ReasonDialog>
         {
-            { d => d.Prompt, prompt },
-            { d => d.ConfirmText, confirmText },
-            { d => d.ConfirmColor, color },
+            { d => d.Prompt, ask.Prompt },
+            { d => d.ConfirmText, ask.ConfirmText },
+            { d => d.ConfirmColor, ask.Color },
+            { d => d.Effect, preview is null ? "What this would do cannot be told now: the engine has no state yet." : CommandPreviewWords.Effect(preview) },
         };
-        var dialog = await Dialogs.ShowAsync<ReasonDialog>(title, parameters, new DialogOptions { MaxWidth = MaxWidth.Small, FullWidth = true, CloseOnEscapeKey = true });
+        if (ask.ShowConditions && preview is not null)
+        {
+            parameters.Add(d => d.Facts, CommandPreviewWords.ConditionFacts(preview));
+            parameters.Add(d => d.Verdict, CommandPreviewWords.CancelVerdict(preview));
+            if (CommandPreviewWords.SecondAsk(preview) is { } second)
+            {
+                parameters.Add(d => d.SecondAsk, second);
+                parameters.Add(d => d.SecondConfirmText, ask.SecondConfirmText);
+            }
+        }
+        var dialog = await Dialogs.ShowAsync<ReasonDialog>(ask.Title, parameters, new DialogOptions { MaxWidth = MaxWidth.Small, FullWidth = true, CloseOnEscapeKey = true });
         var result = await dialog.Result;
         if (result is null || result.Canceled || result.Data is not string reason || string.IsNullOrWhiteSpace(reason))
         {
             return;
         }
         CommandOutcome outcome;
+        if (ask.StillValid?.Invoke() is { } stale)
+        {
+            outcome = new CommandOutcome(CommandOutcomeKind.Refused, stale);
+        }
+        else
+        {
+            try
+            {
+                outcome = await Commands.ExecuteAsync(_caller, ask.Command(reason));
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException)
+            {
+                outcome = new CommandOutcome(CommandOutcomeKind.Failed, $"not sent: {ex.Message}");
+            }
+        }
+        CommandFeedback.Show(Snackbar, ask.Title, outcome);
+    }
+
+    private CommandPreview? PreviewOf(EngineCommand command)
+    {
         try
         {
-            outcome = await Commands.ExecuteAsync(_caller, command(reason));
+            return Previews.Preview(command);
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
-            outcome = new CommandOutcome(CommandOutcomeKind.Failed, $"Not sent: {ex.Message}");
+            // a preview that cannot be computed must not stop the command: the dialog says it cannot tell
+            return null;
         }
-        Snackbar.Add(outcome.Message, outcome.Kind switch
-        {
-            CommandOutcomeKind.Applied => Severity.Success,
-            CommandOutcomeKind.Refused => Severity.Warning,
-            _ => Severity.Error,
-        });
     }
 
     private static string Name(Phase phase) => LvpVocabulary.For(phase).Name;

@@ -9,6 +9,10 @@ namespace OpsLvp.Web.Components.Pages.Console;
 /// <param name="Overdue">Open items past their due time.</param>
 public sealed record TeamProgress(string Team, string TeamName, int Done, int Total, int Overdue)
 {
+    /// <summary>Per team, in team-name order, counting only the items of <paramref name="phase"/> (the current phase).</summary>
+    public static IReadOnlyList<TeamProgress> For(IEnumerable<ChecklistItemView>? items, Phase phase) =>
+        For((items ?? []).Where(i => i is not null && i.Phase == phase));
+
     /// <summary>Per team, in team-name order.</summary>
     public static IReadOnlyList<TeamProgress> For(IEnumerable<ChecklistItemView>? items)
     {
