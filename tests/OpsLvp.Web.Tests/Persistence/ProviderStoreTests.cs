@@ -80,6 +80,33 @@ public sealed class ProviderStoreTests
         Assert.Contains("synchronous_commit", error.Message, StringComparison.Ordinal);
     }
 
+    [PostgresFact]
+    public async Task Postgres_WriterConnectionsDropped_TheNextAppendsStartOnFreshConnections_AndTheChainHasNoGap()
+    {
+        using var db = await ProviderDatabase.CreateMigratedAsync(Postgres);
+        using var store = new AuditStore(db.Factory);
+        using var readings = new ReadingStore(db.Factory);
+        await store.AppendAsync([Entry(1)], new EngineStateWrite("{}", "xdmo-invented-1", s_t0));
+        await readings.InsertAsync([new ReceivedReading(s_t0, "push:invented", "TDZ-INV", "rvr", s_t0, 600, "ok", true)]);
+
+        // as a server restart or a network cut does to the kept connections
+        Assert.True(PostgresCluster.Shared.TerminateConnections(db.ConnectionString) >= 2);
+        // idle pooled connections (EF reads) are dropped here; the writers' kept connections are what this test is about
+        Npgsql.NpgsqlConnection.ClearAllPools();
+
+        // the first use may still meet the dead connection (refused, nothing written); a later one must succeed
+        var appended = await FirstSuccessAsync(() => store.AppendAsync([Entry(2)], new EngineStateWrite("{}", "xdmo-invented-1", s_t0)));
+        await FirstSuccessAsync(async () =>
+        {
+            await readings.InsertAsync([new ReceivedReading(s_t0.AddSeconds(1), "push:invented", "TDZ-INV", "rvr", s_t0.AddSeconds(1), 650, "ok", true)]);
+            return 0;
+        });
+
+        Assert.Equal(2, Assert.Single(appended).Sequence);
+        Assert.True((await store.VerifyAsync()).Ok);
+        Assert.Equal(2, (await readings.GetReceivedAsync(s_t0, s_t0.AddMinutes(1))).Count);
+    }
+
     [Fact]
     public void Postgres_WithoutAConnectionString_IsRefusedNamingTheSetting()
     {
@@ -252,6 +279,18 @@ public sealed class ProviderStoreTests
         Assert.Equal([accepted, rejected, later], await store.GetReceivedAsync(s_t0, s_t0.AddSeconds(10)));
         await Assert.ThrowsAnyAsync<ArgumentException>(() => store.InsertAsync([accepted with { Value = null }]));
         Assert.Equal(3, (await store.GetReceivedAsync(s_t0, s_t0.AddHours(1))).Count);
+    }
+
+    private static async Task<T> FirstSuccessAsync<T>(Func<Task<T>> action)
+    {
+        try
+        {
+            return await action();
+        }
+        catch (Exception ex) when (ex is AuditCommitException or System.Data.Common.DbException or InvalidOperationException)
+        {
+            return await action();
+        }
     }
 
     private static NewAuditEntry Entry(int n) =>
