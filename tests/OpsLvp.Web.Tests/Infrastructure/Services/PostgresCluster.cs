@@ -80,15 +80,20 @@ public sealed class PostgresCluster : IDisposable
             return;
         }
         _stopped = true;
+        // Stop and delete in one detached shell: this runs from ProcessExit, and the test host can be ended before a
+        // deletion in this process finishes (the shell carries on; waiting for it here is a courtesy).
+        var pgCtl = Path.Combine(_bin, "pg_ctl");
+        var stop = $"'{pgCtl}' stop -D '{DataFolder}' -m immediate -w -t 60";
+        if (_asPostgresUser)
+        {
+            stop = "runuser -u postgres -- " + stop;
+        }
         try
         {
-            RunTool("pg_ctl", "stop", "-D", DataFolder, "-m", "immediate", "-w", "-t", "60");
+            using var shell = System.Diagnostics.Process.Start("sh", ["-c", $"{stop} >/dev/null 2>&1; rm -rf '{Folder}'"]);
+            shell.WaitForExit(30_000);
         }
-        catch (InvalidOperationException)
-        {
-            // already gone
-        }
-        for (var attempt = 0; attempt < 5 && Directory.Exists(Folder); attempt++)
+        catch (System.ComponentModel.Win32Exception)
         {
             OpsLvpApp.TryDelete(Folder);
         }
