@@ -1,6 +1,6 @@
 namespace OpsLvp.Cli;
 
-/// <summary>Dispatches `opslvp` arguments to a command. Exit codes: 0 ok, 1 bad input, 2 usage, 3 audit chain broken (audit verify).</summary>
+/// <summary>Dispatches `opslvp` arguments to a command. Exit codes: 0 ok, 1 bad input, 2 usage, 3 audit chain broken (audit verify, migrate).</summary>
 public static class CliApp
 {
     /// <summary>Every command the tool knows.</summary>
@@ -11,6 +11,7 @@ public static class CliApp
         new Commands.TafDecodeCommand(),
         new Commands.AuditVerifyCommand(),
         new Commands.ReplayCommand(),
+        new Commands.MigrateCommand(),
     ];
 
     /// <summary>Runs the tool in-process (tests call this directly).</summary>

@@ -2,6 +2,7 @@ using System.Data;
 using System.Data.Common;
 using System.Globalization;
 using Microsoft.EntityFrameworkCore;
+using Npgsql;
 
 namespace OpsLvp.Data;
 
@@ -32,11 +33,28 @@ public static class DatabaseChecks
         }
     }
 
-    /// <summary>The same check on an open SQLite connection.</summary>
-    /// <exception cref="InvalidOperationException">journal_mode is not WAL or synchronous is not FULL; the message names the pragma.</exception>
+    /// <summary>
+    /// The same check on an open connection. SQLite: journal_mode WAL and synchronous FULL. PostgreSQL: <c>fsync</c> on
+    /// and <c>synchronous_commit</c> not <c>off</c> (a commit that returned survives a crash of the server).
+    /// </summary>
+    /// <exception cref="InvalidOperationException">A setting is not in force; the message names it.</exception>
     public static async Task EnsureDurableAsync(DbConnection connection, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(connection);
+        if (connection is NpgsqlConnection)
+        {
+            var fsync = Convert.ToString(await ScalarAsync(connection, "SHOW fsync;", cancellationToken), CultureInfo.InvariantCulture);
+            if (!string.Equals(fsync, "on", StringComparison.OrdinalIgnoreCase))
+            {
+                throw new InvalidOperationException($"PostgreSQL fsync is '{fsync}', expected 'on'.");
+            }
+            var synchronousCommit = Convert.ToString(await ScalarAsync(connection, "SHOW synchronous_commit;", cancellationToken), CultureInfo.InvariantCulture);
+            if (string.Equals(synchronousCommit, "off", StringComparison.OrdinalIgnoreCase))
+            {
+                throw new InvalidOperationException("PostgreSQL synchronous_commit is 'off', expected 'on' (or local, remote_write, remote_apply).");
+            }
+            return;
+        }
         var journalMode = Convert.ToString(await ScalarAsync(connection, "PRAGMA journal_mode;", cancellationToken), CultureInfo.InvariantCulture);
         if (!string.Equals(journalMode, "wal", StringComparison.OrdinalIgnoreCase))
         {

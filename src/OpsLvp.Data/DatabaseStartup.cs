@@ -21,7 +21,7 @@ public static class DatabaseStartup
     {
         ArgumentNullException.ThrowIfNull(factory);
         await using var db = await factory.CreateDbContextAsync(cancellationToken);
-        var before = await JournalModeOfExistingFileAsync(db.Database.GetConnectionString(), cancellationToken);
+        var before = db.Database.IsSqlite() ? await JournalModeOfExistingFileAsync(db.Database.GetConnectionString(), cancellationToken) : null;
         await db.Database.MigrateAsync(cancellationToken);
         await DatabaseChecks.EnsureDurableAsync(db, cancellationToken);
         var found = s_switchedFrom.GetValue(factory, _ => new System.Runtime.CompilerServices.StrongBox<string?>());

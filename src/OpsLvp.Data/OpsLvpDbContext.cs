@@ -130,6 +130,32 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(k => k.LastUsedAt).HasColumnName("last_used_at");
             e.HasIndex(k => k.KeyHash).IsUnique().HasDatabaseName("ix_api_keys_key_hash");
         });
+
+        if (Database.IsNpgsql())
+        {
+            UseByteOrderForTimes(modelBuilder);
+        }
+    }
+
+    /// <summary>
+    /// Times are stored as fixed-width UTC text (<see cref="UtcTextConverter"/>) and compared as text; on PostgreSQL
+    /// their columns use the "C" collation so text order is byte order (and range scans use the index) whatever the
+    /// database's default collation is. SQLite compares bytes already.
+    /// </summary>
+    private static void UseByteOrderForTimes(ModelBuilder modelBuilder)
+    {
+        foreach (var entity in modelBuilder.Model.GetEntityTypes())
+        {
+            foreach (var property in entity.GetProperties())
+            {
+                if (property.ClrType == typeof(DateTimeOffset) || property.ClrType == typeof(DateTimeOffset?))
+                {
+                    property.SetCollation("C");
+                }
+            }
+        }
+        // the audit time is kept as its exact canonical text (a string property), compared the same way
+        modelBuilder.Entity<AuditEntryRow>().Property(a => a.Time).UseCollation("C");
     }
 
     /// <summary>Identity's tables and columns in the database's snake_case style (users, roles, user_roles, ...).</summary>

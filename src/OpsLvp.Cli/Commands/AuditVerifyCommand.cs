@@ -14,7 +14,8 @@ namespace OpsLvp.Cli.Commands;
 
 /// <summary>
 /// <c>opslvp audit verify --db path</c> (docs/cli.md): verifies the audit hash chain of a database file, opened
-/// read-only. Prints <c>{"entries","ok","first_bad_sequence","reason","detail","time_regression_sequence"}</c>.
+/// read-only, or of a PostgreSQL database when the value is a connection string (<c>--db "Host=...;Database=..."</c>,
+/// read in a read-only transaction). Prints <c>{"entries","ok","first_bad_sequence","reason","detail","time_regression_sequence"}</c>.
 /// Exit 0 when the chain verifies, <see cref="ChainBrokenExitCode"/> when it does not, 1 for a missing or
 /// unreadable file, 2 for a bad command line (docs/audit.md). <c>opslvp audit verify --export E.json</c> checks the
 /// audit entries of an episode export as a chain segment (docs/review.md), same output and exit codes.
@@ -33,12 +34,13 @@ public sealed class AuditVerifyCommand : ICliCommand
 
     public IReadOnlyList<string> Path { get; } = ["audit", "verify"];
 
-    public string Usage => "audit verify --db <file> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | audit verify --export <episode.json>";
+    public string Usage => "audit verify --db <file or PostgreSQL connection string> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | audit verify --export <episode.json>";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
         var (option, path, anchorsPath, keyPath) = ParseDb(args);
-        if (!File.Exists(path))
+        var postgres = option == "--db" && !File.Exists(path) && OpsLvpDatabase.LooksLikePostgres(path);
+        if (!postgres && !File.Exists(path))
         {
             stderr.WriteLine(option == "--db" ? $"error: database file '{path}' not found" : $"error: episode export '{path}' not found");
             return 1;
@@ -74,6 +76,19 @@ public sealed class AuditVerifyCommand : ICliCommand
             catch (FormatException ex)
             {
                 stderr.WriteLine($"error: cannot read '{path}' as an episode export: {ex.Message.ReplaceLineEndings(" ")}");
+                return 1;
+            }
+        }
+        else if (postgres)
+        {
+            try
+            {
+                (result, checks) = VerifyPostgresAsync(path, anchorLines, trustedFingerprint).GetAwaiter().GetResult();
+            }
+            catch (Exception ex) when (ex is System.Data.Common.DbException or InvalidDataException or InvalidOperationException or FormatException or InvalidCastException)
+            {
+                // the connection string may hold a password: name only the server and database
+                stderr.WriteLine($"error: cannot read {PostgresName(path)} as an OpsLvp database: {ex.Message.ReplaceLineEndings(" ")}");
                 return 1;
             }
         }
@@ -173,6 +188,39 @@ public sealed class AuditVerifyCommand : ICliCommand
         {
             var tables = await db.Database
                 .SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = 'audit_entries'")
+                .SingleAsync();
+            if (tables == 0)
+            {
+                throw new InvalidDataException("it has no audit_entries table");
+            }
+        }
+        var factory = new OpsLvpDbContextFactory(options);
+        using var store = new AuditStore(factory);
+        var chain = await store.VerifyAsync();
+        var checks = await DbChecks.RunAsync(factory, store, anchorLines, trustedFingerprint);
+        return (chain, checks);
+    }
+
+    /// <summary>"database 'opslvp' on db:5432", never the password.</summary>
+    internal static string PostgresName(string connectionString)
+    {
+        var builder = new Npgsql.NpgsqlConnectionStringBuilder(connectionString);
+        return $"PostgreSQL database '{builder.Database}' on {builder.Host}:{builder.Port}";
+    }
+
+    private static async Task<(AuditVerification, DbChecks)> VerifyPostgresAsync(string connectionString, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    {
+        var builder = new Npgsql.NpgsqlConnectionStringBuilder(connectionString)
+        {
+            Pooling = false,
+            // every statement of the check runs read-only: verifying never changes the database
+            Options = "-c default_transaction_read_only=on",
+        };
+        var options = OpsLvpDatabase.PostgresOptions(builder.ConnectionString);
+        await using (var db = new OpsLvpDbContext(options))
+        {
+            var tables = await db.Database
+                .SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM information_schema.tables WHERE table_schema = current_schema() AND table_name = 'audit_entries'")
                 .SingleAsync();
             if (tables == 0)
             {

@@ -179,7 +179,9 @@ internal sealed class DbChecks
     }
 
     private static async Task<bool> TableExistsAsync(OpsLvpDbContext db, string name) =>
-        await db.Database.SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = {name}").SingleAsync() > 0;
+        (db.Database.ProviderName ?? "").Contains("Npgsql", StringComparison.Ordinal)
+            ? await db.Database.SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM information_schema.tables WHERE table_schema = current_schema() AND table_name = {name}").SingleAsync() > 0
+            : await db.Database.SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = {name}").SingleAsync() > 0;
 
     private static string Text(FormattableString s) => s.ToString(CultureInfo.InvariantCulture);
 

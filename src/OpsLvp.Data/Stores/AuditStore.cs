@@ -34,6 +34,11 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
 
     private readonly SqliteWriter _writer = new(factory, "audit writer");
 
+    // PostgreSQL's counterpart (docs/deployment.md "PostgreSQL and several nodes"); only one of the two is ever opened.
+    private readonly PostgresWriter _postgresWriter = new(factory, "audit writer");
+
+    private readonly ProviderProbe _provider = new(factory);
+
     /// <summary>
     /// Appends <paramref name="entries"/> in order and, if <paramref name="state"/> is given, stores it as the engine
     /// state with the sequence and hash of the last appended entry (or the current head when there are none).
@@ -62,7 +67,9 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
 
         try
         {
-            return await _writer.RunAsync(session => Append(session, pending, state, sealer), cancellationToken);
+            return _provider.IsPostgres
+                ? await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.AppendAuditAsync(session, pending, state, sealer, ct), cancellationToken)
+                : await _writer.RunAsync(session => Append(session, pending, state, sealer), cancellationToken);
         }
         catch (Exception ex) when (ex is DbUpdateException or DbException or InvalidOperationException)
         {
@@ -153,9 +160,10 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
     /// <summary>
     /// Folds the write-ahead log back into the database and truncates it (<c>PRAGMA wal_checkpoint(TRUNCATE)</c>), e.g.
     /// after a storage outage. Returns false when a reader kept part of it (the next automatic checkpoint finishes).
+    /// On PostgreSQL there is nothing to fold (the server manages its own log): true.
     /// </summary>
     public Task<bool> CheckpointAsync(CancellationToken cancellationToken = default) =>
-        _writer.RunAsync(session =>
+        _provider.IsPostgres ? Task.FromResult(true) : _writer.RunAsync(session =>
         {
             using var command = session.Connection.CreateCommand();
             command.CommandText = "PRAGMA wal_checkpoint(TRUNCATE);";
@@ -164,7 +172,11 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
             return reader.Read() && reader.GetInt64(0) == 0;
         }, cancellationToken);
 
-    public void Dispose() => _writer.Dispose();
+    public void Dispose()
+    {
+        _writer.Dispose();
+        _postgresWriter.Dispose();
+    }
 
     private static void CheckState(EngineStateWrite state)
     {

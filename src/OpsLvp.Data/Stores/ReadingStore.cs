@@ -18,6 +18,10 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : I
 
     private readonly SqliteWriter _writer = new(factory, "reading store");
 
+    private readonly PostgresWriter _postgresWriter = new(factory, "reading store");
+
+    private readonly ProviderProbe _provider = new(factory);
+
     /// <summary>Inserts the batch in one transaction (all or none).</summary>
     /// <exception cref="ArgumentException">An accepted reading lacks time, value or status or has a reject reason, or a rejected one has none; or source is empty.</exception>
     public async Task InsertAsync(IReadOnlyList<ReceivedReading> readings, CancellationToken cancellationToken = default)
@@ -26,6 +30,11 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : I
         var rows = readings.Select(ToRow).ToList();
         if (rows.Count == 0)
         {
+            return;
+        }
+        if (_provider.IsPostgres)
+        {
+            await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.InsertReadingsAsync(session, rows, ct), cancellationToken);
             return;
         }
         await _writer.RunAsync(session =>
@@ -45,7 +54,11 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : I
         }, cancellationToken);
     }
 
-    public void Dispose() => _writer.Dispose();
+    public void Dispose()
+    {
+        _writer.Dispose();
+        _postgresWriter.Dispose();
+    }
 
     /// <summary>Readings received with <paramref name="from"/> ≤ received_at &lt; <paramref name="to"/>, in insertion order.</summary>
     public async Task<IReadOnlyList<ReceivedReading>> GetReceivedAsync(DateTimeOffset from, DateTimeOffset to, CancellationToken cancellationToken = default)

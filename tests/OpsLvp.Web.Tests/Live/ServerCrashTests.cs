@@ -8,6 +8,7 @@ using OpsLvp.Data.Stores;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Tests.Infrastructure;
+using OpsLvp.Web.Tests.Infrastructure.Services;
 
 namespace OpsLvp.Web.Tests.Live;
 
@@ -65,6 +66,58 @@ public sealed class ServerCrashTests
         }
     }
 
+    /// <summary>The same kill -9 test on PostgreSQL: the server process's database is on the test cluster.</summary>
+    [PostgresFact]
+    public async Task ServerKilledDuringABurst_OnPostgres_RestartsWithAVerifyingChainWithoutGaps_AndItsState()
+    {
+        using var database = ProviderDatabase.Create(OpsLvpDatabase.PostgresProvider);
+        var environment = new Dictionary<string, string>
+        {
+            ["OpsLvp__Database__Provider"] = OpsLvpDatabase.PostgresProvider,
+            ["ConnectionStrings__OpsLvp"] = database.ConnectionString,
+        };
+        var folder = OpsLvpApp.NewDataFolder();
+        try
+        {
+            var profile = LiveTestProfile.Write(folder);
+            var value = 0;
+            foreach (var killAfter in new[] { 400, 1100, 1900 }) // ms of burst before the kill, invented
+            {
+                using (var server = await ServerProcess.StartAsync(folder, profile, environment))
+                {
+                    var stopwatch = Stopwatch.StartNew();
+                    var t = DateTimeOffset.UtcNow;
+                    while (stopwatch.ElapsedMilliseconds < killAfter)
+                    {
+                        var rvr = (value++ % 3) switch { 0 => 900, 1 => 500, _ => 1500 };
+                        t = t.AddMilliseconds(10);
+                        await server.PushAsync(LiveClient.Item(t, LiveTestProfile.Tdz, "rvr", rvr));
+                    }
+                    server.Kill();
+                }
+                await AssertChainAndStateAsync(new AuditStore(database.NewFactory()));
+            }
+            using (var last = await ServerProcess.StartAsync(folder, profile, environment))
+            {
+                using var health = await last.Client.GetAsync(new Uri("/health", UriKind.Relative));
+                Assert.Equal(HttpStatusCode.OK, health.StatusCode);
+                last.Kill();
+            }
+            using var store = new AuditStore(database.NewFactory());
+            var head = await store.GetHeadAsync();
+            var entries = await store.GetRangeAsync(1, head!.Sequence);
+            Assert.Equal(Enumerable.Range(1, (int)head.Sequence).Select(i => (long)i), entries.Select(e => e.Sequence));
+            var starts = entries.Where(e => e.Kind == "engine_started").ToList();
+            Assert.Equal(4, starts.Count);
+            Assert.All(starts.Skip(1), s => Assert.Contains("\"restored\":true", s.PayloadJson, StringComparison.Ordinal));
+            await AssertChainAndStateAsync(store);
+        }
+        finally
+        {
+            OpsLvpApp.TryDelete(folder);
+        }
+    }
+
     private static async Task AssertDatabaseIntactAsync(string db)
     {
         await using (var connection = new SqliteConnection($"Data Source={db};Pooling=False"))
@@ -78,6 +131,11 @@ public sealed class ServerCrashTests
             Assert.Equal(1L, (long)(await gaps.ExecuteScalarAsync())!);
         }
         var store = new AuditStore(new OpsLvpDbContextFactory(OpsLvpDatabase.SqliteOptions($"Data Source={db};Pooling=False")));
+        await AssertChainAndStateAsync(store);
+    }
+
+    private static async Task AssertChainAndStateAsync(AuditStore store)
+    {
         var verification = await store.VerifyAsync();
         Assert.True(verification.Ok, verification.Detail);
         var state = await store.GetLatestStateAsync();
@@ -99,7 +157,7 @@ public sealed class ServerCrashTests
 
         public HttpClient Client { get; }
 
-        public static async Task<ServerProcess> StartAsync(string folder, string profile)
+        public static async Task<ServerProcess> StartAsync(string folder, string profile, IReadOnlyDictionary<string, string>? environment = null)
         {
             var port = FreePort();
             var dll = Path.Combine(AppContext.BaseDirectory, "OpsLvp.Web.dll");
@@ -119,6 +177,10 @@ public sealed class ServerCrashTests
             start.Environment["Feeds__Push__ApiKeys__0__Name"] = "crash-test";
             start.Environment["Feeds__Push__ApiKeys__0__Key"] = LiveTestProfile.PushKey;
             start.Environment["Logging__LogLevel__Default"] = "Warning";
+            foreach (var (key, value) in environment ?? new Dictionary<string, string>())
+            {
+                start.Environment[key] = value;
+            }
             var process = Process.Start(start)!;
             process.OutputDataReceived += (_, _) => { };
             process.ErrorDataReceived += (_, _) => { };

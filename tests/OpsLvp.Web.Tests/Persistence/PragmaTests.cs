@@ -107,7 +107,10 @@ public class PragmaTests
     }
 
     [Theory]
-    [InlineData("Postgres", "Data Source=x.db", OpsLvpDatabase.ProviderSetting)]
+    [InlineData("Oracle", "Data Source=x.db", OpsLvpDatabase.ProviderSetting)]
+    [InlineData("Postgres", "", OpsLvpDatabase.PostgresConnectionStringSetting)]
+    [InlineData("Postgres", "Database=opslvp", OpsLvpDatabase.PostgresConnectionStringSetting)]
+    [InlineData("Postgres", "Nonsense Key=1", OpsLvpDatabase.PostgresConnectionStringSetting)]
     [InlineData("Sqlite", "", OpsLvpDatabase.ConnectionStringSetting)]
     [InlineData(null, null, OpsLvpDatabase.ConnectionStringSetting)]
     [InlineData("Sqlite", "Nonsense Key=1", OpsLvpDatabase.ConnectionStringSetting)]
