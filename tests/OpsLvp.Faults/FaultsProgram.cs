@@ -7,7 +7,7 @@ namespace OpsLvp.Faults;
 /// <summary>
 /// <c>dotnet run -c Release --project tests/OpsLvp.Faults -- --kills 200 --bodies 1000000 --disk-full --read-only</c>:
 /// kill -9 cycles under load, generated hostile ingest bodies, disk-full and read-only cycles on a small tmpfs (root
-/// only; skipped with the reason otherwise). Prints tried / held / broke per case, writes the table as markdown
+/// only; skipped with the reason otherwise); <c>--fs-shutdown</c> adds ext4-on-loop shutdown cycles (root and loop devices). Prints tried / held / broke per case, writes the table as markdown
 /// (<c>--out</c>, default <c>fault-run.md</c>) and exits 1 when anything broke. Options: <c>--seed N</c>,
 /// <c>--parallel N</c> (hostile senders, default 4), <c>--cycles N</c> (storage cycles each, default 3).
 /// </summary>
@@ -22,10 +22,11 @@ public static class FaultsProgram
         var cycles = Int(args, "--cycles", 3);
         var diskFull = args.Contains("--disk-full");
         var readOnly = args.Contains("--read-only");
+        var shutdown = args.Contains("--fs-shutdown");
         var output = Value(args, "--out") ?? "fault-run.md";
-        if (kills == 0 && bodies == 0 && !diskFull && !readOnly)
+        if (kills == 0 && bodies == 0 && !diskFull && !readOnly && !shutdown)
         {
-            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
+            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--fs-shutdown] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
             return 2;
         }
 
@@ -52,6 +53,11 @@ public static class FaultsProgram
             {
                 Log($"storage faults: disk full {(diskFull ? cycles : 0)}, read-only {(readOnly ? cycles : 0)} cycles");
                 await StorageRun.RunAsync(diskFull ? cycles : 0, readOnly ? cycles : 0, Path.Combine(root, "storage"), tally, Log);
+            }
+            if (shutdown)
+            {
+                Log($"filesystem shutdown cycles: {cycles}");
+                await ShutdownRun.RunAsync(cycles, Path.Combine(root, "shutdown"), tally, Log);
             }
         }
         finally
