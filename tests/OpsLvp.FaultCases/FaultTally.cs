@@ -22,7 +22,7 @@ public sealed class FaultTally
 
     public void Broke(string group, string name, string why) => Get(group, name).AddBroke(why);
 
-    public void Skipped(string group, string name, string why) => _skipped[group + "\t" + name] = why;
+    public void Skipped(string group, string name, string why) => _skipped[group + "\t" + name] = (why ?? "").ReplaceLineEndings(" ");
 
     /// <summary>A figure printed under the table, e.g. "acknowledged readings checked after restarts: 12 345".</summary>
     public void Note(string key, string text) => _notes[key] = text;

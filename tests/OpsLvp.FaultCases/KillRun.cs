@@ -35,7 +35,7 @@ public static class KillRun
             {
                 tally.Broke(Group, "restart after kill", ex.Message);
                 log($"kill {kill}: restart failed, stopping the kill run: {ex.Message}");
-                return (checkedReadings, lost);
+                break;
             }
             var cycleStart = DateTimeOffset.UtcNow.AddMinutes(-1);
             var before = pushes.Acknowledged.Count;
