@@ -49,7 +49,18 @@ public static class ReadingJsonParser
                 throw new FeedFormatException($"body must be a JSON object with a \"readings\" array (got {Describe(root.ValueKind)})");
             }
 
-            if (FirstDuplicateName(root) is { } duplicate)
+            string? duplicate;
+            try
+            {
+                duplicate = FirstDuplicateName(root);
+            }
+            catch (InvalidOperationException)
+            {
+                // GetString and Name throw on an escaped lone surrogate ("\ud800"): not text, so not a name
+                throw new FeedFormatException(NotUnicode("body has a name"));
+            }
+
+            if (duplicate is not null)
             {
                 throw new FeedFormatException($"body names \"{ReadingFields.Clip(duplicate)}\" more than once");
             }
@@ -88,7 +99,28 @@ public static class ReadingJsonParser
         }
     }
 
+    /// <summary>
+    /// One item; an escaped lone surrogate (<c>"\ud800"</c>) in any of its names or strings rejects the item instead of
+    /// escaping as an exception (the fault suite's <c>lone-surrogate</c> case answered 500, docs/reliability.md "Fault runs").
+    /// </summary>
     private static bool TryRead(JsonElement item, out Reading reading, out string detail, out string? sensorId)
+    {
+        try
+        {
+            return TryReadItem(item, out reading, out detail, out sensorId);
+        }
+        catch (InvalidOperationException)
+        {
+            reading = null!;
+            sensorId = null;
+            detail = NotUnicode("item has a name or a string");
+            return false;
+        }
+    }
+
+    private static string NotUnicode(string what) => $"{what} that is not valid Unicode text (an unpaired surrogate escape such as \\ud800)";
+
+    private static bool TryReadItem(JsonElement item, out Reading reading, out string detail, out string? sensorId)
     {
         reading = null!;
         sensorId = null;
