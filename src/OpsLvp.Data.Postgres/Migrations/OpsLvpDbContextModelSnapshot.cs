@@ -378,6 +378,10 @@ namespace OpsLvp.Data.Postgres.Migrations
                         .HasColumnType("text")
                         .HasColumnName("state_json");
 
+                    b.Property<string>("StateSignature")
+                        .HasColumnType("text")
+                        .HasColumnName("state_signature");
+
                     b.HasKey("Id");
 
                     b.ToTable("engine_state", null, t =>
