@@ -34,4 +34,8 @@ public sealed record LiveSnapshot(
     DemoView? Demo,
     RecordingView? Recording = null,
     OpsLvp.Core.Optics.LightStepInUse? LightStep = null,
-    IReadOnlyList<int>? LightSteps = null);
+    IReadOnlyList<int>? LightSteps = null)
+{
+    /// <summary>The text of a checklist item of the running episode, or null (screens name items by text, not id).</summary>
+    public string? ItemText(string itemId) => Items.LastOrDefault(i => i.ItemId == itemId)?.Text;
+}

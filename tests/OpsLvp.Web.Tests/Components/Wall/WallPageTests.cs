@@ -158,7 +158,9 @@ public sealed class WallPageTests : WallTestBase
         var cut = RenderWall(Snapshot(status));
 
         var notices = cut.FindAll("[data-testid=wall-notice]");
-        Assert.Equal(["AWAITING CONFIRMATION", "HOLD", "FORECAST"], notices.Select(n => n.QuerySelector(".wall-notice-label")!.TextContent));
+        // The forecast flag is the forecast line's (with its source), not a notice as well.
+        Assert.Equal(["AWAITING CONFIRMATION", "HOLD"], notices.Select(n => n.QuerySelector(".wall-notice-label")!.TextContent));
+        Assert.Equal("true", cut.Find("[data-testid=forecast-line]").GetAttribute("data-on"));
         Assert.Equal("LVP preparation to LVP in force, proposed 21:58Z: RVR 07L TDZ 500 m < 550 m", notices[0].QuerySelector(".wall-notice-text")!.TextContent);
         // The confirmation wait is the notice; it is not repeated under "waiting for".
         Assert.Empty(cut.FindAll("[data-testid=wall-wait]"));

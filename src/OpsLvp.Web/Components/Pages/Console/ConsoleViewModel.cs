@@ -94,7 +94,7 @@ public sealed class ConsoleViewModel
         ArgumentNullException.ThrowIfNull(caller);
         var status = snapshot.Status;
         var isDutyManager = caller.IsInRole(Roles.DutyManager);
-        var itemText = ItemTexts(snapshot.Items);
+        Func<string, string?> itemText = snapshot.ItemText;
         var phaseWords = LvpVocabulary.For(status);
         return new ConsoleViewModel
         {
@@ -141,8 +141,6 @@ public sealed class ConsoleViewModel
     }
 
     /// <summary>The item's text from the snapshot (the latest instance), or null when the snapshot does not list it.</summary>
-    private static Func<string, string?> ItemTexts(IReadOnlyList<ChecklistItemView> items) =>
-        id => items.LastOrDefault(i => i.ItemId == id)?.Text;
 
     private static string SafeguardsLine(EngineStatus status, Func<string, string?> itemText)
     {

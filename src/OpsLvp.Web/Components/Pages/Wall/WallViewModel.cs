@@ -139,7 +139,7 @@ public sealed class WallViewModel
             Ceiling = status.CeilingConfigured ? Figure("Ceiling", status.Ceiling, DisplayFormat.Feet, now, "no fresh ceiling") : null,
             Thresholds = [Row(WallPhaseLook.ShortName(Core.Engine.Phase.Preparation), status.Thresholds.Preparation), Row(WallPhaseLook.ShortName(Core.Engine.Phase.Active), status.Thresholds.Active)],
             Notices = notices,
-            PhaseNotes = StatusNotes.For(status),
+            PhaseNotes = StatusNotes.For(status, snapshot.ItemText),
             Waiting = waiting,
             Teams = teams,
             ItemsSummary = summary,
@@ -285,10 +285,6 @@ public sealed class WallViewModel
                 "HOLD",
                 $"at least {WallPhaseLook.ShortName(h.Phase)} since {Hm(h.Since)}, by {h.Actor}: {h.Reason}",
                 "wall-notice-hold"));
-        }
-        if (status.DeteriorationForecast)
-        {
-            notices.Add(new("FORECAST", "deterioration forecast flagged", "wall-notice-forecast"));
         }
         return notices;
     }
