@@ -183,13 +183,15 @@ public sealed class AuditVerifyCommand : ICliCommand
             Mode = SqliteOpenMode.ReadOnly,
             Pooling = false,
         }.ToString();
-        var options = OpsLvpDatabase.SqliteOptions(connectionString);
+        return await VerifyDatabaseAsync(OpsLvpDatabase.SqliteOptions(connectionString), anchorLines, trustedFingerprint);
+    }
+
+    /// <summary>The chain and the other checks (anchors, state seal, covered readings) on an opened database, either provider.</summary>
+    private static async Task<(AuditVerification, DbChecks)> VerifyDatabaseAsync(DbContextOptions<OpsLvpDbContext> options, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    {
         await using (var db = new OpsLvpDbContext(options))
         {
-            var tables = await db.Database
-                .SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = 'audit_entries'")
-                .SingleAsync();
-            if (tables == 0)
+            if (!await DbChecks.TableExistsAsync(db, "audit_entries"))
             {
                 throw new InvalidDataException("it has no audit_entries table");
             }
@@ -216,22 +218,7 @@ public sealed class AuditVerifyCommand : ICliCommand
             // every statement of the check runs read-only: verifying never changes the database
             Options = "-c default_transaction_read_only=on",
         };
-        var options = OpsLvpDatabase.PostgresOptions(builder.ConnectionString);
-        await using (var db = new OpsLvpDbContext(options))
-        {
-            var tables = await db.Database
-                .SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM information_schema.tables WHERE table_schema = current_schema() AND table_name = 'audit_entries'")
-                .SingleAsync();
-            if (tables == 0)
-            {
-                throw new InvalidDataException("it has no audit_entries table");
-            }
-        }
-        var factory = new OpsLvpDbContextFactory(options);
-        using var store = new AuditStore(factory);
-        var chain = await store.VerifyAsync();
-        var checks = await DbChecks.RunAsync(factory, store, anchorLines, trustedFingerprint);
-        return (chain, checks);
+        return await VerifyDatabaseAsync(OpsLvpDatabase.PostgresOptions(builder.ConnectionString), anchorLines, trustedFingerprint);
     }
 
     private static void WriteNullable(Utf8JsonWriter json, string name, long? value)

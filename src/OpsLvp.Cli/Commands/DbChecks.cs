@@ -178,7 +178,7 @@ internal sealed class DbChecks
             : Text($"the engine state's seal does not verify with the anchor key: its state JSON, audit sequence {row.AuditSequence} or hash was edited")));
     }
 
-    private static async Task<bool> TableExistsAsync(OpsLvpDbContext db, string name) =>
+    internal static async Task<bool> TableExistsAsync(OpsLvpDbContext db, string name) =>
         (db.Database.ProviderName ?? "").Contains("Npgsql", StringComparison.Ordinal)
             ? await db.Database.SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM information_schema.tables WHERE table_schema = current_schema() AND table_name = {name}").SingleAsync() > 0
             : await db.Database.SqlQuery<long>($"SELECT count(*) AS \"Value\" FROM sqlite_master WHERE type = 'table' AND name = {name}").SingleAsync() > 0;

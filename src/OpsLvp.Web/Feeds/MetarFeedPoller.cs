@@ -1,4 +1,3 @@
-using System.Globalization;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Engine;
 using OpsLvp.Core.Forecast;
@@ -6,8 +5,6 @@ using OpsLvp.Core.Metar;
 using OpsLvp.Core.Readings;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Time;
-using Polly;
-using Polly.Timeout;
 
 namespace OpsLvp.Web.Feeds;
 
@@ -81,7 +78,7 @@ public sealed class MetarFeedPoller(
     {
         await Task.Yield();
         var source = SourceName(feed);
-        var isHttp = Uri.TryCreate(feed.Source, UriKind.Absolute, out var url) && (url.Scheme == Uri.UriSchemeHttp || url.Scheme == Uri.UriSchemeHttps);
+        var url = TextFeedSource.HttpUrl(feed.Source);
         var resilience = FeedResilience.Build(networkClock, feed.Retries, feed.RetryDelay, feed.Timeout);
         using var client = httpClientFactory.CreateClient(HttpFeedPoller.HttpClientName);
         client.Timeout = System.Threading.Timeout.InfiniteTimeSpan;
@@ -89,9 +86,7 @@ public sealed class MetarFeedPoller(
         {
             try
             {
-                var text = isHttp
-                    ? await FetchAsync(client, url!, resilience, stoppingToken)
-                    : await File.ReadAllTextAsync(paths.Resolve(feed.Source), stoppingToken);
+                var text = await TextFeedSource.ReadAsync(feed.Source, url, client, resilience, paths, stoppingToken);
                 var batch = ToBatch(text, feed, appClock.GetUtcNow());
                 await pipeline.SubmitAsync(batch, stoppingToken);
                 health.RecordSuccess(source, batch.Readings.Count, batch.Rejections.Count);
@@ -102,13 +97,7 @@ public sealed class MetarFeedPoller(
             }
             catch (Exception ex)
             {
-                var error = ex switch
-                {
-                    TimeoutRejectedException => string.Create(CultureInfo.InvariantCulture, $"timed out after {feed.Timeout.TotalSeconds:0.###} s"),
-                    HttpRequestException h => "request failed: " + h.Message,
-                    IOException or UnauthorizedAccessException => "file not readable: " + ex.Message,
-                    _ => ex.GetType().Name + ": " + ex.Message,
-                };
+                var error = TextFeedSource.Describe(ex, feed.Timeout);
                 health.RecordFailure(source, error);
                 logger.LogWarning("METAR feed {Feed} poll failed: {Error}", source, error);
             }
@@ -122,15 +111,4 @@ public sealed class MetarFeedPoller(
             }
         }
     }
-
-    private static async Task<string> FetchAsync(HttpClient client, Uri url, ResiliencePipeline<HttpResponseMessage> resilience, CancellationToken stoppingToken)
-    {
-        using var response = await resilience.ExecuteAsync(async token => await client.GetAsync(url, HttpCompletionOption.ResponseContentRead, token), stoppingToken);
-        if (!response.IsSuccessStatusCode)
-        {
-            throw new HttpRequestException(string.Create(CultureInfo.InvariantCulture, $"HTTP {(int)response.StatusCode} {response.ReasonPhrase}"), null, response.StatusCode);
-        }
-        return await response.Content.ReadAsStringAsync(stoppingToken);
-    }
-
 }

@@ -1,12 +1,9 @@
-using System.Globalization;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Engine;
 using OpsLvp.Core.Forecast;
 using OpsLvp.Core.Readings;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Time;
-using Polly;
-using Polly.Timeout;
 
 namespace OpsLvp.Web.Feeds;
 
@@ -107,7 +104,7 @@ public sealed class TafFeedPoller(
     {
         await Task.Yield();
         var source = SourceName(feed);
-        var isHttp = Uri.TryCreate(feed.Source, UriKind.Absolute, out var url) && (url.Scheme == Uri.UriSchemeHttp || url.Scheme == Uri.UriSchemeHttps);
+        var url = TextFeedSource.HttpUrl(feed.Source);
         var resilience = FeedResilience.Build(networkClock, feed.Retries, feed.RetryDelay, feed.Timeout);
         using var client = httpClientFactory.CreateClient(HttpFeedPoller.HttpClientName);
         client.Timeout = System.Threading.Timeout.InfiniteTimeSpan;
@@ -115,9 +112,7 @@ public sealed class TafFeedPoller(
         {
             try
             {
-                var text = isHttp
-                    ? await FetchAsync(client, url!, resilience, stoppingToken)
-                    : await File.ReadAllTextAsync(paths.Resolve(feed.Source), stoppingToken);
+                var text = await TextFeedSource.ReadAsync(feed.Source, url, client, resilience, paths, stoppingToken);
                 var batch = ToBatch(text, source, appClock.GetUtcNow());
                 foreach (var rejection in batch.Rejections)
                 {
@@ -132,13 +127,7 @@ public sealed class TafFeedPoller(
             }
             catch (Exception ex)
             {
-                var error = ex switch
-                {
-                    TimeoutRejectedException => string.Create(CultureInfo.InvariantCulture, $"timed out after {feed.Timeout.TotalSeconds:0.###} s"),
-                    HttpRequestException h => "request failed: " + h.Message,
-                    IOException or UnauthorizedAccessException => "file not readable: " + ex.Message,
-                    _ => ex.GetType().Name + ": " + ex.Message,
-                };
+                var error = TextFeedSource.Describe(ex, feed.Timeout);
                 health.RecordFailure(source, error);
                 logger.LogWarning("TAF feed {Feed} poll failed: {Error}", source, error);
             }
@@ -151,15 +140,5 @@ public sealed class TafFeedPoller(
                 return;
             }
         }
-    }
-
-    private static async Task<string> FetchAsync(HttpClient client, Uri url, ResiliencePipeline<HttpResponseMessage> resilience, CancellationToken stoppingToken)
-    {
-        using var response = await resilience.ExecuteAsync(async token => await client.GetAsync(url, HttpCompletionOption.ResponseContentRead, token), stoppingToken);
-        if (!response.IsSuccessStatusCode)
-        {
-            throw new HttpRequestException(string.Create(CultureInfo.InvariantCulture, $"HTTP {(int)response.StatusCode} {response.ReasonPhrase}"), null, response.StatusCode);
-        }
-        return await response.Content.ReadAsStringAsync(stoppingToken);
     }
 }
