@@ -19,7 +19,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     /// <summary>The configuration key naming the aerodrome profile file (the engine host's setting).</summary>
     public const string ProfileSetting = "Engine__ProfilePath";
 
-    private static readonly TimeSpan s_startTimeout = TimeSpan.FromSeconds(60);
+    private static readonly TimeSpan s_startTimeout = TimeSpan.FromSeconds(120); // three test projects share CI's two cores
 
     private readonly Process _process;
     private readonly ConcurrentQueue<string> _output;

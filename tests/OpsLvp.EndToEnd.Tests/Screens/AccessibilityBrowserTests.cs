@@ -68,6 +68,8 @@ public sealed class AccessibilityBrowserTests(ITestOutputHelper output)
         var problems = new List<string>();
         // Judge the page as it is when live: under NO LIVE DATA its values are greyed on purpose.
         await Expect(page.Locator("html")).Not.ToHaveClassAsync(new System.Text.RegularExpressions.Regex("opslvp-nolive"), new() { Timeout = 20_000 });
+        // ... and once its title is set (the interactive render replaces the head; a loaded CI machine was once read in between).
+        await Expect(page).ToHaveTitleAsync(new System.Text.RegularExpressions.Regex(@"\S"), new() { Timeout = 20_000 });
         var result = await page.RunAxe();
         foreach (var v in result.Violations.Where(v => v.Impact is "serious" or "critical"))
         {

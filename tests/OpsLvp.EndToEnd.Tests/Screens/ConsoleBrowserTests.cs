@@ -30,7 +30,8 @@ public sealed class ConsoleBrowserTests(ITestOutputHelper output)
 
         // A command and its toast: declare LVP in force (a hold) rather than wait for the entry dwell.
         await console.Locator("[data-testid=console-declare-active]").ClickAsync();
-        await Expect(console.Locator("[data-testid=reason-effect]")).ToContainTextAsync("LVP in force", new() { Timeout = 10_000 });
+        // Generous waits (CI's shared cores, one clean-clone run needed more than 10 s): they prove it opens, not a speed.
+        await Expect(console.Locator("[data-testid=reason-effect]")).ToContainTextAsync("LVP in force", new() { Timeout = 45_000 });
         await console.Locator("[data-testid=reason-dialog] textarea").FillAsync("fog bank on the approach (invented)");
         await console.Locator("[data-testid=reason-submit]").ClickAsync();
         await Expect(console.Locator(".mud-snackbar").Filter(new() { HasText = "Declare LVP in force: done" })).ToBeVisibleAsync(new() { Timeout = 20_000 });
@@ -40,7 +41,7 @@ public sealed class ConsoleBrowserTests(ITestOutputHelper output)
         await console.Locator("[data-testid=console-cancel]").ClickAsync();
         // the test id sits on the dialog's content; its buttons are the page's only reason-submit
         var dialog = console.Locator("[data-testid=reason-dialog]");
-        await Expect(dialog).ToBeVisibleAsync(new() { Timeout = 10_000 });
+        await Expect(dialog).ToBeVisibleAsync(new() { Timeout = 45_000 });
         // the reason box has the focus and is not shown invalid before anything is typed
         await Expect(dialog.Locator("textarea")).ToBeFocusedAsync(new() { Timeout = 10_000 });
         await Expect(dialog.Locator(".mud-input-error")).ToHaveCountAsync(0);

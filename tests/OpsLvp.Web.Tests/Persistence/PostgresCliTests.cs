@@ -104,12 +104,17 @@ public sealed class PostgresCliTests
             Assert.True(tables.GetProperty("data_protection_keys").GetInt64() >= 1);
             Assert.Equal(sourceEntries, tables.GetProperty("audit_entries").GetInt64());
 
-            // the app on PostgreSQL, with a fresh data folder: state restored, the old session and key work, the chain continues
+            // the app on PostgreSQL, with a fresh data folder but the installation's anchor key and log (they move with it,
+            // docs/deployment.md "Moving an installation from SQLite"): state restored, the old session and key work, the
+            // chain continues
             var pgFolder = OpsLvpApp.NewDataFolder();
+            var sourceAnchors = Path.TrimEndingDirectorySeparator(folder) + "-anchors";
             var pgSettings = With(LiveTestProfile.Settings(LiveTestProfile.Write(pgFolder)), new()
             {
                 [OpsLvpDatabase.ProviderSetting] = OpsLvpDatabase.PostgresProvider,
                 [OpsLvpDatabase.PostgresConnectionStringSetting] = target,
+                ["Anchors:KeyPath"] = Path.Combine(sourceAnchors, "anchor-key.pem"),
+                ["Anchors:LogPath"] = Path.Combine(sourceAnchors, "anchors.jsonl"),
             });
             await using (var after = OpsLvpApp.Start(pgSettings, pgFolder))
             {
