@@ -61,6 +61,7 @@ app.UseAntiforgery();
 app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
+app.MapFacilitiesApi();
 app.MapLiveApi();
 app.MapReviewApi().RequireAuthorization(AccessPolicies.Review);
 app.MapAccessEndpoints();

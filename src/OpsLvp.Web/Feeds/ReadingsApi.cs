@@ -156,7 +156,7 @@ public static class ReadingsApi
     }
 
     /// <summary>The body, or null when it is larger than <paramref name="maxBytes"/>.</summary>
-    private static async Task<byte[]?> ReadBodyAsync(HttpContext context, int maxBytes)
+    internal static async Task<byte[]?> ReadBodyAsync(HttpContext context, int maxBytes)
     {
         if (context.Request.ContentLength > maxBytes)
         {

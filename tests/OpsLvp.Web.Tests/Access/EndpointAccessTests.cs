@@ -36,6 +36,7 @@ public sealed class EndpointAccessTests
         ["/health"] = Public,
         ["/display/{token}"] = Public,
         ["/api/readings"] = IngestInHandler,
+        ["/api/facilities"] = IngestInHandler,
         ["/admin/users"] = AccessPolicies.Admin,
         ["/admin/displays"] = AccessPolicies.Admin,
         ["/admin/keys"] = AccessPolicies.Admin,
