@@ -2,6 +2,8 @@ using System.Net;
 using System.Net.Http.Json;
 using System.Text;
 using System.Text.Json;
+using System.Threading.Channels;
+using Microsoft.AspNetCore.SignalR.Client;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Tests.Infrastructure;
 using OpsLvp.Web.Tests.Live;
@@ -171,5 +173,47 @@ public sealed class FacilityIngestTests : IAsyncLifetime
         Assert.Equal(HttpStatusCode.BadRequest, noArray.StatusCode);
         var state = await StateWhenAsync(_ => true, "a state");
         Assert.False(state.GetProperty("status").GetProperty("facilities").TryGetProperty("ils-07l", out _));
+    }
+
+    [Fact]
+    public async Task TheHubsStateMessage_CarriesTheCapabilityPerRunwayDirection()
+    {
+        var states = Channel.CreateUnbounded<JsonElement>();
+        var readerKey = await LiveClient.ReaderKeyAsync(_app);
+        await using var hub = new HubConnectionBuilder()
+            .WithUrl(new Uri(_app.BaseAddress, "/hubs/lvp"), o => o.Headers[ReadingsApi.ApiKeyHeader] = readerKey)
+            .Build();
+        hub.On<JsonElement>("state", s => states.Writer.TryWrite(s));
+        await hub.StartAsync();
+        var first = await NextStateAsync(states, _ => true);
+        var directions = first.GetProperty("status").GetProperty("capability").EnumerateArray().Select(d => d.GetProperty("direction").GetString()).ToList();
+        Assert.Contains("07L", directions);
+        Assert.False(NamesFacility(Operation(first, "07L", "lvto"), "sb-07l"));
+
+        using var response = await PostAsync("""{ "facilities": [ { "facility": "sb-07l", "status": "unserviceable", "reason": "bar 2 dark (invented)" } ] }""");
+        Assert.Equal(HttpStatusCode.OK, response.StatusCode);
+
+        var after = await NextStateAsync(states, s => NamesFacility(Operation(s, "07L", "lvto"), "sb-07l"));
+        Assert.False(Operation(after, "07L", "lvto").GetProperty("available").GetBoolean());
+    }
+
+    private static async Task<JsonElement> NextStateAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
+    {
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(30));
+        try
+        {
+            while (true)
+            {
+                var s = await states.Reader.ReadAsync(cts.Token);
+                if (match(s))
+                {
+                    return s;
+                }
+            }
+        }
+        catch (OperationCanceledException)
+        {
+            throw new Xunit.Sdk.XunitException("no matching hub state message within 30 s");
+        }
     }
 }
