@@ -73,6 +73,7 @@ app.MapStaticAssets();
 app.MapHealthApi();
 app.MapReadingsApi();
 app.MapForecastsApi();
+app.MapFacilitiesApi();
 app.MapLiveApi();
 app.MapAnchorApi();
 app.MapReviewApi().RequireAuthorization(AccessPolicies.Review);

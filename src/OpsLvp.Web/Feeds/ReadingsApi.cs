@@ -164,7 +164,7 @@ public static class ReadingsApi
     /// its 413 instead of a connection reset while it is still sending (the fault suite's oversized bodies lost their
     /// answer that way, docs/reliability.md "Fault runs"); beyond that the connection is dropped.
     /// </summary>
-    private static async Task<byte[]?> ReadBodyAsync(HttpContext context, int maxBytes)
+    internal static async Task<byte[]?> ReadBodyAsync(HttpContext context, int maxBytes)
     {
         if (context.Request.ContentLength > maxBytes)
         {

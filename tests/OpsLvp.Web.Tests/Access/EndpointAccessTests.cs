@@ -37,6 +37,7 @@ public sealed class EndpointAccessTests
         ["/display/{token}"] = Public,
         ["/api/readings"] = IngestInHandler,
         ["/api/forecasts"] = IngestInHandler,
+        ["/api/facilities"] = IngestInHandler,
         ["/admin/users"] = AccessPolicies.Admin,
         ["/admin/displays"] = AccessPolicies.Admin,
         ["/admin/keys"] = AccessPolicies.Admin,
