@@ -27,6 +27,9 @@ public sealed class ConsoleBrowserTests(ITestOutputHelper output)
         // 400 m: below active.rvrBelowM 550 m (invented); ceiling 1000 ft is above every ceiling threshold
         await PushFogAsync(server);
         await Expect(console.Locator("[data-testid=console-cancel]")).ToBeVisibleAsync(new() { Timeout = 20_000 });
+        // The buttons are already in the prerendered page; a click before the live circuit is up is lost (two clean-clone
+        // runs under load did that). The pushed 400 m can only arrive through the circuit: once it shows, clicks count.
+        await Expect(console.Locator("[data-testid=console-condition]")).ToContainTextAsync("400 m at 09 TDZ", new() { Timeout = 45_000 });
 
         // A command and its toast: declare LVP in force (a hold) rather than wait for the entry dwell.
         await console.Locator("[data-testid=console-declare-active]").ClickAsync();
