@@ -1,4 +1,6 @@
+using Microsoft.Extensions.DependencyInjection.Extensions;
 using OpsLvp.Data;
+using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Commands;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Live;
@@ -31,6 +33,11 @@ public static class EngineServiceCollectionExtensions
             .ValidateShape(configuration, LiveOptions.SectionName)
             .Validate(o => o.MaxStatesPerSecond is >= 0.01 and <= 1000, "Live:MaxStatesPerSecond must be between 0.01 and 1000.")
             .ValidateOnStart();
+        services.AddOptions<ClusterOptions>()
+            .Bind(configuration.GetSection(ClusterOptions.SectionName))
+            .ValidateShape(configuration, ClusterOptions.SectionName)
+            .ValidateOnStart();
+        services.TryAddSingleton<ILeadership, SingleNodeLeadership>();
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
         services.AddSingleton<LiveEngineHost>();
