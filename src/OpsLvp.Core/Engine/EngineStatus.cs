@@ -71,4 +71,7 @@ public sealed record EngineStatus(
 
     /// <summary>Direction in use per runway id, every runway of the profile (docs/engine.md R34).</summary>
     public IReadOnlyDictionary<string, string> DirectionsInUse { get; init; } = new Dictionary<string, string>();
+
+    /// <summary>The profile's directions per runway id (runway ids are names, not "07L/25R" to split), for "use direction" choices.</summary>
+    public IReadOnlyDictionary<string, IReadOnlyList<string>> RunwayDirections { get; init; } = new Dictionary<string, IReadOnlyList<string>>();
 }

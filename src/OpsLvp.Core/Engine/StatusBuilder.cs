@@ -61,6 +61,10 @@ internal static class StatusBuilder
                 .Where(r => r?.Directions is { Count: > 0 })
                 .GroupBy(r => r.Id, StringComparer.Ordinal)
                 .ToDictionary(g => g.Key, g => EngineModel.DirectionInUse(g.First(), state), StringComparer.Ordinal),
+            RunwayDirections = model.Profile.Runways
+                .Where(r => r?.Directions is { Count: > 0 })
+                .GroupBy(r => r.Id, StringComparer.Ordinal)
+                .ToDictionary(g => g.Key, g => (IReadOnlyList<string>)g.First().Directions.ToList(), StringComparer.Ordinal),
         };
     }
 

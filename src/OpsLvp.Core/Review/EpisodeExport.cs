@@ -31,6 +31,27 @@ public sealed record EpisodeExport(
 {
     public const string Format = "opslvp.episode.v1";
 
+    /// <summary>
+    /// The capability of each runway direction just before <see cref="From"/> (docs/capability.md "Review"), from the
+    /// events recorded before it; the export's own events carry every change after. Empty for an export written before
+    /// exports carried it, or with no capability section.
+    /// </summary>
+    public IReadOnlyList<CapabilityState> CapabilityAtStart { get; init; } = [];
+
+    /// <summary>The first instant the export covers: the start less the lead-in.</summary>
+    public DateTimeOffset From => Start - LeadIn(Profile);
+
+    /// <summary>Every capability change from <see cref="From"/> to <see cref="ReplayUntil"/> against <see cref="CapabilityAtStart"/>.</summary>
+    public IReadOnlyList<CapabilityChange> CapabilityChanges() => CapabilityBands.Changes(CapabilityAtStart, Events, From, ReplayUntil);
+
+    /// <summary>The recorded capability per runway direction from <paramref name="from"/> (default <see cref="From"/>) to <paramref name="to"/> (default <see cref="ReplayUntil"/>).</summary>
+    public IReadOnlyList<CapabilityBand> CapabilityBandsRecorded(DateTimeOffset? from = null, DateTimeOffset? to = null)
+    {
+        var start = from ?? From;
+        var atStart = CapabilityBands.StatesBefore(CapabilityAtStart, Events, start);
+        return CapabilityBands.Of(atStart, Events, start, to ?? ReplayUntil);
+    }
+
     private static readonly JsonWriterOptions WriterOptions = new() { Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping, Indented = true };
 
     /// <summary>
@@ -63,6 +84,8 @@ public sealed record EpisodeExport(
         var inEpisode = events.Where(e => (e.At >= from || (e.Name == ForecastReceivedName && e.TimeField("valid_until") > from))
             && (episode.End is null || e.At <= episode.End)).ToList();
         var until = episode.End ?? new[] { cut.Count > 0 ? cut.Max(r => r.Time) : episode.Start, inEpisode.Count > 0 ? inEpisode.Max(e => e.At) : episode.Start }.Max();
+        // facility statuses and directions in use set before the lead-in still count in the replay (docs/review.md)
+        var carried = CapabilityCarryOver.Rows(events, profile, from);
         return new EpisodeExport(
             episode.Id,
             episode.Start,
@@ -70,10 +93,13 @@ public sealed record EpisodeExport(
             episode.DeepestPhase,
             profile,
             cut,
-            RecordedCommands.FromEvents(inEpisode),
+            carried.Concat(RecordedCommands.FromEvents(inEpisode)).ToList(),
             inEpisode,
             audit.Where(a => a.Time >= episode.Start && (episode.End is null || a.Time <= episode.End)).OrderBy(a => a.Sequence).ToList(),
-            until);
+            until)
+        {
+            CapabilityAtStart = CapabilityBands.StatesBefore([], events, from),
+        };
     }
 
     /// <summary>
@@ -157,6 +183,7 @@ public sealed record EpisodeExport(
                 w.WriteRawValue(e.Json);
             }
             w.WriteEndArray();
+            CapabilityExport.Write(w, this);
             w.WriteStartArray("audit");
             foreach (var a in Audit)
             {
@@ -256,7 +283,10 @@ public sealed record EpisodeExport(
                 actions,
                 events,
                 audit,
-                Time(episode, "replay_until", "episode"));
+                Time(episode, "replay_until", "episode"))
+            {
+                CapabilityAtStart = CapabilityExport.ReadAtStart(root),
+            };
         }
     }
 

@@ -19,6 +19,12 @@ public sealed record WhatIfResult(
     TimeSpan ActualActive,
     TimeSpan AlternativeActive)
 {
+    /// <summary>The recorded capability per runway direction over the window (empty without a capability section).</summary>
+    public IReadOnlyList<CapabilityBand> ActualCapability { get; init; } = [];
+
+    /// <summary>The alternative's capability per runway direction over the window.</summary>
+    public IReadOnlyList<CapabilityBand> AlternativeCapability { get; init; } = [];
+
     /// <summary>Alternative minus actual time in force: positive means longer in force.</summary>
     public TimeSpan ActiveDifference => AlternativeActive - ActualActive;
 

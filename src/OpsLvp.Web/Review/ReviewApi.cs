@@ -6,7 +6,7 @@ namespace OpsLvp.Web.Review;
 
 /// <summary>
 /// Review endpoints in one group under <c>/api/episodes</c> (so an authorisation policy is attached in one place):
-/// <c>GET /api/episodes</c> (list), <c>/{id}/readings.csv</c>, <c>/{id}/audit.csv</c>, <c>/{id}/export.json</c>
+/// <c>GET /api/episodes</c> (list), <c>/{id}/readings.csv</c>, <c>/{id}/audit.csv</c>, <c>/{id}/capability.csv</c>, <c>/{id}/export.json</c>
 /// (docs/review.md). An unknown episode is 404 with a JSON error naming it.
 /// </summary>
 public static class ReviewApi
@@ -39,6 +39,8 @@ public static class ReviewApi
             WithEpisode(id, review, ct, v => Results.File(Encoding.UTF8.GetBytes(ReviewCsv.Readings(v.Export.Readings)), "text/csv; charset=utf-8", $"{id}-readings.csv")));
         group.MapGet("/{id}/audit.csv", (string id, ReviewService review, CancellationToken ct) =>
             WithEpisode(id, review, ct, v => Results.File(Encoding.UTF8.GetBytes(ReviewCsv.Audit(v.Export.Audit)), "text/csv; charset=utf-8", $"{id}-audit.csv")));
+        group.MapGet("/{id}/capability.csv", (string id, ReviewService review, CancellationToken ct) =>
+            WithEpisode(id, review, ct, v => Results.File(Encoding.UTF8.GetBytes(CapabilityExport.Csv(v.Export)), "text/csv; charset=utf-8", $"{id}-capability.csv")));
         group.MapGet("/{id}/export.json", (string id, ReviewService review, CancellationToken ct) =>
             WithEpisode(id, review, ct, v => Results.File(Encoding.UTF8.GetBytes(v.Export.ToJson()), "application/json", $"{id}.episode.json")));
         return group;

@@ -53,6 +53,7 @@ public sealed class EndpointAccessTests
         ["/api/episodes/"] = AccessPolicies.Review,
         ["/api/episodes/{id}/readings.csv"] = AccessPolicies.Review,
         ["/api/episodes/{id}/audit.csv"] = AccessPolicies.Review,
+        ["/api/episodes/{id}/capability.csv"] = AccessPolicies.Review,
         ["/api/episodes/{id}/export.json"] = AccessPolicies.Review,
         ["/_blazor"] = Framework,
         ["/_blazor/negotiate"] = Framework,

@@ -73,6 +73,17 @@ public sealed class ReviewApiTests : IAsyncLifetime
     }
 
     [Fact]
+    public async Task CapabilityCsv_CarriesEachDirectionsCapabilityOverTheEpisode()
+    {
+        var csv = await _client.GetStringAsync(new Uri($"/api/episodes/{EpisodeId}/capability.csv", UriKind.Relative));
+
+        var lines = csv.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal(CapabilityExport.CsvHeader, lines[0]);
+        // the demo night's scripted fault: the field-lighting crew marks the 07L TDZ lights unserviceable (seed-demo, invented)
+        Assert.Contains(lines, l => l.Contains(",07L,true,change,", StringComparison.Ordinal) && l.Contains("TDZ lights 07L unserviceable", StringComparison.Ordinal));
+    }
+
+    [Fact]
     public async Task UnknownEpisode_Is404NamingIt()
     {
         using var response = await _client.GetAsync(new Uri("/api/episodes/XDMO-none/audit.csv", UriKind.Relative));

@@ -28,9 +28,10 @@ public sealed class CapabilityBoardTests : LiveComponentTest
             ["sb-07l"] = new FacilityState(FacilityStatus.Unserviceable, "bar 3 dark (invented)", "ash (invented)", TestSnapshots.T0),
         },
         DirectionsInUse = new Dictionary<string, string> { ["07L/25R"] = "07L" },
+        RunwayDirections = new Dictionary<string, IReadOnlyList<string>> { ["07L/25R"] = ["07L", "25R"] },
     };
 
-    private IRenderedComponent<ContainerFragment> RenderBoard(bool dutyManager) => Render(b =>
+    private IRenderedComponent<ContainerFragment> RenderBoard(bool dutyManager, EngineStatus? status = null) => Render(b =>
     {
         b.OpenComponent<MudPopoverProvider>(0);
         b.CloseComponent();
@@ -39,7 +40,7 @@ public sealed class CapabilityBoardTests : LiveComponentTest
         b.OpenComponent<MudSnackbarProvider>(2);
         b.CloseComponent();
         b.OpenComponent<CapabilityBoard>(3);
-        b.AddAttribute(4, nameof(CapabilityBoard.Status), Status());
+        b.AddAttribute(4, nameof(CapabilityBoard.Status), status ?? Status());
         b.AddAttribute(5, nameof(CapabilityBoard.Caller), DmCaller);
         b.AddAttribute(6, nameof(CapabilityBoard.IsDutyManager), dutyManager);
         b.CloseComponent();
@@ -81,5 +82,25 @@ public sealed class CapabilityBoardTests : LiveComponentTest
 
         cut.WaitForAssertion(() => Assert.Single(Commands.Calls));
         Assert.Equal(new SetRunwayInUse(Dm, "07L/25R", "25R", "wind change (invented)"), Commands.Calls[0].Command);
+    }
+
+    [Fact]
+    public void UseDirection_OffersTheProfilesDirections_NotPartsOfTheRunwayName()
+    {
+        // an invented runway named "north/main" whose directions are 09 and 27: its name is never split
+        var status = Status() with
+        {
+            DirectionsInUse = new Dictionary<string, string> { ["north/main"] = "09" },
+            RunwayDirections = new Dictionary<string, IReadOnlyList<string>> { ["north/main"] = ["09", "27"] },
+        };
+        var cut = RenderBoard(dutyManager: true, status);
+
+        Assert.Equal(["27"], cut.FindAll("[data-testid=cap-runway-set]").Select(b => b.GetAttribute("data-direction")));
+        cut.Find("[data-testid=cap-runway-set][data-direction='27']").Click();
+        cut.Find("[data-testid=reason-dialog] textarea").Input("wind change (invented)");
+        cut.Find("[data-testid=reason-submit]").Click();
+
+        cut.WaitForAssertion(() => Assert.Single(Commands.Calls));
+        Assert.Equal(new SetRunwayInUse(Dm, "north/main", "27", "wind change (invented)"), Commands.Calls[0].Command);
     }
 }

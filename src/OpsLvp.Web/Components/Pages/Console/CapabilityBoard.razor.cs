@@ -46,6 +46,10 @@ public partial class CapabilityBoard
             Cap(CapabilityWords.Status(status)),
             reason => new SetFacilityStatus(Caller.Name, facility.Id, status, reason));
 
+    /// <summary>The runway's directions from the profile (a runway id is a name; it is never split).</summary>
+    private IReadOnlyList<string> Directions(string runway) =>
+        Status.RunwayDirections.TryGetValue(runway, out var directions) ? directions : [];
+
     private Task SetRunwayAsync(string runway, string direction) =>
         AskAndRunAsync($"Runway {runway}: {direction} in use",
             $"Make {direction} the direction in use of runway {runway}: RVR positions and capability follow at once.",
