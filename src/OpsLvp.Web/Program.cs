@@ -7,6 +7,7 @@ using OpsLvp.Web.Engine;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Hosting;
 using OpsLvp.Web.Live;
+using OpsLvp.Web.Retention;
 using OpsLvp.Web.Review;
 using OpsLvp.Web.Time;
 
@@ -37,6 +38,7 @@ builder.Services.AddFeeds(builder.Configuration);
 // before the engine: the anchor service stops after it, so the shutdown anchor covers its last entries
 builder.Services.AddAnchors(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
+builder.Services.AddReadingsRetention(builder.Configuration);
 builder.Services.AddReview();
 builder.Services.AddAccess(builder.Configuration);
 builder.Services.AddScreens(builder.Configuration);

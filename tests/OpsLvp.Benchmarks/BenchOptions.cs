@@ -1,16 +1,20 @@
 namespace OpsLvp.Benchmarks;
 
 /// <summary>
-/// Command line: <c>[--quick] [--only engine,audit,review,push,circuits] [--out FOLDER] [--data-dir FOLDER]</c>.
+/// Command line: <c>[--quick] [--only engine,audit,review,push,circuits,pg-audit,anchors,year] [--days N] [--out FOLDER] [--data-dir FOLDER]</c>.
+/// The <c>year</c> suite (a database filled with <see cref="Days"/> days of readings, issue 16) runs only when named.
 /// </summary>
 public sealed record BenchOptions
 {
-    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits"];
+    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits", "pg-audit", "anchors", "year"];
 
     /// <summary>Few iterations and small harness counts; the whole run stays under 3 minutes.</summary>
     public bool Quick { get; init; }
 
-    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites);
+    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites.Where(s => s != "year"));
+
+    /// <summary>Days of 15-second readings the <c>year</c> suite fills (365: about 23 million rows).</summary>
+    public int Days { get; init; } = 365;
 
     /// <summary>Where the results file and BenchmarkDotNet's artifacts go.</summary>
     public string OutFolder { get; init; } = Path.Combine(Directory.GetCurrentDirectory(), "BenchmarkDotNet.Artifacts");
@@ -52,11 +56,14 @@ public sealed record BenchOptions
                 case "--out":
                     options = options with { OutFolder = Path.GetFullPath(Value()) };
                     break;
+                case "--days":
+                    options = options with { Days = int.TryParse(Value(), out var days) && days is >= 1 and <= 3660 ? days : throw new ArgumentException("--days must be a whole number from 1 to 3660") };
+                    break;
                 case "--data-dir":
                     options = options with { DataDir = Path.GetFullPath(Value()) };
                     break;
                 default:
-                    throw new ArgumentException($"unknown argument '{args[i]}' (use --quick, --only {string.Join(",", Suites)}, --out FOLDER, --data-dir FOLDER)");
+                    throw new ArgumentException($"unknown argument '{args[i]}' (use --quick, --only {string.Join(",", Suites)}, --days N, --out FOLDER, --data-dir FOLDER)");
             }
         }
         return options;

@@ -80,6 +80,49 @@ public static class BenchmarksProgram
             book.Note($"Audit database files: {AuditAppendBenchmarks.DataDir} (same disk as the product's data folder would be unless --data-dir says otherwise).");
         }
 
+        if (options.Runs("pg-audit"))
+        {
+            // issue 16: the PostgreSQL hot path against raw Npgsql, on a throwaway cluster this process starts
+            if (OpsLvp.Benchmarks.Services.BenchPostgres.FindBin() is null)
+            {
+                book.Note("pg-audit: not measured on this run: PostgreSQL server programs not found (apt install postgresql, or set OPSLVP_PG_BIN).");
+            }
+            else
+            {
+                var pg = BenchmarkRunner.Run<PostgresAuditBenchmarks>(config);
+                book.AddSummary("Audit append on PostgreSQL vs raw Npgsql (one evaluation: 11 readings, then 1 entry)", pg, Command("pg-audit"));
+                if (ResultsBook.Mean(pg, nameof(PostgresAuditBenchmarks.Ours)) is { } ours && ResultsBook.Mean(pg, nameof(PostgresAuditBenchmarks.RawInsert)) is { } raw)
+                {
+                    var ratio = ours / raw;
+                    book.Add(new ResultRow("Audit: derived ratios", "ours/raw on PostgreSQL, 11 readings + 1 entry", ResultsBook.FormatTime(ours), ratio, "raw Npgsql INSERTs", null,
+                        Verdict(ratio <= 2, "within 2× raw", ratio <= 2 ? "" : string.Create(CultureInfo.InvariantCulture, $" (by {ratio / 2:0.00}×)")), Command("pg-audit")));
+                }
+            }
+        }
+
+        if (options.Runs("anchors"))
+        {
+            if (options.DataDir is not null)
+            {
+                AuditAppendBenchmarks.DataDir = options.DataDir;
+            }
+            // issue 12: the signed chain head and the sealed state row, against a plain append
+            var anchors = BenchmarkRunner.Run<AnchorCostBenchmarks>(config);
+            book.AddSummary("Tamper evidence: sealed state row and signed chain head vs a plain append (SQLite, FULL)", anchors, Command("anchors"));
+        }
+
+        if (options.Runs("year"))
+        {
+            try
+            {
+                await OpsLvp.Benchmarks.Year.YearHarness.RunAsync(options, book, $"dotnet run -c Release --project tests/OpsLvp.Benchmarks -- --only year --days {options.Days}");
+            }
+            catch (Exception ex) when (ex is TimeoutException or InvalidOperationException or HttpRequestException or System.Data.Common.DbException)
+            {
+                book.Note($"year: not measured on this run: {ex.GetType().Name}: {ex.Message.ReplaceLineEndings(" ")}");
+            }
+        }
+
         if (options.Runs("review"))
         {
             if (options.DataDir is not null)

@@ -34,11 +34,16 @@ public sealed class AuditVerifyCommand : ICliCommand
 
     public IReadOnlyList<string> Path { get; } = ["audit", "verify"];
 
-    public string Usage => "audit verify --db <file or PostgreSQL connection string> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | audit verify --export <episode.json>";
+    public string Usage => "audit verify --db <file or PostgreSQL connection string> [--anchors <anchors.jsonl>] [--public-key <key.pem>] [--exports <readings export folder>] | audit verify --export <episode.json>";
 
     public int Run(IReadOnlyList<string> args, TextWriter stdout, TextWriter stderr)
     {
-        var (option, path, anchorsPath, keyPath) = ParseDb(args);
+        var (option, path, anchorsPath, keyPath, exportsPath) = ParseDb(args);
+        if (exportsPath is not null && !Directory.Exists(exportsPath))
+        {
+            stderr.WriteLine($"error: readings export folder '{exportsPath}' not found");
+            return 1;
+        }
         var postgres = option == "--db" && !File.Exists(path) && OpsLvpDatabase.LooksLikePostgres(path);
         if (!postgres && !File.Exists(path))
         {
@@ -83,7 +88,7 @@ public sealed class AuditVerifyCommand : ICliCommand
         {
             try
             {
-                (result, checks) = VerifyPostgresAsync(path, anchorLines, trustedFingerprint).GetAwaiter().GetResult();
+                (result, checks) = VerifyPostgresAsync(path, anchorLines, trustedFingerprint, exportsPath).GetAwaiter().GetResult();
             }
             catch (Exception ex) when (ex is System.Data.Common.DbException or InvalidDataException or InvalidOperationException or FormatException or InvalidCastException)
             {
@@ -96,7 +101,7 @@ public sealed class AuditVerifyCommand : ICliCommand
         {
             try
             {
-                (result, checks) = VerifyAsync(path, anchorLines, trustedFingerprint).GetAwaiter().GetResult();
+                (result, checks) = VerifyAsync(path, anchorLines, trustedFingerprint, exportsPath).GetAwaiter().GetResult();
             }
             catch (Exception ex) when (ex is SqliteException or InvalidDataException or FormatException or InvalidCastException)
             {
@@ -132,10 +137,11 @@ public sealed class AuditVerifyCommand : ICliCommand
         return !result.Ok ? ChainBrokenExitCode : checks is { Anomalies.Count: > 0 } ? AnomalyExitCode : 0;
     }
 
-    private const string UsageText = "usage: opslvp audit verify --db <file> [--anchors <anchors.jsonl>] [--public-key <key.pem>] | --export <episode.json>";
+    private const string UsageText = "usage: opslvp audit verify --db <file> [--anchors <anchors.jsonl>] [--public-key <key.pem>] [--exports <folder>] | --export <episode.json>";
 
-    private static (string Option, string Path, string? Anchors, string? PublicKey) ParseDb(IReadOnlyList<string> args)
+    private static (string Option, string Path, string? Anchors, string? PublicKey, string? Exports) ParseDb(IReadOnlyList<string> args)
     {
+        string? exports = null;
         string? option = null;
         string? path = null;
         string? anchors = null;
@@ -155,6 +161,10 @@ public sealed class AuditVerifyCommand : ICliCommand
             {
                 key = args[++i];
             }
+            else if (args[i] == "--exports" && i + 1 < args.Count && exports is null)
+            {
+                exports = args[++i];
+            }
             else
             {
                 throw new CliUsageException($"unexpected argument '{args[i]}'; {UsageText}");
@@ -164,18 +174,18 @@ public sealed class AuditVerifyCommand : ICliCommand
         {
             throw new CliUsageException($"missing --db <file> or --export <episode.json>; {UsageText}");
         }
-        if (option == "--export" && (anchors is not null || key is not null))
+        if (option == "--export" && (anchors is not null || key is not null || exports is not null))
         {
-            throw new CliUsageException($"--anchors and --public-key go with --db; {UsageText}");
+            throw new CliUsageException($"--anchors, --public-key and --exports go with --db; {UsageText}");
         }
         if (key is not null && anchors is null)
         {
             throw new CliUsageException($"--public-key needs --anchors; {UsageText}");
         }
-        return (option!, path, anchors, key);
+        return (option!, path, anchors, key, exports);
     }
 
-    private static async Task<(AuditVerification, DbChecks)> VerifyAsync(string path, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    private static async Task<(AuditVerification, DbChecks)> VerifyAsync(string path, IReadOnlyList<string>? anchorLines, string? trustedFingerprint, string? exportsFolder)
     {
         var connectionString = new SqliteConnectionStringBuilder
         {
@@ -183,11 +193,11 @@ public sealed class AuditVerifyCommand : ICliCommand
             Mode = SqliteOpenMode.ReadOnly,
             Pooling = false,
         }.ToString();
-        return await VerifyDatabaseAsync(OpsLvpDatabase.SqliteOptions(connectionString), anchorLines, trustedFingerprint);
+        return await VerifyDatabaseAsync(OpsLvpDatabase.SqliteOptions(connectionString), anchorLines, trustedFingerprint, exportsFolder);
     }
 
     /// <summary>The chain and the other checks (anchors, state seal, covered readings) on an opened database, either provider.</summary>
-    private static async Task<(AuditVerification, DbChecks)> VerifyDatabaseAsync(DbContextOptions<OpsLvpDbContext> options, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    private static async Task<(AuditVerification, DbChecks)> VerifyDatabaseAsync(DbContextOptions<OpsLvpDbContext> options, IReadOnlyList<string>? anchorLines, string? trustedFingerprint, string? exportsFolder)
     {
         await using (var db = new OpsLvpDbContext(options))
         {
@@ -199,7 +209,7 @@ public sealed class AuditVerifyCommand : ICliCommand
         var factory = new OpsLvpDbContextFactory(options);
         using var store = new AuditStore(factory);
         var chain = await store.VerifyAsync();
-        var checks = await DbChecks.RunAsync(factory, store, anchorLines, trustedFingerprint);
+        var checks = await DbChecks.RunAsync(factory, store, anchorLines, trustedFingerprint, exportsFolder);
         return (chain, checks);
     }
 
@@ -210,7 +220,7 @@ public sealed class AuditVerifyCommand : ICliCommand
         return $"PostgreSQL database '{builder.Database}' on {builder.Host}:{builder.Port}";
     }
 
-    private static async Task<(AuditVerification, DbChecks)> VerifyPostgresAsync(string connectionString, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    private static async Task<(AuditVerification, DbChecks)> VerifyPostgresAsync(string connectionString, IReadOnlyList<string>? anchorLines, string? trustedFingerprint, string? exportsFolder)
     {
         var builder = new Npgsql.NpgsqlConnectionStringBuilder(connectionString)
         {
@@ -218,7 +228,7 @@ public sealed class AuditVerifyCommand : ICliCommand
             // every statement of the check runs read-only: verifying never changes the database
             Options = "-c default_transaction_read_only=on",
         };
-        return await VerifyDatabaseAsync(OpsLvpDatabase.PostgresOptions(builder.ConnectionString), anchorLines, trustedFingerprint);
+        return await VerifyDatabaseAsync(OpsLvpDatabase.PostgresOptions(builder.ConnectionString), anchorLines, trustedFingerprint, exportsFolder);
     }
 
     private static void WriteNullable(Utf8JsonWriter json, string name, long? value)

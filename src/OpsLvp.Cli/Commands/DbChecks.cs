@@ -28,13 +28,16 @@ internal sealed class DbChecks
     private long _coveredTo;
     private long? _uncovered;
     private string _stateSeal = "not_checked";
+    private PrunedReadingsCheck? _pruned;
+    private long _prunedWindows;
+    private long _prunedWindowsChecked;
 
-    public static async Task<DbChecks> RunAsync(IDbContextFactory<OpsLvpDbContext> factory, AuditStore store, IReadOnlyList<string>? anchorLines, string? trustedFingerprint)
+    public static async Task<DbChecks> RunAsync(IDbContextFactory<OpsLvpDbContext> factory, AuditStore store, IReadOnlyList<string>? anchorLines, string? trustedFingerprint, string? exportsFolder = null)
     {
         var checks = new DbChecks();
         var head = (await store.GetHeadAsync())?.Sequence ?? 0;
         await using var db = await factory.CreateDbContextAsync();
-        await checks.CheckReadingsAsync(factory, db);
+        await checks.CheckReadingsAsync(factory, db, exportsFolder);
         string? publicKey = null;
         if (anchorLines is not null)
         {
@@ -70,16 +73,40 @@ internal sealed class DbChecks
         json.WriteNumber("covering_entries", _coveringEntries);
         json.WriteNumber("covered_to_id", _coveredTo);
         WriteNullable(json, "uncovered", _uncovered);
+        if (_pruned is { Runs.Count: > 0 } pruned)
+        {
+            // docs/retention.md "Verification": pruned ranges are reported as pruned, not as edited readings
+            json.WriteStartObject("pruned");
+            json.WriteNumber("runs", pruned.Runs.Count);
+            json.WriteNumber("readings", pruned.Runs.Sum(r => r.Run.Count));
+            json.WriteStartArray("ranges");
+            foreach (var (sequence, run) in pruned.Runs)
+            {
+                json.WriteStartObject();
+                json.WriteNumber("sequence", sequence);
+                json.WriteNumber("after", run.After);
+                json.WriteNumber("to", run.To);
+                json.WriteNumber("count", run.Count);
+                json.WriteNumber("files", run.Files.Count);
+                json.WriteEndObject();
+            }
+            json.WriteEndArray();
+            json.WriteNumber("windows", _prunedWindows);
+            json.WriteNumber("windows_checked_against_exports", _prunedWindowsChecked);
+            json.WriteBoolean("exports_given", pruned.HasExports);
+            json.WriteEndObject();
+        }
         json.WriteEndObject();
         json.WriteString("state_seal", _stateSeal);
     }
 
-    private async Task CheckReadingsAsync(IDbContextFactory<OpsLvpDbContext> factory, OpsLvpDbContext db)
+    private async Task CheckReadingsAsync(IDbContextFactory<OpsLvpDbContext> factory, OpsLvpDbContext db, string? exportsFolder)
     {
         if (!await TableExistsAsync(db, "readings"))
         {
             return;
         }
+        var pruned = _pruned = await PrunedReadingsCheck.LoadAsync(db, exportsFolder, _anomalies);
         var marker = $"\"{ReadingsCoverage.Member}\"";
         var covering = await db.AuditEntries.AsNoTracking().Where(e => e.PayloadJson.Contains(marker)).OrderBy(e => e.Sequence)
             .Select(e => new { e.Sequence, e.Kind, e.PayloadJson }).ToListAsync();
@@ -95,6 +122,22 @@ internal sealed class DbChecks
             {
                 _anomalies.Add(new AuditAnomaly("readings_window_gap", entry.Sequence, null,
                     Text($"entry {entry.Sequence} ({entry.Kind}) covers readings after id {claimed.After}, but the covering entry before it ended at id {_coveredTo}")));
+            }
+            if (pruned.Overlaps(claimed.After, claimed.To))
+            {
+                _prunedWindows++;
+                if (pruned.HasExports)
+                {
+                    _prunedWindowsChecked++;
+                    var (count, sha) = await pruned.CoverAsync(db, claimed.After, claimed.To);
+                    if (count != claimed.Count || !string.Equals(sha, claimed.Sha256, StringComparison.Ordinal))
+                    {
+                        _anomalies.Add(new AuditAnomaly("readings_mismatch", entry.Sequence, null,
+                            Text($"entry {entry.Sequence} ({entry.Kind}) covers readings with id {claimed.After + 1}–{claimed.To}, partly pruned: it recorded {claimed.Count} reading(s), the export files and the table hold {count}{(count == claimed.Count ? " with other content" : "")}: an exported or stored reading in that window was edited, deleted or added")));
+                    }
+                }
+                _coveredTo = Math.Max(_coveredTo, claimed.To);
+                continue;
             }
             var found = await readings.CoverAsync(claimed.After, claimed.To);
             if (found.Count != claimed.Count || !string.Equals(found.Sha256, claimed.Sha256, StringComparison.Ordinal))
