@@ -1,7 +1,4 @@
 using OpsLvp.Core.Engine;
-using OpsLvp.Core.Engine.Replay;
-using OpsLvp.Core.Profile;
-using OpsLvp.Core.Tests.Profile;
 
 namespace OpsLvp.Core.Tests.Engine.Replay;
 
@@ -13,26 +10,12 @@ namespace OpsLvp.Core.Tests.Engine.Replay;
 /// </summary>
 public class DemoNightOverdueTests
 {
-    private static readonly string Seed = Path.Combine(ProfileFixtures.RepoRoot(), "seed-demo");
-
-    private static ReplayResult Replay(bool withForecasts)
-    {
-        var readings = Path.Combine(Seed, "scenarios", "demo-night.csv");
-        var actions = Path.Combine(Seed, "scenarios", "demo-night.actions.csv");
-        var forecasts = Path.Combine(Seed, "scenarios", "demo-night.forecasts.csv");
-        return ReplayRunner.Run(
-            ProfileValidator.LoadValidated(Path.Combine(Seed, "profile.json")),
-            ReadingsCsv.Parse(File.ReadAllText(readings), readings),
-            ActionsCsv.Parse(File.ReadAllText(actions), actions),
-            withForecasts ? ForecastsCsv.Parse(File.ReadAllText(forecasts), forecasts) : []);
-    }
-
     [Theory]
     [InlineData(true)]
     [InlineData(false)]
     public void DemoNight_RaisesNoOverdueAlarm_ButTheDeliberateOptionalOne(bool withForecasts)
     {
-        var r = Replay(withForecasts);
+        var r = DemoNightForecastTests.Replay(withForecasts);
         var overdue = r.Events.OfType<AlarmRaised>()
             .Where(a => a.Alarm.Kind == AlarmKind.ItemOverdue)
             .Select(a => $"{a.At.UtcDateTime:HH:mm} {a.Alarm.Key}")
@@ -45,7 +28,7 @@ public class DemoNightOverdueTests
     [Fact]
     public void WithForecasts_EveryPreparationTick_FollowsThePhaseStartAndBeatsItsDueTime()
     {
-        var r = Replay(withForecasts: true);
+        var r = DemoNightForecastTests.Replay(withForecasts: true);
         var start = r.Events.OfType<PhaseTransition>().First(t => t.To == Phase.Preparation).At;
         Assert.Equal(new DateTimeOffset(2026, 1, 15, 20, 31, 0, TimeSpan.Zero), start);
         var done = r.Events.OfType<ItemTicked>().Where(t => t.ItemId.StartsWith("prep-", StringComparison.Ordinal)).ToList();
