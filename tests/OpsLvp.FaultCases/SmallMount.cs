@@ -3,7 +3,8 @@ using System.Diagnostics;
 namespace OpsLvp.FaultCases;
 
 /// <summary>
-/// A small tmpfs on a fresh folder for storage faults (needs root and a kernel that lets this process mount):
+/// A small tmpfs on a fresh folder for storage faults (needs root and a kernel that lets this process mount), used by
+/// the fault runner and by the Web tests' disk-full and read-only tests:
 /// <see cref="Fill"/> takes every free byte, <see cref="Free"/> gives it back, <see cref="SetReadOnly"/> puts a read-only
 /// bind mount over the folder (files already open stay writable through their descriptors),
 /// <see cref="TryRemountReadOnly"/> asks the kernel to make the tmpfs itself read-only.
@@ -91,10 +92,21 @@ public sealed class SmallMount : IDisposable
     {
         SetWritable();
         Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
+        // lazy: a server being torn down may still hold a descriptor for a moment
         Run("umount", "-l", Root);
+        // a server on this folder keeps its anchor key and log beside it by default (docs/audit.md "Anchors")
+        TryDelete(Path.TrimEndingDirectorySeparator(Root) + "-anchors");
+        TryDelete(Root);
+    }
+
+    private static void TryDelete(string folder)
+    {
         try
         {
-            Directory.Delete(Root, recursive: true);
+            if (Directory.Exists(folder))
+            {
+                Directory.Delete(folder, recursive: true);
+            }
         }
         catch (IOException)
         {

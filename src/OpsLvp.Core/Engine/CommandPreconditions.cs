@@ -21,7 +21,7 @@ public static class CommandPreconditions
             case DeclarePhase c:
                 if (c.Phase is not (Phase.Preparation or Phase.Active))
                 {
-                    return $"only preparation or active can be declared, not {Fmt.Name(c.Phase)}";
+                    return $"only {Fmt.Words(Phase.Preparation)} or {Fmt.Words(Phase.Active)} can be declared, not {Fmt.Words(c.Phase)}";
                 }
                 if (Blank(c.Reason))
                 {

@@ -20,7 +20,14 @@ internal static class Fmt
             ? $"{N(Math.Floor(held.TotalSeconds))} of {N(required.TotalSeconds)} s"
             : $"{N(Math.Floor(held.TotalMinutes))} of {N(Math.Round(required.TotalMinutes, 1))} min";
 
+    /// <summary>The phase's machine code ("active"), for data fields (replay JSON), never for running text.</summary>
     public static string Name(Phase phase) => phase.ToString().ToLowerInvariant();
+
+    /// <summary>
+    /// A phase in running text, in the one vocabulary's words ("LVP in force"); a value outside the enum (bad input
+    /// being refused) keeps its number rather than throwing.
+    /// </summary>
+    public static string Words(Phase phase) => Enum.IsDefined(phase) ? Presentation.LvpVocabulary.For(phase).Name : Name(phase);
 
     /// <summary>A change of phase in running text, in the one vocabulary's words ("LVP preparation to LVP in force"; never "->").</summary>
     public static string Change(Phase from, Phase to) => Presentation.LvpVocabulary.Change(from, to);

@@ -38,7 +38,7 @@ public sealed partial class LvpEngine
             }
             if (State.Pending is { } p)
             {
-                wanted.Add((AlarmKeys.Pending, AlarmKind.PendingTransition, $"confirm {Fmt.Name(p.From)} -> {Fmt.Name(p.To)}: {p.Reason}"));
+                wanted.Add((AlarmKeys.Pending, AlarmKind.PendingTransition, $"confirm {Fmt.Change(p.From, p.To)}: {p.Reason}"));
             }
             if (State.Episode is not null && sit.Active && !Safeguards.AreComplete(State.Episode, State.Items))
             {

@@ -104,7 +104,7 @@ public sealed partial class LvpEngine
             return item?.Status switch
             {
                 null => _model.ItemConfigs.TryGetValue(itemId, out var config)
-                    ? $"item {itemId} is not open: its {Fmt.Name(config.Phase)} checklist has not been opened"
+                    ? $"item {itemId} is not open: its {Fmt.Words(config.Phase)} checklist has not been opened"
                     : $"unknown item '{itemId}'",
                 ItemStatus.Done => $"item {itemId} already done by {item.Tick!.User} at {Fmt.Time(item.Tick.At)}",
                 ItemStatus.NotApplicable => $"item {itemId} already marked not applicable by {item.Tick!.User} at {Fmt.Time(item.Tick.At)}",

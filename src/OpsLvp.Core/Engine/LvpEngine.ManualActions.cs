@@ -39,7 +39,7 @@ public sealed partial class LvpEngine
                         return "no hold to release";
                     }
                     State = State with { Hold = null };
-                    Applied(now, c.Actor, "release_hold", $"released hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}", c.Reason);
+                    Applied(now, c.Actor, "release_hold", $"released hold on {Fmt.Words(hold.Phase)} declared by {hold.Actor}", c.Reason);
                     return null;
                 case SetForecast c:
                     return SetForecastByHand(c, now); // docs/engine.md R27
@@ -147,7 +147,7 @@ public sealed partial class LvpEngine
             State = State with { EscalationMeasuredFrom = now };
             var from = State.Phase;
             var sit = Situate(_model, State, now);
-            Applied(now, c.Actor, "cancel", $"cancelled {Fmt.Name(from)}", c.Reason);
+            Applied(now, c.Actor, "cancel", $"cancelled {Fmt.Words(from)}", c.Reason);
             Transition(to, TransitionBy.Manual, c.Actor, $"cancelled by {c.Actor}: {c.Reason}", sit, null, now);
             if (!RecoveryHolds(from, sit))
             {

@@ -25,7 +25,7 @@ public sealed partial class LvpEngine
                     var why = desired is { } other
                         ? $"superseded: {Fmt.Change(pending.From, other.To)} is due instead"
                         : State.Hold is { } hold && Severity(pending.To) < Severity(hold.Phase)
-                            ? $"hold on {Fmt.Name(hold.Phase)} declared by {hold.Actor}"
+                            ? $"hold on {Fmt.Words(hold.Phase)} declared by {hold.Actor}"
                             : pending.To == Phase.Active && DwellDone(ConditionKind.Active, t)
                                 ? SafeguardsIncompleteText()
                                 : "condition no longer holds";
@@ -125,7 +125,7 @@ public sealed partial class LvpEngine
                             : "no mandatory cancellation items";
                         return recovered
                             ? (Phase.Normal, $"{what}; recovery from preparation held {Fmt.Span(_model.Dwell(ConditionKind.RecoveryFromPreparation))}")
-                            : (Phase.Preparation, $"{what}; {(HoldAtLeast(Phase.Preparation) ? "preparation hold in force" : "recovery from preparation not yet held its dwell")}");
+                            : (Phase.Preparation, $"{what}; {(HoldAtLeast(Phase.Preparation) ? $"{Fmt.Words(Phase.Preparation)} hold in force" : "recovery from preparation not yet held its dwell")}");
                     }
                     return null;
                 default:
@@ -192,7 +192,7 @@ public sealed partial class LvpEngine
             var from = State.Phase;
             if (State.Pending is { } pending && proposedAt is null)
             {
-                Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, $"superseded by transition to {Fmt.Name(to)}"));
+                Events.Add(new ProposalWithdrawn(t, pending.From, pending.To, pending.ConditionMetAt, $"superseded by transition to {Fmt.Words(to)}"));
             }
             Events.Add(new PhaseTransition(t, from, to, by, actor, reason, Snapshot(sit), proposedAt));
             if (from == Phase.Normal)

@@ -114,7 +114,7 @@ internal static class StatusBuilder
         }
         if (state.Hold is { } hold)
         {
-            waiting.Add(new WaitingFor(WaitKind.Hold, $"hold: {Fmt.Name(hold.Phase)} declared by {hold.Actor}; no automatic relaxation below it until released", null, null, []));
+            waiting.Add(new WaitingFor(WaitKind.Hold, $"hold: {Fmt.Words(hold.Phase)} declared by {hold.Actor}; no automatic relaxation below it until released", null, null, []));
         }
         switch (state.Phase)
         {

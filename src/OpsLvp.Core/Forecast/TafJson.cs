@@ -1,5 +1,3 @@
-using OpsLvp.Core.Reporting;
-using System.Text;
 using System.Text.Json;
 using OpsLvp.Core.Metar;
 
@@ -18,7 +16,7 @@ public static class TafJson
     public static string Write(TafReport report, bool indented = false)
     {
         ArgumentNullException.ThrowIfNull(report);
-        return Build(indented, w =>
+        return ReportJson.Build(indented, w =>
         {
             w.WriteStartObject();
             w.WriteString("station", report.Station);
@@ -35,7 +33,7 @@ public static class TafJson
             w.WriteEndObject();
             WriteChanges(w, report.Changes);
             w.WriteString("remarks", report.Remarks);
-            Strings(w, "unknown_groups", report.UnknownGroups);
+            ReportJson.Strings(w, "unknown_groups", report.UnknownGroups);
             w.WriteEndObject();
         });
     }
@@ -44,24 +42,14 @@ public static class TafJson
     public static string Write(TrendForecast trend, bool indented = false)
     {
         ArgumentNullException.ThrowIfNull(trend);
-        return Build(indented, w =>
+        return ReportJson.Build(indented, w =>
         {
             w.WriteStartObject();
             w.WriteString("text", trend.Text);
             WriteChanges(w, trend.Changes);
-            Strings(w, "unknown_groups", trend.UnknownGroups);
+            ReportJson.Strings(w, "unknown_groups", trend.UnknownGroups);
             w.WriteEndObject();
         });
-    }
-
-    private static string Build(bool indented, Action<Utf8JsonWriter> write)
-    {
-        using var stream = new MemoryStream();
-        using (var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = indented }))
-        {
-            write(w);
-        }
-        return Encoding.UTF8.GetString(stream.ToArray());
     }
 
     private static void WriteChanges(Utf8JsonWriter w, IReadOnlyList<ForecastChange> changes)
@@ -79,7 +67,7 @@ public static class TafJson
                 ForecastChangeKind.Probability => "PROB",
                 _ => "NOSIG",
             });
-            Number(w, "probability", c.Probability);
+            ReportJson.Number(w, "probability", c.Probability);
             w.WriteString("from", c.Window.From?.ToString());
             w.WriteString("until", c.Window.Until?.ToString());
             w.WriteString("at", c.Window.At?.ToString());
@@ -92,64 +80,16 @@ public static class TafJson
 
     private static void WriteConditions(Utf8JsonWriter w, ForecastConditions c)
     {
-        Number(w, "visibility_m", c.Visibility?.Distance.Value);
-        w.WriteString("visibility_qualifier", c.Visibility?.Qualifier switch
-        {
-            RvrQualifier.Below => "M",
-            RvrQualifier.Above => "P",
-            _ => null,
-        });
-        Number(w, "visibility_sm", c.Visibility?.StatuteMiles);
+        ReportJson.Number(w, "visibility_m", c.Visibility?.Distance.Value);
+        w.WriteString("visibility_qualifier", ReportJson.Code(c.Visibility?.Qualifier));
+        ReportJson.Number(w, "visibility_sm", c.Visibility?.StatuteMiles);
         w.WriteBoolean("cavok", c.Cavok);
-        Strings(w, "weather", c.Weather.Select(x => x.Code));
+        ReportJson.Strings(w, "weather", c.Weather.Select(x => x.Code));
         w.WriteBoolean("nsw", c.NoSignificantWeather);
-        w.WriteStartArray("clouds");
-        foreach (var layer in c.Clouds)
-        {
-            w.WriteStartObject();
-            w.WriteString("cover", layer.Cover switch
-            {
-                CloudCover.Few => "FEW",
-                CloudCover.Scattered => "SCT",
-                CloudCover.Broken => "BKN",
-                CloudCover.Overcast => "OVC",
-                _ => null,
-            });
-            Number(w, "base_ft", layer.Base?.Value);
-            w.WriteString("type", layer.Type switch
-            {
-                CloudType.Cumulonimbus => "CB",
-                CloudType.ToweringCumulus => "TCU",
-                _ => null,
-            });
-            w.WriteEndObject();
-        }
-        w.WriteEndArray();
-        Number(w, "vertical_visibility_ft", c.VerticalVisibility?.Value);
+        ReportJson.Clouds(w, c.Clouds);
+        ReportJson.Number(w, "vertical_visibility_ft", c.VerticalVisibility?.Value);
         w.WriteBoolean("sky_obscured", c.SkyObscured);
         w.WriteString("sky_condition", c.SkyCondition);
-        Number(w, "ceiling_ft", c.FindCeiling(countVerticalVisibility: true)?.Value);
-    }
-
-    private static void Number(Utf8JsonWriter w, string name, double? value)
-    {
-        if (value is { } v)
-        {
-            w.WriteNumber(name, v);
-        }
-        else
-        {
-            w.WriteNull(name);
-        }
-    }
-
-    private static void Strings(Utf8JsonWriter w, string name, IEnumerable<string> values)
-    {
-        w.WriteStartArray(name);
-        foreach (var v in values)
-        {
-            w.WriteStringValue(v);
-        }
-        w.WriteEndArray();
+        ReportJson.Number(w, "ceiling_ft", c.FindCeiling(countVerticalVisibility: true)?.Value);
     }
 }

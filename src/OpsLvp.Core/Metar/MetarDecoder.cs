@@ -61,12 +61,6 @@ public static partial class MetarDecoder
     [GeneratedRegex(@"^([0-9]{2})([0-9]{2})([0-9]{2})Z$")]
     private static partial Regex TimeRegex();
 
-    [GeneratedRegex(@"^([0-9]{3}|VRB|///)([0-9]{2,3}|//)(G([0-9]{2,3}|//))?(KT|MPS|KMH)$")]
-    private static partial Regex WindRegex();
-
-    [GeneratedRegex(@"^[0-9]{3}V[0-9]{3}$")]
-    private static partial Regex WindVariationRegex();
-
     [GeneratedRegex(@"^([0-9]{4})(NDV)?$")]
     private static partial Regex VisibilityRegex();
 
@@ -93,12 +87,6 @@ public static partial class MetarDecoder
 
     [GeneratedRegex(@"^(RE)?(\+|-|VC)?(MI|BC|PR|DR|BL|SH|TS|FZ)?((?:DZ|RA|SN|SG|PL|GR|GS|UP|IC|BR|FG|FU|VA|DU|SA|HZ|PO|SQ|FC|SS|DS)*)$")]
     private static partial Regex WeatherRegex();
-
-    [GeneratedRegex(@"^(FEW|SCT|BKN|OVC|///)([0-9]{3}|///)(CB|TCU|///)?$")]
-    private static partial Regex CloudRegex();
-
-    [GeneratedRegex(@"^VV([0-9]{3}|///)$")]
-    private static partial Regex VerticalVisibilityRegex();
 
     [GeneratedRegex(@"^(M?[0-9]{2}|//)/(M?[0-9]{2}|//)?$")]
     private static partial Regex TemperatureRegex();
@@ -230,7 +218,7 @@ public static partial class MetarDecoder
                     visibilityStatus = VisibilityStatus.Reported;
                     visibilityGroup = g;
                 }
-                else if (WindRegex().IsMatch(g) || WindVariationRegex().IsMatch(g))
+                else if (ReportGroups.IsWind(g))
                 {
                     // Wind is not an LVP input: recognised and skipped.
                 }
@@ -281,22 +269,22 @@ public static partial class MetarDecoder
                     sky = g;
                     pastVisibility = true;
                 }
-                else if ((m = CloudRegex().Match(g)).Success)
+                else if (ReportGroups.TryCloud(g, out var layer))
                 {
                     pastVisibility = true;
-                    if (m.Groups[1].Value == "///" && m.Groups[2].Value == "///" && m.Groups[3].Value is not ("CB" or "TCU"))
+                    if (layer is { Cover: null, Base: null, Type: null })
                     {
                         // "//////": cloud not observable by the automatic system; no layer to report, ceiling unknown.
                         cloudNotObservable = true;
                         continue;
                     }
                     // "//////CB" keeps its layer: a CB or TCU was detected, amount and height not determinable.
-                    _clouds.Add(ToCloud(m));
+                    _clouds.Add(layer!);
                 }
-                else if ((m = VerticalVisibilityRegex().Match(g)).Success)
+                else if (ReportGroups.TryVerticalVisibility(g, out var vv))
                 {
                     obscured = true;
-                    verticalVisibility = m.Groups[1].Value == "///" ? null : new Feet(Int(m.Groups[1].Value) * 100);
+                    verticalVisibility = vv;
                     pastVisibility = true;
                 }
                 else if (g is "//" or "NSW")
@@ -488,26 +476,6 @@ public static partial class MetarDecoder
 
         private static RvrQualifier Qualifier(Group g) =>
             !g.Success ? RvrQualifier.None : g.Value == "M" ? RvrQualifier.Below : RvrQualifier.Above;
-
-        private static MetarCloudLayer ToCloud(Match m)
-        {
-            CloudCover? cover = m.Groups[1].Value switch
-            {
-                "FEW" => CloudCover.Few,
-                "SCT" => CloudCover.Scattered,
-                "BKN" => CloudCover.Broken,
-                "OVC" => CloudCover.Overcast,
-                _ => null,
-            };
-            Feet? height = m.Groups[2].Value == "///" ? null : new Feet(Int(m.Groups[2].Value) * 100);
-            CloudType? type = m.Groups[3].Value switch
-            {
-                "CB" => CloudType.Cumulonimbus,
-                "TCU" => CloudType.ToweringCumulus,
-                _ => null,
-            };
-            return new MetarCloudLayer(cover, height, type);
-        }
 
         private static MetarWeather ToWeather(Match m)
         {

@@ -1,4 +1,3 @@
-using System.Text;
 using System.Text.Json;
 using OpsLvp.Core.Reporting;
 
@@ -18,28 +17,23 @@ public static class MetarJson
     public static string Write(MetarReport report, bool indented = false)
     {
         ArgumentNullException.ThrowIfNull(report);
-        using var stream = new MemoryStream();
-        using (var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = indented }))
-        {
-            WriteReport(w, report);
-        }
-        return Encoding.UTF8.GetString(stream.ToArray());
+        return ReportJson.Build(indented, w => WriteReport(w, report));
     }
 
     private static void WriteReport(Utf8JsonWriter w, MetarReport r)
     {
         w.WriteStartObject();
         w.WriteString("station", r.Station);
-        Number(w, "visibility_m", r.Visibility?.Value);
+        ReportJson.Number(w, "visibility_m", r.Visibility?.Value);
         w.WriteBoolean("cavok", r.Cavok);
         w.WriteStartArray("rvr");
         foreach (var rvr in r.Rvr)
         {
             w.WriteStartObject();
             w.WriteString("runway", rvr.Runway);
-            Number(w, "value_m", rvr.Value?.Value);
-            Number(w, "max_m", rvr.Max?.Value);
-            w.WriteString("qualifier", Code(rvr.Qualifier));
+            ReportJson.Number(w, "value_m", rvr.Value?.Value);
+            ReportJson.Number(w, "max_m", rvr.Max?.Value);
+            w.WriteString("qualifier", ReportJson.Code(rvr.Qualifier));
             w.WriteString("tendency", rvr.Tendency switch
             {
                 RvrTendency.Up => "U",
@@ -47,38 +41,17 @@ public static class MetarJson
                 RvrTendency.NoChange => "N",
                 _ => null,
             });
-            w.WriteString("max_qualifier", Code(rvr.MaxQualifier));
+            w.WriteString("max_qualifier", ReportJson.Code(rvr.MaxQualifier));
             w.WriteString("unit", rvr.ReportedUnit == RvrReportedUnit.Feet ? "ft" : "m");
-            Number(w, "reported_value", rvr.ReportedValue);
-            Number(w, "reported_max", rvr.ReportedMax);
+            ReportJson.Number(w, "reported_value", rvr.ReportedValue);
+            ReportJson.Number(w, "reported_max", rvr.ReportedMax);
             w.WriteEndObject();
         }
         w.WriteEndArray();
-        w.WriteStartArray("clouds");
-        foreach (var c in r.Clouds)
-        {
-            w.WriteStartObject();
-            w.WriteString("cover", c.Cover switch
-            {
-                CloudCover.Few => "FEW",
-                CloudCover.Scattered => "SCT",
-                CloudCover.Broken => "BKN",
-                CloudCover.Overcast => "OVC",
-                _ => null,
-            });
-            Number(w, "base_ft", c.Base?.Value);
-            w.WriteString("type", c.Type switch
-            {
-                CloudType.Cumulonimbus => "CB",
-                CloudType.ToweringCumulus => "TCU",
-                _ => null,
-            });
-            w.WriteEndObject();
-        }
-        w.WriteEndArray();
-        Number(w, "vertical_visibility_ft", r.VerticalVisibility?.Value);
-        Number(w, "ceiling_ft", r.Ceiling?.Value);
-        Strings(w, "weather", r.Weather.Select(x => x.Code));
+        ReportJson.Clouds(w, r.Clouds);
+        ReportJson.Number(w, "vertical_visibility_ft", r.VerticalVisibility?.Value);
+        ReportJson.Number(w, "ceiling_ft", r.Ceiling?.Value);
+        ReportJson.Strings(w, "weather", r.Weather.Select(x => x.Code));
         w.WriteString("ceiling_status", r.CeilingStatus switch
         {
             CeilingStatus.None => "none",
@@ -112,44 +85,15 @@ public static class MetarJson
         w.WriteBoolean("cor", r.Corrected);
         w.WriteBoolean("auto", r.Automatic);
         w.WriteBoolean("nil", r.Nil);
-        Number(w, "min_visibility_m", r.MinimumVisibility?.Value.Value);
+        ReportJson.Number(w, "min_visibility_m", r.MinimumVisibility?.Value.Value);
         w.WriteString("min_visibility_direction", r.MinimumVisibility?.Direction);
         w.WriteBoolean("ndv", r.NoDirectionalVariation);
         w.WriteBoolean("sky_obscured", r.SkyObscured);
         w.WriteString("sky_condition", r.SkyCondition);
-        Strings(w, "recent_weather", r.RecentWeather.Select(x => x.Code));
+        ReportJson.Strings(w, "recent_weather", r.RecentWeather.Select(x => x.Code));
         w.WriteString("trend", r.Trend);
         w.WriteString("remarks", r.Remarks);
-        Strings(w, "unknown_groups", r.UnknownGroups);
+        ReportJson.Strings(w, "unknown_groups", r.UnknownGroups);
         w.WriteEndObject();
-    }
-
-    private static string? Code(RvrQualifier q) => q switch
-    {
-        RvrQualifier.Below => "M",
-        RvrQualifier.Above => "P",
-        _ => null,
-    };
-
-    private static void Number(Utf8JsonWriter w, string name, double? value)
-    {
-        if (value is { } v)
-        {
-            w.WriteNumber(name, v);
-        }
-        else
-        {
-            w.WriteNull(name);
-        }
-    }
-
-    private static void Strings(Utf8JsonWriter w, string name, IEnumerable<string> values)
-    {
-        w.WriteStartArray(name);
-        foreach (var v in values)
-        {
-            w.WriteStringValue(v);
-        }
-        w.WriteEndArray();
     }
 }

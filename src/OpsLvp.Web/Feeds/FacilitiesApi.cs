@@ -1,11 +1,9 @@
 using System.Text.Json;
-using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Http.HttpResults;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Capability;
 using OpsLvp.Core.Engine;
 using OpsLvp.Data.Stores;
-using OpsLvp.Web.Access;
 using OpsLvp.Web.Engine;
 
 namespace OpsLvp.Web.Feeds;
@@ -38,25 +36,13 @@ public static class FacilitiesApi
     {
         var log = loggers.CreateLogger(typeof(FacilitiesApi).FullName!);
         var push = options.Value.Push;
-        var auth = await context.AuthenticateAsync(AccessSchemes.ApiKey);
-        if (!auth.Succeeded)
+        var caller = await IngestKeyCheck.CheckAsync(context, push, keys, "facility ingest");
+        if (caller.Refusal is { } refusal)
         {
-            if (push.ApiKeys.Count == 0 && !await keys.AnyActiveAsync(ApiKeyStore.IngestScope, context.RequestAborted))
-            {
-                return Unauthorized(context, "facility ingest is disabled: no keys are configured in Feeds:Push:ApiKeys or issued on /admin/keys");
-            }
-
-            return context.Request.Headers[ReadingsApi.ApiKeyHeader].ToString().Length == 0
-                ? Unauthorized(context, $"missing {ReadingsApi.ApiKeyHeader} header")
-                : Unauthorized(context, $"the {ReadingsApi.ApiKeyHeader} header does not match any configured key");
+            return refusal;
         }
 
-        if (!auth.Principal.HasClaim(AccessClaims.Scope, ApiKeyStore.IngestScope))
-        {
-            return Error(StatusCodes.Status403Forbidden, "this API key does not have the ingest scope");
-        }
-
-        var actor = "ingest:" + (auth.Principal.Identity?.Name ?? "key:unknown")["key:".Length..];
+        var actor = "ingest:" + caller.KeyName;
         var body = await ReadingsApi.ReadBodyAsync(context, push.MaxBodyBytes);
         if (body is null)
         {
@@ -210,12 +196,6 @@ public static class FacilitiesApi
 
     private static FacilityReportResult Reject(int index, string? facility, string reason, string detail) =>
         new(index, facility, FacilityReportResult.Rejected, reason, detail);
-
-    private static JsonHttpResult<ApiError> Unauthorized(HttpContext context, string error)
-    {
-        context.Response.Headers.WWWAuthenticate = $"ApiKey header=\"{ReadingsApi.ApiKeyHeader}\"";
-        return Error(StatusCodes.Status401Unauthorized, error);
-    }
 
     private static JsonHttpResult<ApiError> Error(int status, string error) => TypedResults.Json(new ApiError(error), statusCode: status);
 }

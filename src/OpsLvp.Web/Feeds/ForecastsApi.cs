@@ -1,11 +1,9 @@
 using System.Text.Json;
-using Microsoft.AspNetCore.Authentication;
 using Microsoft.AspNetCore.Http.HttpResults;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Engine;
 using OpsLvp.Core.Forecast;
 using OpsLvp.Data.Stores;
-using OpsLvp.Web.Access;
 using OpsLvp.Web.Engine;
 
 namespace OpsLvp.Web.Feeds;
@@ -95,22 +93,12 @@ public static class ForecastsApi
     {
         var push = options.Value.Push;
         var logger = loggers.CreateLogger(typeof(ForecastsApi).FullName!);
-        var auth = await context.AuthenticateAsync(AccessSchemes.ApiKey);
-        if (!auth.Succeeded)
+        var caller = await IngestKeyCheck.CheckAsync(context, push, keys, "push ingest");
+        if (caller.Refusal is { } refusal)
         {
-            if (push.ApiKeys.Count == 0 && !await keys.AnyActiveAsync(ApiKeyStore.IngestScope, context.RequestAborted))
-            {
-                return Unauthorized(context, "push ingest is disabled: no keys are configured in Feeds:Push:ApiKeys or issued on /admin/keys");
-            }
-            return context.Request.Headers[ReadingsApi.ApiKeyHeader].ToString().Length == 0
-                ? Unauthorized(context, $"missing {ReadingsApi.ApiKeyHeader} header")
-                : Unauthorized(context, $"the {ReadingsApi.ApiKeyHeader} header does not match any configured key");
+            return refusal;
         }
-        if (!auth.Principal.HasClaim(AccessClaims.Scope, ApiKeyStore.IngestScope))
-        {
-            return Error(StatusCodes.Status403Forbidden, "this API key does not have the ingest scope");
-        }
-        var source = "push:" + (auth.Principal.Identity?.Name ?? "key:unknown")["key:".Length..];
+        var source = "push:" + caller.KeyName;
         if (context.Request.ContentLength > push.MaxBodyBytes)
         {
             return Error(StatusCodes.Status413PayloadTooLarge, $"request body exceeds Feeds:Push:MaxBodyBytes ({push.MaxBodyBytes} bytes)");
@@ -179,12 +167,6 @@ public static class ForecastsApi
         }
         health.RecordSuccess(source, forecasts.Count, rejected.Count);
         return TypedResults.Accepted((string?)null, new PushResponse(source, forecasts.Count, rejected, items));
-    }
-
-    private static JsonHttpResult<ApiError> Unauthorized(HttpContext context, string error)
-    {
-        context.Response.Headers.WWWAuthenticate = $"ApiKey header=\"{ReadingsApi.ApiKeyHeader}\"";
-        return Error(StatusCodes.Status401Unauthorized, error);
     }
 
     private static JsonHttpResult<ApiError> Error(int status, string error) => TypedResults.Json(new ApiError(error), statusCode: status);

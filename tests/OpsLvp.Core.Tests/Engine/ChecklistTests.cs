@@ -53,7 +53,7 @@ public class ChecklistTests
     {
         var d = InPreparation();
         var events = d.Run(50, new TickItem("kim (invented)", "airside", "NOPE"), new TickItem("kim (invented)", "airside", "C1"));
-        Assert.Equal(["unknown item 'NOPE'", "item C1 is not open: its cancellation checklist has not been opened"], events.OfType<CommandRefused>().Select(r => r.Reason));
+        Assert.Equal(["unknown item 'NOPE'", "item C1 is not open: its Cancelling LVP checklist has not been opened"], events.OfType<CommandRefused>().Select(r => r.Reason));
     }
 
     [Fact]

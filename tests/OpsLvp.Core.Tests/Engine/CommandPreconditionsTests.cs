@@ -10,7 +10,7 @@ public class CommandPreconditionsTests
 {
     private static readonly (EngineCommand Command, string Expected)[] Incomplete =
     [
-        (new DeclarePhase("dm", Phase.Normal, "x"), "only preparation or active can be declared, not normal"),
+        (new DeclarePhase("dm", Phase.Normal, "x"), "only LVP preparation or LVP in force can be declared, not Normal operations"),
         (new DeclarePhase("dm", Phase.Active, " "), "a reason is required to declare a phase"),
         (new CancelLvp("dm", ""), "a reason is required to cancel"),
         (new ReleaseHold("dm", ""), "a reason is required to release a hold"),

@@ -68,7 +68,9 @@ public class ConfirmationTests
         d.Weather(50, 500);
         d.Run(90);
         var pending = Assert.Single(d.State.Alarms, a => a.Key == "pending");
-        Assert.StartsWith("confirm normal -> active", pending.Message);
+        // the engine's own text uses the vocabulary's words, not internal names or an arrow (LvpVocabulary)
+        Assert.StartsWith("confirm Normal operations to LVP in force: ", pending.Message);
+        Assert.DoesNotContain("->", pending.Message, StringComparison.Ordinal);
         Assert.False(pending.Acknowledged);
         Assert.Equal(2, d.Events.OfType<TransitionProposed>().Count());
     }

@@ -121,7 +121,7 @@ public class ManualActionTests
             new UnknownCommand(Dm));
         Assert.Equal(
         [
-            "only preparation or active can be declared, not normal",
+            "only LVP preparation or LVP in force can be declared, not Normal operations",
             "actor is blank",
             "no hold to release",
             "deterioration forecast is already off",

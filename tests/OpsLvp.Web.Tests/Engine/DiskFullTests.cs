@@ -4,6 +4,7 @@ using System.Text;
 using System.Text.Json;
 using Microsoft.Extensions.DependencyInjection;
 using OpsLvp.Data.Stores;
+using OpsLvp.FaultCases;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Tests.Infrastructure;
 using OpsLvp.Web.Tests.Live;
@@ -21,7 +22,7 @@ public sealed class DiskFullTests
     [RootFact]
     public async Task DiskFull_RefusesPushesWith503_FailsHealth_SaysNotRecording_ThenRecordsOneGap_AndLosesNoAcknowledgedReading()
     {
-        using var fs = SmallFilesystem.Mount(24);
+        using var fs = SmallMount.Mount(OpsLvpApp.NewDataFolder(), 24);
         var profile = LiveTestProfile.Write(fs.Root);
         await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(profile), fs.Root);
         await LiveClient.ReaderKeyAsync(app); // issued (an audit entry) while there is room

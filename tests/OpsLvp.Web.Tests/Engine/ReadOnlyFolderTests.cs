@@ -2,6 +2,7 @@ using System.Net;
 using System.Text;
 using Microsoft.Extensions.DependencyInjection;
 using OpsLvp.Data.Stores;
+using OpsLvp.FaultCases;
 using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Tests.Infrastructure;
 using OpsLvp.Web.Tests.Live;
@@ -24,7 +25,7 @@ public sealed class ReadOnlyFolderTests
     [RootFact]
     public async Task ReadOnlyDataFolder_TheServerSurvives_AnswersEveryPush202Or503_AndLosesNothingAcknowledged()
     {
-        using var fs = SmallFilesystem.Mount(32);
+        using var fs = SmallMount.Mount(OpsLvpApp.NewDataFolder(), 32);
         var profile = LiveTestProfile.Write(fs.Root);
         await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(profile), fs.Root);
         await LiveClient.ReaderKeyAsync(app);

@@ -1,16 +1,18 @@
+using OpsLvp.FaultCases;
+
 namespace OpsLvp.Web.Tests.Infrastructure;
 
 /// <summary>
-/// A test that mounts a small filesystem (<see cref="SmallFilesystem"/>): skipped, saying why, unless the process runs as
+/// A test that mounts a small filesystem (<see cref="SmallMount"/>): skipped, saying why, unless the process runs as
 /// root on Linux. CI runs as root (it installs packages), so there these tests run.
 /// </summary>
 public sealed class RootFactAttribute : FactAttribute
 {
     public RootFactAttribute()
     {
-        if (!OperatingSystem.IsLinux() || !Environment.IsPrivilegedProcess)
+        if (SmallMount.CannotMount() is { } why)
         {
-            Skip = "needs root on Linux to mount a small tmpfs";
+            Skip = why;
         }
     }
 }

@@ -15,7 +15,8 @@ public class DemoNightForecastTests
 {
     private static readonly string Seed = Path.Combine(ProfileFixtures.RepoRoot(), "seed-demo");
 
-    private static ReplayResult Replay(bool withForecasts)
+    /// <summary>The demo night replayed with its actions, and with its forecasts when <paramref name="withForecasts"/>.</summary>
+    internal static ReplayResult Replay(bool withForecasts)
     {
         var readings = Path.Combine(Seed, "scenarios", "demo-night.csv");
         var actions = Path.Combine(Seed, "scenarios", "demo-night.actions.csv");

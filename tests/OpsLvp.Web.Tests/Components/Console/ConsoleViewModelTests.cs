@@ -99,7 +99,7 @@ public sealed class ConsoleViewModelTests
         Assert.Equal(
             [("RVR07M", "RVR07M (out of service)", "Back in service…"), ("RVR07T", "RVR07T", "Out of service…")],
             view.Sensors.Select(s => (s.SensorId, s.Label, s.ButtonLabel)));
-        Assert.Equal(("ON", "Clear forecast…"), (view.ForecastText, view.ForecastButton));
+        Assert.Equal((true, "Clear forecast…"), (view.ForecastOn, view.ForecastButton));
     }
 
     [Fact]

@@ -47,7 +47,7 @@ public partial class ActionItemCard
 
     internal TickStage Stage => _stage;
 
-    private string PhaseLabel => Item.Phase.ToString().ToLowerInvariant();
+    private string PhaseLabel => LvpVocabulary.For(Item.Phase).Name;
 
     private string StatusAttribute => _stage == TickStage.Sending ? "sending" : Item.Status.ToString().ToLowerInvariant();
 

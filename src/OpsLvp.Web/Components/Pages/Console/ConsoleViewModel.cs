@@ -49,9 +49,6 @@ public sealed class ConsoleViewModel
     /// <summary>"300 ft (CEIL1)", "UNKNOWN", or null when the aerodrome has no ceilometer (docs/engine.md R5).</summary>
     public required string? CeilingText { get; init; }
 
-    /// <summary>"ON" or "off".</summary>
-    public required string ForecastText { get; init; }
-
     public required bool ForecastOn { get; init; }
 
     /// <summary>"Set deterioration forecast…" or "Clear forecast…".</summary>
@@ -111,7 +108,6 @@ public sealed class ConsoleViewModel
                 ? $"{ReadingFlagText.ValuePrefix(rvr.Flags)}{DisplayFormat.Rvr(rvr.Value)} at {rvr.Label} ({rvr.SensorId}){(rvr.Flags == ReadingFlags.None ? "" : " — " + ReadingFlagText.Describe(rvr.Flags))}"
                 : "UNKNOWN",
             CeilingText = !status.CeilingConfigured ? null : status.Ceiling is { } c ? $"{DisplayFormat.Feet(c.Value)} ({c.SensorId})" : "UNKNOWN",
-            ForecastText = status.DeteriorationForecast ? "ON" : "off",
             ForecastOn = status.DeteriorationForecast,
             ForecastButton = status.DeteriorationForecast ? "Clear forecast…" : "Set deterioration forecast…",
             LightStepText = LightStepLine(snapshot.LightStep),
