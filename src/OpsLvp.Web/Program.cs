@@ -33,6 +33,7 @@ builder.Logging.AddFilter("Microsoft.EntityFrameworkCore", LogLevel.Warning);
 builder.Services.AddRazorComponents().AddInteractiveServerComponents();
 builder.Services.AddMudServices();
 builder.Services.AddAppPaths(builder.Configuration, builder.Environment);
+builder.Services.AddTrustedProxies(builder.Configuration);
 builder.Services.AddAppClock(builder.Configuration);
 builder.Services.AddFeeds(builder.Configuration);
 // before the engine: the anchor service stops after it, so the shutdown anchor covers its last entries
@@ -59,6 +60,8 @@ catch (Exception ex)
     app.Logger.LogWarning(ex, "Database check before start failed; the start-up services will retry and report it");
 }
 
+// Before everything that reads the client's address or scheme (docs/deployment.md "Behind a reverse proxy").
+app.UseTrustedProxies();
 // First, so static assets, error pages and re-executed status pages carry the headers too (docs/access.md).
 app.UseSecurityHeaders();
 if (!app.Environment.IsDevelopment())
