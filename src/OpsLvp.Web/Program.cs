@@ -1,6 +1,7 @@
 using MudBlazor.Services;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Anchors;
+using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Components;
 using OpsLvp.Web.Components.Shell;
 using OpsLvp.Web.Engine;
@@ -40,6 +41,8 @@ builder.Services.AddFeeds(builder.Configuration);
 builder.Services.AddAnchors(builder.Configuration);
 builder.Services.AddLiveEngine(builder.Configuration);
 builder.Services.AddReadingsRetention(builder.Configuration);
+// with Cluster:Redis: hub backplane, snapshot fan-out, command forwarding (docs/deployment.md)
+builder.Services.AddCluster(builder.Configuration);
 builder.Services.AddReview();
 builder.Services.AddAccess(builder.Configuration);
 builder.Services.AddScreens(builder.Configuration);

@@ -1,4 +1,5 @@
 using Microsoft.Extensions.Options;
+using OpsLvp.Web.Cluster;
 
 namespace OpsLvp.Web.Live;
 
@@ -8,14 +9,33 @@ namespace OpsLvp.Web.Live;
 /// breaks the others or the publisher. Each subscriber gets at most <see cref="LiveOptions.MaxStatesPerSecond"/>
 /// snapshots a second: in between, a newer snapshot replaces the one waiting, so the latest always arrives, and a
 /// snapshot whose phase differs from the last delivered one goes out without waiting for the interval.
+/// With several nodes (docs/deployment.md "Fan-out"), a node shows its own engine's snapshots only while it leads and
+/// otherwise the leader's, received through <see cref="ApplyRemote"/>; newer epoch first, then newer version, wins.
 /// </summary>
-public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? options = null) : ILiveState
+public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? options = null, ILeadership? leadership = null) : ILiveState
 {
     private readonly TimeSpan _minInterval = (options?.Value ?? new LiveOptions()).MinInterval;
 
     private readonly Lock _lock = new();
     private readonly List<Subscription> _subscriptions = [];
     private LiveSnapshot? _current;
+    private long _currentEpoch = long.MinValue;
+    private LiveSnapshot? _ownLatest;
+
+    /// <summary>Raised (on the publisher's thread, keep it short) with each own snapshot made current while leading, and the epoch.</summary>
+    public event Action<LiveSnapshot, long>? PublishedOwn;
+
+    /// <summary>The latest snapshot this node's own engine published, shown or not (a standby's fallback for the not-live marker).</summary>
+    public LiveSnapshot? OwnLatest
+    {
+        get
+        {
+            lock (_lock)
+            {
+                return _ownLatest;
+            }
+        }
+    }
 
     public LiveSnapshot? Current
     {
@@ -39,24 +59,83 @@ public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? 
         return subscription;
     }
 
-    /// <summary>Makes <paramref name="snapshot"/> current and hands it to every subscriber without waiting for them.</summary>
+    /// <summary>
+    /// The own engine's path: makes <paramref name="snapshot"/> current and hands it to every subscriber without waiting
+    /// for them — only while this node leads (always on a single node); a standby keeps it as <see cref="OwnLatest"/>.
+    /// </summary>
     public void Publish(LiveSnapshot snapshot)
     {
         ArgumentNullException.ThrowIfNull(snapshot);
+        var epoch = leadership?.Epoch ?? 0;
+        lock (_lock)
+        {
+            _ownLatest = snapshot;
+        }
+        if (leadership is { IsLeader: false })
+        {
+            return;
+        }
+        if (Offer(snapshot, epoch, force: false))
+        {
+            PublishedOwn?.Invoke(snapshot, epoch);
+        }
+    }
+
+    /// <summary>
+    /// The fan-out's path on a node that does not lead: the leader's <paramref name="snapshot"/> of leadership
+    /// <paramref name="epoch"/> becomes current unless the one shown is of a newer epoch, or of the same epoch and not
+    /// older. Ignored while this node leads. True when it became current.
+    /// </summary>
+    public bool ApplyRemote(LiveSnapshot snapshot, long epoch)
+    {
+        ArgumentNullException.ThrowIfNull(snapshot);
+        return leadership is not { IsLeader: true } && Offer(snapshot, epoch, force: false);
+    }
+
+    /// <summary>
+    /// Replaces the snapshot shown by <paramref name="marked"/> (the same values, marked not live) under the same epoch
+    /// and version, so any newer snapshot from a leader replaces it again. Ignored while this node leads.
+    /// </summary>
+    public void MarkNotLive(LiveSnapshot marked, long epoch)
+    {
+        ArgumentNullException.ThrowIfNull(marked);
+        if (leadership is not { IsLeader: true })
+        {
+            Offer(marked, epoch, force: true);
+        }
+    }
+
+    /// <summary>The epoch of the snapshot shown (<see cref="long.MinValue"/> before the first).</summary>
+    public long CurrentEpoch
+    {
+        get
+        {
+            lock (_lock)
+            {
+                return _currentEpoch;
+            }
+        }
+    }
+
+    private bool Offer(LiveSnapshot snapshot, long epoch, bool force)
+    {
         Subscription[] targets;
         lock (_lock)
         {
-            if (_current is not null && snapshot.Version <= _current.Version)
+            if (_current is not null && !force
+                && (epoch < _currentEpoch || (epoch == _currentEpoch && snapshot.Version <= _current.Version)))
             {
-                return;
+                return false;
             }
             _current = snapshot;
+            _currentEpoch = Math.Max(epoch, _currentEpoch);
             targets = [.. _subscriptions];
         }
         foreach (var target in targets)
         {
             _ = target.DeliverAsync(snapshot, logger);
         }
+        return true;
     }
 
     private void Remove(Subscription subscription)

@@ -5,6 +5,7 @@ using Microsoft.AspNetCore.Hosting;
 using Microsoft.AspNetCore.Hosting.Server;
 using Microsoft.AspNetCore.Hosting.Server.Features;
 using Microsoft.AspNetCore.Mvc.Testing;
+using Microsoft.AspNetCore.TestHost;
 using Microsoft.Extensions.Configuration;
 using Microsoft.Extensions.DependencyInjection;
 using OpsLvp.Web.Feeds;
@@ -46,8 +47,11 @@ public sealed class OpsLvpApp : IAsyncDisposable
     /// <summary>A fresh temporary data folder (deleted by the caller when it passes it to <see cref="Start"/>).</summary>
     public static string NewDataFolder() => Path.Combine(Path.GetTempPath(), "opslvp-tests", Guid.NewGuid().ToString("N"));
 
-    /// <summary>Starts the app; with <paramref name="dataFolder"/> it uses (and keeps) that folder, e.g. to restart on the same database.</summary>
-    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null, string? dataFolder = null)
+    /// <summary>
+    /// Starts the app; with <paramref name="dataFolder"/> it uses (and keeps) that folder, e.g. to restart on the same database;
+    /// <paramref name="services"/> changes the app's services after its own registrations (e.g. a test leadership).
+    /// </summary>
+    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null, string? dataFolder = null, Action<IServiceCollection>? services = null)
     {
         var owns = dataFolder is null;
         dataFolder ??= NewDataFolder();
@@ -63,7 +67,7 @@ public sealed class OpsLvpApp : IAsyncDisposable
             all[key] = value;
         }
 
-        var factory = new Factory(all);
+        var factory = new Factory(all, services);
         factory.UseKestrel(options => options.Listen(IPAddress.Loopback, 0));
         try
         {
@@ -154,12 +158,16 @@ public sealed class OpsLvpApp : IAsyncDisposable
         }
     }
 
-    private sealed class Factory(IDictionary<string, string?> settings) : WebApplicationFactory<Program>
+    private sealed class Factory(IDictionary<string, string?> settings, Action<IServiceCollection>? services) : WebApplicationFactory<Program>
     {
         protected override void ConfigureWebHost(IWebHostBuilder builder)
         {
             builder.UseEnvironment("Development");
             builder.ConfigureAppConfiguration(config => config.AddInMemoryCollection(settings));
+            if (services is not null)
+            {
+                builder.ConfigureTestServices(services);
+            }
         }
     }
 }

@@ -1,0 +1,21 @@
+namespace OpsLvp.Core.Presentation;
+
+/// <summary>What screens and people are told about the node they use when OpsLvp runs on several nodes (docs/deployment.md "Fan-out").</summary>
+public static class NodeWords
+{
+    /// <summary>Banner headline on a node that does not lead and has not heard from the leader.</summary>
+    public const string NotLiveHeadline = "NOT LIVE";
+
+    /// <summary>The banner's detail on such a node, with why when known (e.g. the fan-out is not connected).</summary>
+    public static string NotLiveReason(string? why) =>
+        "No state from the engine node since then; values shown are the last received, not live, and actions may not be applied."
+        + (why is null ? "" : " " + why);
+
+    /// <summary>Told to the person when no engine node took a command in time; the command is withdrawn for good.</summary>
+    public static string CommandNotApplied(TimeSpan timeout) =>
+        $"not applied: no engine node answered within {DisplayFormat.Duration(timeout)}; the command was withdrawn and will not be carried out later";
+
+    /// <summary>Told when the engine node took the command but its outcome did not come back.</summary>
+    public const string CommandOutcomeUnknown =
+        "outcome unknown: the engine node took the command but its answer did not arrive; check the audit log before repeating it";
+}

@@ -1,0 +1,263 @@
+using System.Collections.Concurrent;
+using System.Text.Json;
+using Microsoft.Extensions.Options;
+using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
+using OpsLvp.Web.Commands;
+using OpsLvp.Web.Live;
+using StackExchange.Redis;
+
+namespace OpsLvp.Web.Cluster;
+
+/// <summary>
+/// Commands between nodes over Redis (docs/deployment.md "Fan-out and commands between nodes"). A node that does not
+/// lead writes the key <c>&lt;prefix&gt;:command:&lt;id&gt;</c> = <c>pending</c> and publishes the command on
+/// <c>&lt;prefix&gt;:commands</c>. The leader takes it only by turning <c>pending</c> into <c>claimed</c> (one atomic
+/// script), carries it out through <see cref="LvpCommandService"/> (same checks, audit and outcome as its own pages),
+/// stores the outcome in the key and publishes it on <c>&lt;prefix&gt;:outcomes</c>. When no outcome arrives within
+/// <see cref="FanoutOptions.CommandTimeout"/> the sender turns <c>pending</c> into <c>expired</c> with the same kind of
+/// script: whichever of the two comes first wins, so a command the person was told "not applied" can never be
+/// carried out later, by this leader or one that appears afterwards.
+/// </summary>
+public sealed class CommandForwarding(
+    RedisLink redis,
+    LvpCommandService local,
+    ILeadership leadership,
+    IOptions<FanoutOptions> options,
+    ILogger<CommandForwarding> logger) : BackgroundService
+{
+    public const string CommandsChannel = "commands";
+    public const string OutcomesChannel = "outcomes";
+
+    private const string Pending = "pending";
+    private const string Expired = "expired";
+    private const string ClaimedPrefix = "claimed:";
+    private const string DonePrefix = "done:";
+
+    // KEYS[1] = the command's key; ARGV[1] = the new value. Changes it only while it is still pending.
+    private const string FromPendingScript =
+        "if redis.call('GET', KEYS[1]) == 'pending' then redis.call('SET', KEYS[1], ARGV[1], 'KEEPTTL') return 1 else return 0 end";
+
+    // Kept for an hour: long after any command could still be in flight.
+    private static readonly TimeSpan s_keyLifetime = TimeSpan.FromHours(1);
+    private static readonly TimeSpan s_pollInterval = TimeSpan.FromMilliseconds(200);
+
+    private readonly FanoutOptions _options = options.Value;
+    private readonly ConcurrentDictionary<string, TaskCompletionSource<ForwardedOutcome>> _waiting = new(StringComparer.Ordinal);
+
+    protected override async Task ExecuteAsync(CancellationToken stoppingToken)
+    {
+        if (!redis.Enabled)
+        {
+            return;
+        }
+        ChannelMessageQueue? outcomes = null;
+        ChannelMessageQueue? commands = null;
+        try
+        {
+            var connection = await redis.Connection.WaitAsync(stoppingToken);
+            var subscriber = connection.GetSubscriber();
+            outcomes = await subscriber.SubscribeAsync(redis.Channel(OutcomesChannel));
+            outcomes.OnMessage(message => ReceiveOutcome(message.Message));
+            commands = await subscriber.SubscribeAsync(redis.Channel(CommandsChannel));
+            // in order, one at a time, as the leader's own pages' commands are
+            commands.OnMessage(message => CarryOutAsync(connection, message.Message, stoppingToken));
+            await Task.Delay(Timeout.Infinite, stoppingToken);
+        }
+        catch (OperationCanceledException)
+        {
+        }
+        catch (Exception ex) when (ex is RedisException or TimeoutException)
+        {
+            logger.LogError(ex, "Cluster:Redis: the command channels could not be subscribed; commands are not forwarded");
+        }
+        finally
+        {
+            if (commands is not null)
+            {
+                await commands.UnsubscribeAsync();
+            }
+            if (outcomes is not null)
+            {
+                await outcomes.UnsubscribeAsync();
+            }
+        }
+    }
+
+    /// <summary>Whether <c>Cluster:Redis</c> is set (commands can be forwarded).</summary>
+    public bool Enabled => redis.Enabled;
+
+    /// <summary>Sends <paramref name="command"/> to the leader and returns its outcome, or "not applied" after the timeout.</summary>
+    public async Task<CommandOutcome> ForwardAsync(CommandCaller caller, EngineCommand command, CancellationToken cancellationToken)
+    {
+        var id = Guid.NewGuid().ToString("N");
+        var key = redis.Key("command:" + id);
+        var reply = new TaskCompletionSource<ForwardedOutcome>(TaskCreationOptions.RunContinuationsAsynchronously);
+        _waiting[id] = reply;
+        try
+        {
+            if (!redis.Connection.IsCompletedSuccessfully)
+            {
+                return NotReachable(command, caller, "not connected yet");
+            }
+            var connection = await redis.Connection;
+            var db = connection.GetDatabase();
+            var body = JsonSerializer.SerializeToUtf8Bytes(ForwardedCommand.From(id, leadership.NodeId, caller, command), LiveJson.Options);
+            try
+            {
+                if (!await db.StringSetAsync(key, Pending, s_keyLifetime, When.NotExists))
+                {
+                    return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandNotApplied(TimeSpan.Zero));
+                }
+            }
+            catch (RedisConnectionException ex)
+            {
+                return NotReachable(command, caller, ex.Message); // nothing was sent
+            }
+            try
+            {
+                await connection.GetSubscriber().PublishAsync(redis.Channel(CommandsChannel), body);
+            }
+            catch (RedisConnectionException ex)
+            {
+                logger.LogWarning(ex, "Command {Id} could not be sent to the engine node", id);
+            }
+            if (await WaitAsync(reply.Task, _options.CommandTimeout, cancellationToken) is { } outcome)
+            {
+                return outcome.ToOutcome();
+            }
+            return await SettleAsync(db, key, id, command, caller, reply.Task);
+        }
+        finally
+        {
+            _waiting.TryRemove(id, out _);
+        }
+    }
+
+    /// <summary>After the timeout: withdraw the command if the leader has not taken it; else wait once more for its outcome.</summary>
+    private async Task<CommandOutcome> SettleAsync(IDatabase db, RedisKey key, string id, EngineCommand command, CommandCaller caller, Task<ForwardedOutcome> reply)
+    {
+        try
+        {
+            // not cancellable: once the wait is over, the command must be settled one way or the other
+            if ((int)await db.ScriptEvaluateAsync(FromPendingScript, [key], [Expired]) == 1)
+            {
+                logger.LogWarning("Command {Command} by {Actor} ({Id}) withdrawn: no engine node took it within {Timeout}", command.GetType().Name, caller.Name, id, _options.CommandTimeout);
+                return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandNotApplied(_options.CommandTimeout));
+            }
+            var deadline = DateTimeOffset.UtcNow + _options.CommandTimeout;
+            while (true)
+            {
+                if (reply.IsCompletedSuccessfully)
+                {
+                    return reply.Result.ToOutcome();
+                }
+                var value = (string?)await db.StringGetAsync(key);
+                if (value is not null && value.StartsWith(DonePrefix, StringComparison.Ordinal))
+                {
+                    return JsonSerializer.Deserialize<ForwardedOutcome>(value[DonePrefix.Length..], LiveJson.Options)!.ToOutcome();
+                }
+                if (value is null || value == Expired || DateTimeOffset.UtcNow >= deadline)
+                {
+                    break;
+                }
+                await Task.Delay(s_pollInterval, CancellationToken.None);
+            }
+        }
+        catch (Exception ex) when (ex is RedisException or TimeoutException or JsonException)
+        {
+            logger.LogError(ex, "Command {Id}: its outcome could not be read", id);
+        }
+        logger.LogError("Command {Command} by {Actor} ({Id}) was taken by the engine node but no outcome came back", command.GetType().Name, caller.Name, id);
+        return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandOutcomeUnknown);
+    }
+
+    private CommandOutcome NotReachable(EngineCommand command, CommandCaller caller, string detail)
+    {
+        logger.LogError("Command {Command} by {Actor} not sent: Cluster:Redis not reachable ({Detail})", command.GetType().Name, caller.Name, detail);
+        return new CommandOutcome(CommandOutcomeKind.Failed, "not applied: this node cannot reach the engine node (Cluster:Redis not reachable)");
+    }
+
+    private static async Task<ForwardedOutcome?> WaitAsync(Task<ForwardedOutcome> reply, TimeSpan timeout, CancellationToken cancellationToken)
+    {
+        try
+        {
+            return await reply.WaitAsync(timeout, cancellationToken);
+        }
+        catch (TimeoutException)
+        {
+            return null;
+        }
+        catch (OperationCanceledException)
+        {
+            return null; // the person left; the command is still settled so it cannot be applied later unseen
+        }
+    }
+
+    private void ReceiveOutcome(RedisValue value)
+    {
+        try
+        {
+            if (JsonSerializer.Deserialize<ForwardedOutcome>((byte[])value!, LiveJson.Options) is { } outcome
+                && _waiting.TryGetValue(outcome.Id, out var waiting))
+            {
+                waiting.TrySetResult(outcome);
+            }
+        }
+        catch (JsonException ex)
+        {
+            logger.LogWarning(ex, "Ignored an outcome message that is not one");
+        }
+    }
+
+    private async Task CarryOutAsync(IConnectionMultiplexer connection, RedisValue value, CancellationToken stoppingToken)
+    {
+        if (!leadership.IsLeader)
+        {
+            return;
+        }
+        ForwardedCommand? request;
+        try
+        {
+            request = JsonSerializer.Deserialize<ForwardedCommand>((byte[])value!, LiveJson.Options);
+        }
+        catch (JsonException ex)
+        {
+            logger.LogWarning(ex, "Ignored a forwarded command that is not one");
+            return;
+        }
+        if (request is null)
+        {
+            return;
+        }
+        var db = connection.GetDatabase();
+        var key = redis.Key("command:" + request.Id);
+        try
+        {
+            if ((int)await db.ScriptEvaluateAsync(FromPendingScript, [key], [ClaimedPrefix + leadership.NodeId]) != 1)
+            {
+                logger.LogInformation("Forwarded command {Id} from {Node} not carried out: withdrawn or taken already", request.Id, request.FromNode);
+                return;
+            }
+            CommandOutcome outcome;
+            try
+            {
+                outcome = request.ToCommand() is { } command
+                    ? await local.ExecuteAsync(request.ToCaller(), command, stoppingToken)
+                    : new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: unknown command {request.Type}");
+            }
+            catch (JsonException ex)
+            {
+                outcome = new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: the command's fields are not valid ({ex.Message})");
+            }
+            var answer = new ForwardedOutcome(request.Id, leadership.NodeId, outcome.Kind, outcome.Message, outcome.AuditSequence);
+            var json = JsonSerializer.Serialize(answer, LiveJson.Options);
+            await db.ScriptEvaluateAsync("redis.call('SET', KEYS[1], ARGV[1], 'KEEPTTL') return 1", [key], [DonePrefix + json]);
+            await connection.GetSubscriber().PublishAsync(redis.Channel(OutcomesChannel), json);
+        }
+        catch (Exception ex) when (ex is RedisException or TimeoutException)
+        {
+            logger.LogError(ex, "Forwarded command {Id} from {Node}: Cluster:Redis failed while carrying it out", request.Id, request.FromNode);
+        }
+    }
+}

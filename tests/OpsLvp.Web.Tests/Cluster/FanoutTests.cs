@@ -1,0 +1,164 @@
+using System.Text.Json;
+using System.Threading.Channels;
+using Microsoft.AspNetCore.SignalR;
+using Microsoft.AspNetCore.SignalR.Client;
+using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Web.Live;
+using OpsLvp.Web.Tests.Infrastructure;
+using OpsLvp.Web.Tests.Infrastructure.Services;
+using OpsLvp.Web.Tests.Live;
+
+namespace OpsLvp.Web.Tests.Cluster;
+
+/// <summary>
+/// Two real apps on Kestrel on one throwaway redis-server (docs/deployment.md "Fan-out and commands between nodes"):
+/// the SignalR backplane, the leader's snapshots on the standby's <c>/api/state</c> and hub, and NOT LIVE on a standby
+/// that hears nothing. Readings are invented.
+/// </summary>
+public sealed class FanoutTests
+{
+    private static readonly TimeSpan s_wait = TimeSpan.FromSeconds(60);
+
+    [RedisFact]
+    public async Task Backplane_AMessageSentOnA_ReachesAHubClientOfB()
+    {
+        using var redis = await RedisServerProcess.StartAsync();
+        await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        var got = Channel.CreateUnbounded<string>();
+        await using var hub = await ConnectAsync(b.App);
+        hub.On<string>("probe", text => got.Writer.TryWrite(text));
+
+        // sent only through A's hub context: B's client can get it only over Redis
+        var context = a.App.Services.GetRequiredService<IHubContext<LvpHub>>();
+        using var cts = new CancellationTokenSource(s_wait);
+        string? received = null;
+        while (received is null)
+        {
+            await context.Clients.All.SendAsync("probe", "from node-a", cts.Token);
+            using var step = CancellationTokenSource.CreateLinkedTokenSource(cts.Token);
+            step.CancelAfter(TimeSpan.FromSeconds(1)); // the subscription of B's backplane may still be starting
+            try
+            {
+                received = await got.Reader.ReadAsync(step.Token);
+            }
+            catch (OperationCanceledException) when (!cts.IsCancellationRequested)
+            {
+            }
+        }
+        Assert.Equal("from node-a", received);
+    }
+
+    [RedisFact]
+    public async Task ReadingPushedToTheLeader_ShowsOnTheStandbysApiAndHub_AndSilence_ShowsNotLive()
+    {
+        using var redis = await RedisServerProcess.StartAsync();
+        await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true, epoch: 3);
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        var states = Channel.CreateUnbounded<JsonElement>();
+        await using var hub = await ConnectAsync(b.App);
+        hub.On<JsonElement>(LvpHub.StateMethod, s => states.Writer.TryWrite(s));
+
+        // 900 m < preparation.rvrBelow 1000 m, enter dwell 0 s (invented test profile); B's own engine never sees it
+        await LiveClient.PushAsync(a.App, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Tdz, "rvr", 900));
+
+        var onHub = await NextAsync(states, s => LiveClient.Phase(s) == "preparation");
+        Assert.Equal(900, onHub.GetProperty("status").GetProperty("governingRvr").GetProperty("value").GetDouble());
+        var onApi = await LiveClient.WaitForPhaseAsync(b.App, "preparation", s_wait);
+        Assert.True(onApi.GetProperty("recording").GetProperty("recording").GetBoolean());
+        var live = b.App.Services.GetRequiredService<LiveState>();
+        Assert.Equal(3, live.CurrentEpoch);
+        // B's own engine (still running in this test, where leadership is switched by hand) stayed in normal operations
+        Assert.Equal(OpsLvp.Core.Engine.Phase.Normal, live.OwnLatest?.Status.Phase);
+
+        // the leader stops leading: nothing more arrives, and after Cluster:LeaderSilence (2 s here) B says so
+        a.Leadership.Set(false);
+        var marked = await WaitForAsync(b.App, s => !s.GetProperty("recording").GetProperty("recording").GetBoolean());
+        var recording = marked.GetProperty("recording");
+        Assert.Equal(OpsLvp.Core.Presentation.NodeWords.NotLiveHeadline, recording.GetProperty("headline").GetString());
+        Assert.Contains("not live", recording.GetProperty("reason").GetString(), StringComparison.Ordinal);
+        Assert.Equal("preparation", LiveClient.Phase(marked)); // the last state received, marked, not hidden
+        var markedOnHub = await NextAsync(states, s => !s.GetProperty("recording").GetProperty("recording").GetBoolean());
+        Assert.Equal("NOT LIVE", markedOnHub.GetProperty("recording").GetProperty("headline").GetString());
+
+        // a leader again (a new epoch): B shows it live again
+        a.Leadership.Set(true, epoch: 4);
+        await LiveClient.PushAsync(a.App, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Tdz, "rvr", 850));
+        var again = await WaitForAsync(b.App, s => s.GetProperty("recording").GetProperty("recording").GetBoolean()
+            && s.GetProperty("status").GetProperty("governingRvr").GetProperty("value").GetDouble() == 850);
+        Assert.Equal(4, live.CurrentEpoch);
+        Assert.Equal("preparation", LiveClient.Phase(again));
+    }
+
+    [RedisFact]
+    public async Task UnreachableRedis_TheNodeStarts_AndAStandbySaysItIsNotLive()
+    {
+        // a port nothing listens on: the node must run and say it cannot fan out, not refuse to start
+        var port = LocalServices.FreePort();
+        await using var b = ClusterNode.Start("node-b", $"127.0.0.1:{port},connectTimeout=500", leader: false);
+        var health = await b.App.GetHealthAsync();
+        Assert.NotEqual(JsonValueKind.Undefined, health.ValueKind);
+        // B's own engine publishes (kept aside as not live); with no leader heard, the screens say NOT LIVE and why
+        var marked = await WaitForAsync(b.App, s => !s.GetProperty("recording").GetProperty("recording").GetBoolean());
+        Assert.Equal("NOT LIVE", marked.GetProperty("recording").GetProperty("headline").GetString());
+        Assert.Contains("Cluster:Redis", marked.GetProperty("recording").GetProperty("reason").GetString(), StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void MalformedRedisSetting_StopsTheStart_NamingTheSetting()
+    {
+        var error = Assert.ThrowsAny<Exception>(() => ClusterNode.Start("node-x", "127.0.0.1:1,nosuchoption=1", leader: true));
+        Assert.Contains("Cluster:Redis", Flatten(error), StringComparison.Ordinal);
+    }
+
+    private static string Flatten(Exception ex) => ex.InnerException is null ? ex.Message : ex.Message + " | " + Flatten(ex.InnerException);
+
+    private static async Task<HubConnection> ConnectAsync(OpsLvpApp app)
+    {
+        var key = await LiveClient.ReaderKeyAsync(app);
+        var hub = new HubConnectionBuilder()
+            .WithUrl(new Uri(app.BaseAddress, LiveApi.HubPath), o => o.Headers[OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header] = key)
+            .Build();
+        await hub.StartAsync();
+        return hub;
+    }
+
+    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
+    {
+        using var cts = new CancellationTokenSource(s_wait);
+        while (true)
+        {
+            var state = await states.Reader.ReadAsync(cts.Token);
+            if (match(state))
+            {
+                return state;
+            }
+        }
+    }
+
+    /// <summary>Polls GET /api/state (503 until a first state) until <paramref name="match"/> holds.</summary>
+    private static async Task<JsonElement> WaitForAsync(OpsLvpApp app, Func<JsonElement, bool> match)
+    {
+        var deadline = DateTime.UtcNow + s_wait;
+        var key = await LiveClient.ReaderKeyAsync(app);
+        while (true)
+        {
+            using var request = new HttpRequestMessage(HttpMethod.Get, new Uri("/api/state", UriKind.Relative));
+            request.Headers.Add(OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header, key);
+            using var response = await app.Client.SendAsync(request);
+            if (response.IsSuccessStatusCode)
+            {
+                var state = JsonDocument.Parse(await response.Content.ReadAsStringAsync()).RootElement.Clone();
+                if (match(state))
+                {
+                    return state;
+                }
+            }
+            if (DateTime.UtcNow > deadline)
+            {
+                throw new Xunit.Sdk.XunitException($"GET /api/state never matched (last status {(int)response.StatusCode})");
+            }
+            await Task.Delay(100);
+        }
+    }
+}
