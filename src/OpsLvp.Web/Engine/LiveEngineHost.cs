@@ -73,6 +73,9 @@ public sealed class LiveEngineHost(
         _recorder.FailingSince,
         _stopped);
 
+    /// <summary>This node runs the host but another node leads the engine (docs/engine.md R70): it stores and evaluates nothing.</summary>
+    public bool IsStandby => _profile is not null && _stopped is null && !leadership.IsLeader;
+
     /// <summary>Recording or not, and since when (docs/reliability.md "Storage faults").</summary>
     public RecordingView Recording => _recorder.Recording;
 
