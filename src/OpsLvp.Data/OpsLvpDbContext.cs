@@ -23,6 +23,8 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
 
     public DbSet<EngineStateRow> EngineState => Set<EngineStateRow>();
 
+    public DbSet<EngineLeadershipRow> EngineLeadership => Set<EngineLeadershipRow>();
+
     public DbSet<FeedHealthRow> FeedHealth => Set<FeedHealthRow>();
 
     public DbSet<DisplayTokenRow> DisplayTokens => Set<DisplayTokenRow>();
@@ -91,6 +93,15 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(s => s.SavedAt).HasColumnName("saved_at");
         });
 
+        modelBuilder.Entity<EngineLeadershipRow>(e =>
+        {
+            e.ToTable("engine_leadership", t => t.HasCheckConstraint("ck_engine_leadership_single_row", "id = 1"));
+            e.HasKey(l => l.Id);
+            e.Property(l => l.Id).HasColumnName("id").ValueGeneratedNever();
+            e.Property(l => l.Epoch).HasColumnName("epoch");
+            e.Property(l => l.NodeId).HasColumnName("node_id");
+            e.Property(l => l.Since).HasColumnName("since");
+        });
         modelBuilder.Entity<FeedHealthRow>(e =>
         {
             e.ToTable("feed_health");

@@ -8,7 +8,8 @@ namespace OpsLvp.Faults;
 /// <c>dotnet run -c Release --project tests/OpsLvp.Faults -- --kills 200 --bodies 1000000 --disk-full --read-only</c>:
 /// kill -9 cycles under load, generated hostile ingest bodies, disk-full and read-only cycles on a small tmpfs (root
 /// only; skipped with the reason otherwise); <c>--fs-shutdown</c> adds ext4-on-loop shutdown cycles (root and loop devices). Prints tried / held / broke per case, writes the table as markdown
-/// (<c>--out</c>, default <c>fault-run.md</c>) and exits 1 when anything broke. Options: <c>--seed N</c>,
+/// (<c>--out</c>, default <c>fault-run.md</c>); <c>--ha-kills N --pg CONNECTION_STRING</c> kills the leader of two nodes on an empty
+/// PostgreSQL database N times (docs/reliability.md "Failover") and exits 1 when anything broke. Options: <c>--seed N</c>,
 /// <c>--parallel N</c> (hostile senders, default 4), <c>--cycles N</c> (storage cycles each, default 3).
 /// </summary>
 public static class FaultsProgram
@@ -24,9 +25,16 @@ public static class FaultsProgram
         var readOnly = args.Contains("--read-only");
         var shutdown = args.Contains("--fs-shutdown");
         var output = Value(args, "--out") ?? "fault-run.md";
-        if (kills == 0 && bodies == 0 && !diskFull && !readOnly && !shutdown)
+        var haKills = Int(args, "--ha-kills", 0);
+        var pg = Value(args, "--pg");
+        if (kills == 0 && bodies == 0 && !diskFull && !readOnly && !shutdown && haKills == 0)
         {
-            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--fs-shutdown] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
+            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--fs-shutdown] [--ha-kills N --pg CONNECTION_STRING] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
+            return 2;
+        }
+        if (haKills > 0 && string.IsNullOrWhiteSpace(pg))
+        {
+            Console.Error.WriteLine("--ha-kills needs --pg with the connection string of an empty PostgreSQL database the run may fill");
             return 2;
         }
 
@@ -40,6 +48,11 @@ public static class FaultsProgram
             {
                 Log($"kill -9 cycles: {kills}");
                 await KillRun.RunAsync(kills, Path.Combine(root, "kills"), seed, tally, Log);
+            }
+            if (haKills > 0)
+            {
+                Log($"failover: kill -9 of the leader of two nodes, {haKills} times");
+                await HaKillRun.RunAsync(haKills, Path.Combine(root, "failover"), pg!, seed, tally, Log);
             }
             if (bodies > 0)
             {

@@ -348,6 +348,35 @@ namespace OpsLvp.Data.Postgres.Migrations
                     b.ToTable("display_tokens", (string)null);
                 });
 
+            modelBuilder.Entity("OpsLvp.Data.Entities.EngineLeadershipRow", b =>
+                {
+                    b.Property<int>("Id")
+                        .HasColumnType("integer")
+                        .HasColumnName("id");
+
+                    b.Property<long>("Epoch")
+                        .HasColumnType("bigint")
+                        .HasColumnName("epoch");
+
+                    b.Property<string>("NodeId")
+                        .IsRequired()
+                        .HasColumnType("text")
+                        .HasColumnName("node_id");
+
+                    b.Property<string>("Since")
+                        .IsRequired()
+                        .HasColumnType("text")
+                        .HasColumnName("since")
+                        .UseCollation("C");
+
+                    b.HasKey("Id");
+
+                    b.ToTable("engine_leadership", null, t =>
+                        {
+                            t.HasCheckConstraint("ck_engine_leadership_single_row", "id = 1");
+                        });
+                });
+
             modelBuilder.Entity("OpsLvp.Data.Entities.EngineStateRow", b =>
                 {
                     b.Property<int>("Id")

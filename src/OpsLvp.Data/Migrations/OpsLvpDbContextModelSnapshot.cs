@@ -326,6 +326,34 @@ namespace OpsLvp.Data.Migrations
                     b.ToTable("display_tokens", (string)null);
                 });
 
+            modelBuilder.Entity("OpsLvp.Data.Entities.EngineLeadershipRow", b =>
+                {
+                    b.Property<int>("Id")
+                        .HasColumnType("INTEGER")
+                        .HasColumnName("id");
+
+                    b.Property<long>("Epoch")
+                        .HasColumnType("INTEGER")
+                        .HasColumnName("epoch");
+
+                    b.Property<string>("NodeId")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("node_id");
+
+                    b.Property<string>("Since")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("since");
+
+                    b.HasKey("Id");
+
+                    b.ToTable("engine_leadership", null, t =>
+                        {
+                            t.HasCheckConstraint("ck_engine_leadership_single_row", "id = 1");
+                        });
+                });
+
             modelBuilder.Entity("OpsLvp.Data.Entities.EngineStateRow", b =>
                 {
                     b.Property<int>("Id")

@@ -46,7 +46,18 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
     /// </summary>
     /// <exception cref="ArgumentException">An entry has an empty actor or kind or a payload that is not JSON, or the state is not JSON.</exception>
     /// <exception cref="AuditCommitException">The database refused or failed the commit: nothing was written; do not apply the action.</exception>
-    public async Task<IReadOnlyList<AuditEntry>> AppendAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state = null, CancellationToken cancellationToken = default)
+    public Task<IReadOnlyList<AuditEntry>> AppendAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state = null, CancellationToken cancellationToken = default) =>
+        AppendFencedAsync(entries, state, null, cancellationToken);
+
+    /// <summary>
+    /// As <see cref="AppendAsync"/>, fenced by a
+    /// leadership <paramref name="epoch"/> (docs/engine.md R71): on PostgreSQL the append checks, after taking the audit
+    /// lock, that the epoch is the current one in <c>engine_leadership</c> and writes nothing otherwise. Null (and any
+    /// epoch on SQLite, which has one node) appends unfenced.
+    /// </summary>
+    /// <exception cref="StaleEpochException">Another node has taken leadership: nothing was written; stop evaluating.</exception>
+    /// <exception cref="AuditCommitException">The database refused or failed the commit: nothing was written; do not apply the action.</exception>
+    public async Task<IReadOnlyList<AuditEntry>> AppendFencedAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state, long? epoch, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(entries);
         var pending = new PendingAuditEntry[entries.Count];
@@ -68,7 +79,7 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
         try
         {
             return _provider.IsPostgres
-                ? await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.AppendAuditAsync(session, pending, state, sealer, ct), cancellationToken)
+                ? await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.AppendAuditAsync(session, pending, state, sealer, epoch, ct), cancellationToken)
                 : await _writer.RunAsync(session => Append(session, pending, state, sealer), cancellationToken);
         }
         catch (Exception ex) when (ex is DbUpdateException or DbException or InvalidOperationException)

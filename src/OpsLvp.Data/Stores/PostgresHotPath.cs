@@ -17,6 +17,8 @@ internal static class PostgresHotPath
 {
     private const string LockSql = "LOCK TABLE audit_entries IN SHARE ROW EXCLUSIVE MODE";
 
+    private const string EpochSql = "SELECT epoch FROM engine_leadership WHERE id = 1";
+
     private const string HeadSql = "SELECT sequence, hash FROM audit_entries ORDER BY sequence DESC LIMIT 1";
 
     private const string InsertAuditSql =
@@ -31,12 +33,28 @@ internal static class PostgresHotPath
         "INSERT INTO readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) "
         + "VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10)";
 
-    /// <summary>Appends the entries after the current head and stores the state with the new head, in one transaction.</summary>
-    public static async Task<IReadOnlyList<AuditEntry>> AppendAuditAsync(PostgresWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state, IStateSealer? sealer, CancellationToken cancellationToken)
+    /// <summary>
+    /// Appends the entries after the current head and stores the state with the new head, in one transaction. With an
+    /// <paramref name="epoch"/> (the engine's appends on several nodes), after taking the lock it checks that the epoch
+    /// is the current one in <c>engine_leadership</c> and otherwise writes nothing and throws
+    /// <see cref="StaleEpochException"/> (docs/engine.md R71): a takeover increments the epoch under the same lock, so
+    /// an old leader's append either committed before it or is refused.
+    /// </summary>
+    public static async Task<IReadOnlyList<AuditEntry>> AppendAuditAsync(PostgresWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state, IStateSealer? sealer, long? epoch, CancellationToken cancellationToken)
     {
         await using var transaction = await session.Connection.BeginTransactionAsync(cancellationToken);
         var lockCommand = await session.CommandAsync(LockSql, transaction, cancellationToken);
         await lockCommand.ExecuteNonQueryAsync(cancellationToken);
+        if (epoch is { } fence)
+        {
+            var epochCommand = await session.CommandAsync(EpochSql, transaction, cancellationToken);
+            var current = await epochCommand.ExecuteScalarAsync(cancellationToken) is long value ? value : (long?)null;
+            if (current != fence)
+            {
+                await transaction.RollbackAsync(cancellationToken);
+                throw new StaleEpochException(fence, current);
+            }
+        }
         AuditChainHead? head = null;
         var headCommand = await session.CommandAsync(HeadSql, transaction, cancellationToken);
         await using (var reader = await headCommand.ExecuteReaderAsync(cancellationToken))

@@ -10,4 +10,10 @@ public sealed class ClusterOptions
 
     /// <summary>The name used: <see cref="NodeId"/>, else <c>machine-pid</c>.</summary>
     public string ResolvedNodeId => string.IsNullOrWhiteSpace(NodeId) ? $"{Environment.MachineName}-{Environment.ProcessId}" : NodeId.Trim();
+
+    /// <summary>
+    /// On PostgreSQL: how often a standby tries to take leadership, and a leader checks it still holds it
+    /// (docs/deployment.md "PostgreSQL and several nodes"). Between 100 ms and 10 s.
+    /// </summary>
+    public TimeSpan LeaderRetryInterval { get; set; } = TimeSpan.FromSeconds(1);
 }

@@ -36,8 +36,13 @@ public static class EngineServiceCollectionExtensions
         services.AddOptions<ClusterOptions>()
             .Bind(configuration.GetSection(ClusterOptions.SectionName))
             .ValidateShape(configuration, ClusterOptions.SectionName)
+            .Validate(o => o.LeaderRetryInterval >= TimeSpan.FromMilliseconds(100) && o.LeaderRetryInterval <= TimeSpan.FromSeconds(10), "Cluster:LeaderRetryInterval must be between 00:00:00.1 and 00:00:10.")
             .ValidateOnStart();
-        services.TryAddSingleton<ILeadership, SingleNodeLeadership>();
+        // several nodes elect the engine's leader on PostgreSQL; the embedded SQLite file has one node, always leading
+        services.AddSingleton<PostgresLeadership>();
+        services.TryAddSingleton<ILeadership>(sp => OpsLvpDatabase.IsPostgres(configuration[OpsLvpDatabase.ProviderSetting])
+            ? sp.GetRequiredService<PostgresLeadership>()
+            : ActivatorUtilities.CreateInstance<SingleNodeLeadership>(sp));
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
         services.AddSingleton<LiveEngineHost>();

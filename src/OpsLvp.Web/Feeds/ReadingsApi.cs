@@ -90,6 +90,12 @@ public static class ReadingsApi
             context.Response.Headers.RetryAfter = "60";
             return Error(StatusCodes.Status503ServiceUnavailable, $"not stored: the engine is stopped: {stopped}");
         }
+        if (engine.IsStandby)
+        {
+            // a standby stores nothing itself (docs/engine.md R70): not acknowledged, the feed sends them again
+            context.Response.Headers.RetryAfter = "5";
+            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {LiveEngineHost.StandbyText}");
+        }
         // With the engine host off (Engine:Enabled=false) nothing stores readings: the batch is only queued.
         var receipt = engine.Health.Running ? new BatchReceipt() : null;
         if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow()) with { Receipt = receipt }))

@@ -1,0 +1,116 @@
+using System.Net;
+using System.Text;
+using Microsoft.Extensions.DependencyInjection;
+using OpsLvp.Data;
+using OpsLvp.Data.Stores;
+using OpsLvp.Web.Cluster;
+using OpsLvp.Web.Engine;
+using OpsLvp.Web.Feeds;
+using OpsLvp.Web.Tests.Infrastructure;
+using OpsLvp.Web.Tests.Infrastructure.Services;
+using OpsLvp.Web.Tests.Live;
+
+namespace OpsLvp.Web.Tests.Cluster;
+
+/// <summary>
+/// Two real apps (Kestrel on 127.0.0.1) on one database of a throwaway PostgreSQL cluster (docs/engine.md R70–R72):
+/// exactly one evaluates; when the leader's leadership session is ended server-side (<c>pg_terminate_backend</c>, as
+/// a cut network does) it steps down, the other restores the state and continues the chain, and the old leader
+/// appends nothing more. Readings are invented (the live test profile).
+/// </summary>
+public sealed class TwoNodeLeadershipTests
+{
+    [PostgresFact]
+    public async Task LeaderSessionKilled_ItStepsDown_TheOtherTakesOver_AndTheChainContinues()
+    {
+        using var db = ProviderDatabase.Create(OpsLvpDatabase.PostgresProvider);
+        var shared = OpsLvpApp.NewDataFolder();
+        Directory.CreateDirectory(shared);
+        try
+        {
+            var profile = LiveTestProfile.Write(shared);
+            await using var a = OpsLvpApp.Start(Settings(db, profile, shared, "node-a"));
+            await using var b = OpsLvpApp.Start(Settings(db, profile, shared, "node-b"));
+            var leaderA = a.Services.GetRequiredService<ILeadership>();
+            var leaderB = b.Services.GetRequiredService<ILeadership>();
+            var hostA = a.Services.GetRequiredService<LiveEngineHost>();
+            var hostB = b.Services.GetRequiredService<LiveEngineHost>();
+
+            // a started first and took leadership at its start; b is a standby and evaluates nothing
+            Assert.True(leaderA.IsLeader);
+            Assert.False(leaderB.IsLeader);
+            Assert.Equal(1, leaderA.Epoch);
+            Assert.NotNull(hostA.State);
+            Assert.Null(hostB.State);
+            var refusedOnStandby = await PushAsync(b, DateTimeOffset.UtcNow, 700);
+            Assert.Equal(HttpStatusCode.ServiceUnavailable, refusedOnStandby.Status);
+            Assert.Contains(LiveEngineHost.StandbyText, refusedOnStandby.Body, StringComparison.Ordinal);
+
+            // 900 m < preparation.rvrBelow 1000 m, enter dwell 0 s (invented test profile)
+            Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(a, DateTimeOffset.UtcNow, 900)).Status);
+            await LiveClient.WaitForPhaseAsync(a, "preparation", TimeSpan.FromSeconds(60));
+
+            Assert.Equal(1, await PostgresLeadershipTests.KillLeadershipSessionAsync(db, "node-a"));
+
+            await Eventually.TrueAsync(() => !leaderA.IsLeader, "node a to step down", TimeSpan.FromSeconds(60));
+            await Eventually.TrueAsync(() => leaderB.IsLeader && hostB.State is not null, "node b to take over and restore", TimeSpan.FromSeconds(60));
+            Assert.Equal(2, leaderB.Epoch);
+            // restored from the database: the phase a committed
+            Assert.Equal(OpsLvp.Core.Engine.Phase.Preparation, hostB.State!.Phase);
+            await Eventually.TrueAsync(() => hostA.State is null, "node a to stop evaluating", TimeSpan.FromSeconds(60));
+
+            // the old leader takes no reading any more (not acknowledged, not stored); the new one does
+            var late = DateTimeOffset.UtcNow;
+            var refused = await PushAsync(a, late, 650);
+            Assert.Equal(HttpStatusCode.ServiceUnavailable, refused.Status);
+            Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(b, late.AddSeconds(1), 800)).Status);
+
+            using var readings = new ReadingStore(db.NewFactory());
+            var rows = await readings.GetReceivedAsync(late.AddMinutes(-5), late.AddMinutes(5));
+            Assert.DoesNotContain(rows, r => r.Value == 650);
+            Assert.DoesNotContain(rows, r => r.Value == 700);
+            Assert.Contains(rows, r => r.Value == 800 && r.Accepted);
+
+            using var audit = new AuditStore(db.NewFactory());
+            var verification = await audit.VerifyAsync();
+            Assert.True(verification.Ok, verification.Detail);
+            var entries = await audit.GetRangeAsync(1, long.MaxValue);
+            // no sequence twice, none missing
+            Assert.Equal(Enumerable.Range(1, entries.Count).Select(i => (long)i), entries.Select(e => e.Sequence));
+            var taken = entries.Where(e => e.Kind == "leadership_taken").ToList();
+            Assert.Equal(2, taken.Count);
+            Assert.Contains("node-a", taken[0].PayloadJson, StringComparison.Ordinal);
+            Assert.Contains("node-b", taken[1].PayloadJson, StringComparison.Ordinal);
+        }
+        finally
+        {
+            OpsLvpApp.TryDelete(shared);
+        }
+    }
+
+    private static async Task<(HttpStatusCode Status, string Body)> PushAsync(OpsLvpApp app, DateTimeOffset time, double rvr)
+    {
+        using var request = new HttpRequestMessage(HttpMethod.Post, new Uri("/api/readings", UriKind.Relative))
+        {
+            Content = new StringContent("{ \"readings\": [" + LiveClient.Item(time, LiveTestProfile.Tdz, "rvr", rvr) + "] }", Encoding.UTF8, "application/json"),
+        };
+        request.Headers.Add(ReadingsApi.ApiKeyHeader, LiveTestProfile.PushKey);
+        using var response = await app.Client.SendAsync(request);
+        return (response.StatusCode, await response.Content.ReadAsStringAsync());
+    }
+
+    private static Dictionary<string, string?> Settings(ProviderDatabase db, string profile, string shared, string node)
+    {
+        var settings = LiveTestProfile.Settings(profile);
+        foreach (var (key, value) in db.AppSettings)
+        {
+            settings[key] = value;
+        }
+        // one installation, one anchor key (docs/audit.md "Anchors"): both nodes seal and check the state with it
+        settings["Anchors:KeyPath"] = Path.Combine(shared, "anchor-key.pem");
+        settings["Anchors:LogPath"] = Path.Combine(shared, "anchors.jsonl");
+        settings["Cluster:NodeId"] = node;
+        settings["Cluster:LeaderRetryInterval"] = "00:00:00.2";
+        return settings;
+    }
+}
