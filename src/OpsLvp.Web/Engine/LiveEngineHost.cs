@@ -52,6 +52,7 @@ public sealed class LiveEngineHost(
     private readonly EnginePublisher _publisher = new(live, feeds, demo);
     private readonly FeedHealthJournal _feedJournal = new(feedsOptions.Value.HealthAuditInterval);
     private readonly CancellationTokenSource _stopping = new();
+    private CancellationTokenRegistration _stoppingRegistration;
     private volatile EngineEvaluator? _evaluator;
     private long _runEpoch;
     private AerodromeProfile? _profile;
@@ -123,7 +124,7 @@ public sealed class LiveEngineHost(
 
     protected override Task ExecuteAsync(CancellationToken stoppingToken)
     {
-        _ = stoppingToken.Register(_stopping.Cancel);
+        _stoppingRegistration = stoppingToken.Register(_stopping.Cancel);
         var loop = new EvaluationLoop(pipeline, options.Value.TickInterval, realClock, logger)
             .RunAsync((batches, ct) => EvaluateAsync(batches, null, [], ct), stoppingToken);
         return leadership is ILeadershipElection election ? Task.WhenAll(loop, election.RunAsync(stoppingToken)) : loop;
@@ -202,13 +203,19 @@ public sealed class LiveEngineHost(
 
     private async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
     {
-        if (_evaluator is null)
+        if (_evaluator is null && !(leadership.IsLeader && _profile is not null && _stopped is null))
         {
             return NotEvaluated(batches);
         }
         await _gate.WaitAsync(cancellationToken);
         try
         {
+            if (_evaluator is null || _runEpoch != leadership.Epoch)
+            {
+                // leadership was just won and its takeover has not run yet: restore first, so a command or reading that
+                // arrives in that moment is evaluated by the new leader instead of being refused
+                await TakeOverLockedAsync(cancellationToken);
+            }
             return await EvaluateLockedAsync(batches, command, hostEntries, cancellationToken);
         }
         finally
@@ -253,6 +260,8 @@ public sealed class LiveEngineHost(
     public override void Dispose()
     {
         leadership.LeadershipChanged -= OnLeadershipChanged;
+        // a stop after disposal (a test host's second stop) must not reach the disposed source
+        _stoppingRegistration.Dispose();
         _stopping.Dispose();
         _gate.Dispose();
         base.Dispose();

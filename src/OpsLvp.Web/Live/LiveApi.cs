@@ -1,5 +1,6 @@
 using Microsoft.AspNetCore.Http.HttpResults;
 using OpsLvp.Web.Access;
+using OpsLvp.Web.Cluster;
 
 namespace OpsLvp.Web.Live;
 
@@ -23,8 +24,12 @@ public static class LiveApi
         return endpoints;
     }
 
-    private static Results<JsonHttpResult<LiveSnapshot>, ProblemHttpResult> GetState(ILiveState live) =>
+    private static Results<JsonHttpResult<LiveSnapshot>, ProblemHttpResult> GetState(ILiveState live, ILeadership leadership) =>
         live.Current is { } snapshot
             ? TypedResults.Json(snapshot, LiveJson.Options)
-            : TypedResults.Problem("the engine has not published a state yet", statusCode: StatusCodes.Status503ServiceUnavailable);
+            : TypedResults.Problem(
+                leadership.IsLeader
+                    ? "the engine has not published a state yet"
+                    : "this node is a standby and has received no state from the leading node yet (docs/deployment.md \"Fan-out and commands between nodes\")",
+                statusCode: StatusCodes.Status503ServiceUnavailable);
 }

@@ -1,3 +1,4 @@
+using System.Net.Http.Json;
 using System.Text.Json;
 using System.Threading.Channels;
 using Microsoft.AspNetCore.SignalR;
@@ -68,8 +69,8 @@ public sealed class FanoutTests
         Assert.True(onApi.GetProperty("recording").GetProperty("recording").GetBoolean());
         var live = b.App.Services.GetRequiredService<LiveState>();
         Assert.Equal(3, live.CurrentEpoch);
-        // B's own engine (still running in this test, where leadership is switched by hand) stayed in normal operations
-        Assert.Equal(OpsLvp.Core.Engine.Phase.Normal, live.OwnLatest?.Status.Phase);
+        // B is a standby: its own engine never evaluated, so nothing of its own was published (docs/engine.md R70)
+        Assert.Null(live.OwnLatest);
 
         // the leader stops leading: nothing more arrives, and after Cluster:LeaderSilence (2 s here) B says so
         a.Leadership.Set(false);
@@ -98,10 +99,14 @@ public sealed class FanoutTests
         await using var b = ClusterNode.Start("node-b", $"127.0.0.1:{port},connectTimeout=500", leader: false);
         var health = await b.App.GetHealthAsync();
         Assert.NotEqual(JsonValueKind.Undefined, health.ValueKind);
-        // B's own engine publishes (kept aside as not live); with no leader heard, the screens say NOT LIVE and why
-        var marked = await WaitForAsync(b.App, s => !s.GetProperty("recording").GetProperty("recording").GetBoolean());
-        Assert.Equal("NOT LIVE", marked.GetProperty("recording").GetProperty("headline").GetString());
-        Assert.Contains("Cluster:Redis", marked.GetProperty("recording").GetProperty("reason").GetString(), StringComparison.Ordinal);
+        // a standby never evaluates (docs/engine.md R70) and has heard no leader: no state to show, and it says why
+        using var request = new HttpRequestMessage(HttpMethod.Get, new Uri("/api/state", UriKind.Relative));
+        request.Headers.Add(OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header, await LiveClient.ReaderKeyAsync(b.App));
+        using var response = await b.App.Client.SendAsync(request);
+        Assert.Equal(System.Net.HttpStatusCode.ServiceUnavailable, response.StatusCode);
+        var detail = (await response.Content.ReadFromJsonAsync<JsonElement>()).GetProperty("detail").GetString();
+        Assert.Contains("standby", detail, StringComparison.Ordinal);
+        Assert.Contains("no state from the leading node", detail, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -29,14 +29,23 @@ public sealed class TwoNodeLeadershipTests
         try
         {
             var profile = LiveTestProfile.Write(shared);
-            await using var a = OpsLvpApp.Start(Settings(db, profile, shared, "node-a"));
-            await using var b = OpsLvpApp.Start(Settings(db, profile, shared, "node-b"));
+            await using var first = OpsLvpApp.Start(Settings(db, profile, shared, "node-a"));
+            await using var second = OpsLvpApp.Start(Settings(db, profile, shared, "node-b"));
+            // the node started first normally leads from its start; on a loaded machine its first attempt can fail and
+            // the other wins: either way exactly one leads. Below, a is the one that leads and b the standby.
+            await Eventually.TrueAsync(
+                () => first.Services.GetRequiredService<ILeadership>().IsLeader != second.Services.GetRequiredService<ILeadership>().IsLeader,
+                "exactly one node to lead", TimeSpan.FromSeconds(60));
+            var (a, b, nameA, nameB) = first.Services.GetRequiredService<ILeadership>().IsLeader
+                ? (first, second, "node-a", "node-b")
+                : (second, first, "node-b", "node-a");
             var leaderA = a.Services.GetRequiredService<ILeadership>();
             var leaderB = b.Services.GetRequiredService<ILeadership>();
             var hostA = a.Services.GetRequiredService<LiveEngineHost>();
             var hostB = b.Services.GetRequiredService<LiveEngineHost>();
+            await Eventually.TrueAsync(() => hostA.State is not null, "the leader to restore", TimeSpan.FromSeconds(60));
 
-            // a started first and took leadership at its start; b is a standby and evaluates nothing
+            // a leads; b is a standby and evaluates nothing
             Assert.True(leaderA.IsLeader);
             Assert.False(leaderB.IsLeader);
             Assert.Equal(1, leaderA.Epoch);
@@ -50,7 +59,7 @@ public sealed class TwoNodeLeadershipTests
             Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(a, DateTimeOffset.UtcNow, 900)).Status);
             await LiveClient.WaitForPhaseAsync(a, "preparation", TimeSpan.FromSeconds(60));
 
-            Assert.Equal(1, await PostgresLeadershipTests.KillLeadershipSessionAsync(db, "node-a"));
+            Assert.Equal(1, await PostgresLeadershipTests.KillLeadershipSessionAsync(db, nameA));
 
             await Eventually.TrueAsync(() => !leaderA.IsLeader, "node a to step down", TimeSpan.FromSeconds(60));
             await Eventually.TrueAsync(() => leaderB.IsLeader && hostB.State is not null, "node b to take over and restore", TimeSpan.FromSeconds(60));
@@ -79,8 +88,8 @@ public sealed class TwoNodeLeadershipTests
             Assert.Equal(Enumerable.Range(1, entries.Count).Select(i => (long)i), entries.Select(e => e.Sequence));
             var taken = entries.Where(e => e.Kind == "leadership_taken").ToList();
             Assert.Equal(2, taken.Count);
-            Assert.Contains("node-a", taken[0].PayloadJson, StringComparison.Ordinal);
-            Assert.Contains("node-b", taken[1].PayloadJson, StringComparison.Ordinal);
+            Assert.Contains(nameA, taken[0].PayloadJson, StringComparison.Ordinal);
+            Assert.Contains(nameB, taken[1].PayloadJson, StringComparison.Ordinal);
         }
         finally
         {
