@@ -75,6 +75,9 @@ public sealed class LiveEngineHost(
         _stopped);
 
     /// <summary>This node runs the host but another node leads the engine (docs/engine.md R70): it stores and evaluates nothing.</summary>
+    /// <summary>The host runs (<c>Engine:Enabled</c> and the profile loaded), leading or not: readings pushed to it are answered only once stored or refused.</summary>
+    public bool IsEnabled => _profile is not null;
+
     public bool IsStandby => _profile is not null && _stopped is null && !leadership.IsLeader;
 
     /// <summary>Recording or not, and since when (docs/reliability.md "Storage faults").</summary>

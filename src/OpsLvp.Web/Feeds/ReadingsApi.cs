@@ -96,8 +96,10 @@ public static class ReadingsApi
             context.Response.Headers.RetryAfter = "5";
             return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {LiveEngineHost.StandbyText}");
         }
-        // With the engine host off (Engine:Enabled=false) nothing stores readings: the batch is only queued.
-        var receipt = engine.Health.Running ? new BatchReceipt() : null;
+        // With the engine host off (Engine:Enabled=false: no profile loaded) nothing stores readings: the batch is only
+        // queued. Otherwise the answer always waits for the store, also while a node that has just won leadership is still
+        // restoring (docs/engine.md R70): acknowledging then, before the store, lost readings when that node was killed.
+        var receipt = engine.IsEnabled ? new BatchReceipt() : null;
         if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow()) with { Receipt = receipt }))
         {
             loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} refused: reading pipeline full", source);

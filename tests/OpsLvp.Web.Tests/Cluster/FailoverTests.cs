@@ -13,11 +13,10 @@ namespace OpsLvp.Web.Tests.Cluster;
 /// </summary>
 public sealed class FailoverTests(ITestOutputHelper output)
 {
-    // NOT DONE: the first run (16:00 UTC 2026-12-02) held every check (one leader, takeover in 1.2-2.9 s, chain,
-    // no reading twice, restarted node a standby) except "acknowledged readings stored", which reported thousands of
-    // acknowledged readings missing; not yet known whether the check (PostgresStoredFacts.MissingAsync) or the product
-    // is wrong. Skipped until that is found, so the merge stays green; the lead's report names it.
-    [PostgresFact(Skip = "acknowledged-readings check fails on PostgreSQL, cause not yet found (see the comment)")]
+    // This test found a real loss: a node that had just won leadership, not yet restored, answered pushed readings 202
+    // before storing them (ReadingsApi took "no evaluator yet" for "engine switched off"), so thousands were acknowledged
+    // from its queue and would have been lost with it.
+    [PostgresFact]
     public async Task LeaderKilledThreeTimes_TheOtherTakesOverEachTime_NoAcknowledgedReadingLost_ChainVerifies()
     {
         var folder = OpsLvpApp.NewDataFolder();
