@@ -7,6 +7,8 @@ using OpsLvp.Web.Commands;
 using OpsLvp.Web.Live;
 using StackExchange.Redis;
 
+using OpsLvp.Web.Time;
+
 namespace OpsLvp.Web.Cluster;
 
 /// <summary>
@@ -24,6 +26,7 @@ public sealed class CommandForwarding(
     LvpCommandService local,
     ILeadership leadership,
     IOptions<FanoutOptions> options,
+    [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<CommandForwarding> logger) : BackgroundService
 {
     public const string CommandsChannel = "commands";
@@ -122,7 +125,7 @@ public sealed class CommandForwarding(
             {
                 logger.LogWarning(ex, "Command {Id} could not be sent to the engine node", id);
             }
-            if (await WaitAsync(reply.Task, _options.CommandTimeout, cancellationToken) is { } outcome)
+            if (await WaitAsync(reply.Task, _options.CommandTimeout, realClock, cancellationToken) is { } outcome)
             {
                 return outcome.ToOutcome();
             }
@@ -145,7 +148,7 @@ public sealed class CommandForwarding(
                 logger.LogWarning("Command {Command} by {Actor} ({Id}) withdrawn: no engine node took it within {Timeout}", command.GetType().Name, caller.Name, id, _options.CommandTimeout);
                 return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandNotApplied(_options.CommandTimeout));
             }
-            var deadline = DateTimeOffset.UtcNow + _options.CommandTimeout;
+            var deadline = realClock.GetUtcNow() + _options.CommandTimeout;
             while (true)
             {
                 if (reply.IsCompletedSuccessfully)
@@ -157,11 +160,11 @@ public sealed class CommandForwarding(
                 {
                     return JsonSerializer.Deserialize<ForwardedOutcome>(value[DonePrefix.Length..], LiveJson.Options)!.ToOutcome();
                 }
-                if (value is null || value == Expired || DateTimeOffset.UtcNow >= deadline)
+                if (value is null || value == Expired || realClock.GetUtcNow() >= deadline)
                 {
                     break;
                 }
-                await Task.Delay(s_pollInterval, CancellationToken.None);
+                await Task.Delay(s_pollInterval, realClock, CancellationToken.None);
             }
         }
         catch (Exception ex) when (ex is RedisException or TimeoutException or JsonException)
@@ -178,11 +181,11 @@ public sealed class CommandForwarding(
         return new CommandOutcome(CommandOutcomeKind.Failed, "not applied: this node cannot reach the engine node (Cluster:Redis not reachable)");
     }
 
-    private static async Task<ForwardedOutcome?> WaitAsync(Task<ForwardedOutcome> reply, TimeSpan timeout, CancellationToken cancellationToken)
+    private static async Task<ForwardedOutcome?> WaitAsync(Task<ForwardedOutcome> reply, TimeSpan timeout, TimeProvider clock, CancellationToken cancellationToken)
     {
         try
         {
-            return await reply.WaitAsync(timeout, cancellationToken);
+            return await reply.WaitAsync(timeout, clock, cancellationToken);
         }
         catch (TimeoutException)
         {
