@@ -60,7 +60,12 @@ public sealed class LiveEngineHost(
     private string? _stopped;
 
     /// <summary>The profile in use; null before start or when the host is disabled.</summary>
-    public AerodromeProfile? Profile => _evaluator?.Run.Engine.Profile;
+    /// <summary>
+    /// The loaded profile while the host runs and is not stopped, leading or not: a node that has just won leadership
+    /// still restoring, or a standby, screens commands against it and lets the evaluation path decide (restore first, or
+    /// "this node is a standby"), instead of answering "not running" from a race.
+    /// </summary>
+    public AerodromeProfile? Profile => _stopped is null ? _profile : null;
 
     /// <summary>The current (committed) state; null before start.</summary>
     public EngineState? State => _evaluator?.State;
