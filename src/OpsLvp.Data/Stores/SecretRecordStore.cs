@@ -1,5 +1,4 @@
 using System.Collections.Concurrent;
-using System.Diagnostics;
 using System.Linq.Expressions;
 using Microsoft.EntityFrameworkCore;
 using OpsLvp.Data.Entities;
@@ -28,6 +27,9 @@ public abstract class SecretRecordStore<TRow>(IDbContextFactory<OpsLvpDbContext>
 
     /// <summary>How long a found record is trusted without asking the database again (real time); zero: always ask.</summary>
     public TimeSpan RememberFor { get; init; } = DefaultRememberFor;
+
+    /// <summary>The real-time clock <see cref="RememberFor"/> is measured on (a test's fake clock can replace it).</summary>
+    public TimeProvider RealClock { get; init; } = TimeProvider.System;
 
     /// <summary>Opens a context per operation.</summary>
     protected IDbContextFactory<OpsLvpDbContext> Factory { get; } = factory;
@@ -66,8 +68,8 @@ public abstract class SecretRecordStore<TRow>(IDbContextFactory<OpsLvpDbContext>
             return null;
         }
         var hash = SecretHash.Hash(secret);
-        var at = Stopwatch.GetTimestamp();
-        if (_found.TryGetValue(hash, out var known) && Stopwatch.GetElapsedTime(known.At, at) < RememberFor && !UseIsDue(known.Credential.LastUsedAt, now))
+        var at = RealClock.GetTimestamp();
+        if (_found.TryGetValue(hash, out var known) && RealClock.GetElapsedTime(known.At, at) < RememberFor && !UseIsDue(known.Credential.LastUsedAt, now))
         {
             return known.Credential;
         }

@@ -1,3 +1,4 @@
+using Microsoft.Extensions.Time.Testing;
 using OpsLvp.Data.Stores;
 
 namespace OpsLvp.Web.Tests.Persistence;
@@ -28,7 +29,9 @@ public sealed class SecretLookupTests
     public async Task RevokedInTheFileByAnythingElse_IsSeenOnceTheRememberedLookupExpires()
     {
         using var temp = await TempDatabase.CreateMigratedAsync();
-        var store = new ApiKeyStore(temp.Factory) { RememberFor = TimeSpan.FromMilliseconds(200) };
+        // The remembered window runs on a fake real-time clock: a slow machine cannot make the UPDATE below outlast it.
+        var realClock = new FakeTimeProvider();
+        var store = new ApiKeyStore(temp.Factory) { RememberFor = TimeSpan.FromMilliseconds(200), RealClock = realClock };
         var issued = await store.IssueAsync("north sensors (invented)", [ApiKeyStore.IngestScope], "test-admin", _t0);
         Assert.NotNull(await store.FindActiveAsync(issued.Secret, _t0));
 
@@ -36,7 +39,7 @@ public sealed class SecretLookupTests
 
         // Within the window the remembered record answers (this is the documented staleness) ...
         Assert.NotNull(await store.FindActiveAsync(issued.Secret, _t0.AddSeconds(2)));
-        await Task.Delay(TimeSpan.FromMilliseconds(400));
+        realClock.Advance(TimeSpan.FromMilliseconds(400));
         // ... after it the file does.
         Assert.Null(await store.FindActiveAsync(issued.Secret, _t0.AddSeconds(3)));
     }
