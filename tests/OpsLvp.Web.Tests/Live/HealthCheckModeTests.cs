@@ -22,11 +22,20 @@ public sealed class HealthCheckModeTests
     public async Task Probe_ExitsZeroAgainstARunningServer_AndOneWhenNothingListens()
     {
         await using var app = OpsLvpApp.Start();
-        Assert.Equal(0, await RunProbeAsync(app.BaseAddress.ToString().TrimEnd('/')));
-        Assert.Equal(1, await RunProbeAsync("http://127.0.0.1:9")); // discard port: nothing answers HTTP
+        // The probe allows /health 5 s, as the Dockerfile's HEALTHCHECK does; the server's first request (JIT, first
+        // database read) is made here first, so a loaded machine's cold start is not what the probe measures.
+        using (var warm = await app.Client.GetAsync(new Uri("/health", UriKind.Relative)))
+        {
+            Assert.Equal(System.Net.HttpStatusCode.OK, warm.StatusCode);
+        }
+        var (up, upError) = await RunProbeAsync(app.BaseAddress.ToString().TrimEnd('/'));
+        Assert.True(up == 0, $"probe of a running server exited {up}: {upError}");
+        var (down, downError) = await RunProbeAsync("http://127.0.0.1:9"); // discard port: nothing answers HTTP
+        Assert.True(down == 1, $"probe of nothing exited {down}: {downError}");
+        Assert.Contains("unreachable", downError, StringComparison.Ordinal);
     }
 
-    private static async Task<int> RunProbeAsync(string url)
+    private static async Task<(int ExitCode, string Error)> RunProbeAsync(string url)
     {
         var start = new ProcessStartInfo("dotnet") { RedirectStandardError = true, RedirectStandardOutput = true, UseShellExecute = false };
         start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "OpsLvp.Web.dll"));
@@ -34,7 +43,9 @@ public sealed class HealthCheckModeTests
         start.ArgumentList.Add("--urls");
         start.ArgumentList.Add(url);
         using var process = Process.Start(start)!;
-        await process.WaitForExitAsync().WaitAsync(TimeSpan.FromSeconds(30));
-        return process.ExitCode;
+        var error = process.StandardError.ReadToEndAsync();
+        _ = process.StandardOutput.ReadToEndAsync();
+        await process.WaitForExitAsync().WaitAsync(TimeSpan.FromSeconds(60));
+        return (process.ExitCode, await error);
     }
 }
