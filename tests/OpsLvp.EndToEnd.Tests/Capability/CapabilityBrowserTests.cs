@@ -11,36 +11,18 @@ namespace OpsLvp.EndToEnd.Tests.Capability;
 /// <summary>
 /// Runway capability in Chromium against the real app (docs/capability.md): the lighting crew's tablet marks a facility
 /// unserviceable and the wall's capability panel changes. The profile is the invented test profile with an invented,
-/// illustrative capability section (one CAT I operation on 09 needing the ILS and the approach lights).
+/// illustrative capability section (TestProfile.WithCapability: CAT I and CAT II on 09, both needing the ILS and the approach lights).
 /// </summary>
 public sealed class CapabilityBrowserTests(ITestOutputHelper output)
 {
     /// <summary>Finger-sized touch target (WCAG 2.2 target size guidance and common practice for gloved use: 48 px).</summary>
     private const double MinTargetPx = 48;
 
-    /// <summary>Invented and illustrative: 550 m is the usual CAT I RVR band (from memory, docs/sources.md "Approach categories").</summary>
-    private const string CapabilitySection = """
-          "capability": {
-            "observerRvrMaxAgeSeconds": 900,
-            "facilities": [
-              { "id": "ils-09", "name": "ILS 09", "kind": "ils", "ilsCategory": "catI", "directions": ["09"], "team": "apron" },
-              { "id": "als-09", "name": "Approach lights 09", "kind": "approachLighting", "directions": ["09"], "team": "lights" }
-            ],
-            "operations": [
-              { "direction": "09", "kind": "catI", "facilities": ["ils-09", "als-09"], "rvr": [ { "position": "tdz", "minimumM": 550 } ], "needsLvp": false }
-            ]
-          },
-          "checklists": {
-        """;
-
-    private static string ProfileWithCapability() =>
-        Json.Replace("\"checklists\": {", CapabilitySection.Trim(), StringComparison.Ordinal);
-
     [BrowserFact]
     public async Task LightingCrewMarksTheApproachLightsUnserviceable_OnTheTablet_AndTheWallsCapabilityChanges()
     {
         await using var browser = await BrowserSession.LaunchAsync();
-        await using var server = await OpsLvpServer.StartAsync(ProfileWithCapability());
+        await using var server = await OpsLvpServer.StartAsync(WithCapability(Json));
         var wall = await browser.NewWallPageAsync();
         await WallBrowserTests.OpenLiveWallAsync(wall, server);
         var tablet = await browser.NewPageAsync(800, 1280, touch: true);

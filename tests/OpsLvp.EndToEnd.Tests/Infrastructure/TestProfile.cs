@@ -31,6 +31,38 @@ public static class TestProfile
             .Replace("\"recoverDwellSeconds\": 60", $"\"recoverDwellSeconds\": {recoverDwellSeconds}", StringComparison.Ordinal)
             .Replace(CancellationItem, cancellationItem ? CancellationItem : "", StringComparison.Ordinal);
 
+    /// <summary>
+    /// <paramref name="profileJson"/> (the template or a <see cref="Variant"/>) with an invented, illustrative capability
+    /// section for runway direction 09: an ILS (the apron desk's) and approach lights (the lighting crew's); CAT I needs
+    /// both and TDZ 550 m, CAT II needs both, TDZ 300 m and LVP in force. 550 m and 300 m are the usual CAT I and CAT II
+    /// RVR bands (from memory, docs/sources.md "Approach categories"); any aerodrome's own values are local.
+    /// </summary>
+    public static string WithCapability(string profileJson)
+    {
+        ArgumentNullException.ThrowIfNull(profileJson);
+        var result = profileJson.Replace("\"checklists\": {", CapabilitySection.Trim(), StringComparison.Ordinal);
+        if (result == profileJson)
+        {
+            throw new ArgumentException("the profile has no \"checklists\" section to put the capability before", nameof(profileJson));
+        }
+        return result;
+    }
+
+    private const string CapabilitySection = """
+          "capability": {
+            "observerRvrMaxAgeSeconds": 900,
+            "facilities": [
+              { "id": "ils-09", "name": "ILS 09", "kind": "ils", "ilsCategory": "catII", "directions": ["09"], "team": "apron" },
+              { "id": "als-09", "name": "Approach lights 09", "kind": "approachLighting", "directions": ["09"], "team": "lights" }
+            ],
+            "operations": [
+              { "direction": "09", "kind": "catI", "facilities": ["ils-09", "als-09"], "rvr": [ { "position": "tdz", "minimumM": 550 } ], "needsLvp": false },
+              { "direction": "09", "kind": "catII", "facilities": ["ils-09", "als-09"], "rvr": [ { "position": "tdz", "minimumM": 300 } ], "needsLvp": true }
+            ]
+          },
+          "checklists": {
+        """;
+
     private const string CancellationItem = """{ "id": "can-release", "text": "Release the ILS areas (invented)", "team": "apron", "mandatory": true, "dueWithinMinutes": 10 }""";
 
     private const string Template = """

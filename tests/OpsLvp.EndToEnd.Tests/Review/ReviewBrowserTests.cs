@@ -85,6 +85,86 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         browser.AssertNoCspViolationOrUncaughtError();
     }
 
+    [BrowserFact]
+    public async Task FinishedEpisode_ShowsCapabilityBands_AndAWhatIfWithAHigherCatIIMinimum_DiffersFromRecorded()
+    {
+        await using var browser = await BrowserSession.LaunchAsync();
+        // CAT I needs TDZ 550 m and no LVP, CAT II TDZ 300 m and LVP in force (TestProfile.WithCapability, illustrative).
+        await using var server = await OpsLvpServer.StartAsync(WithCapability(Variant(recoverDwellSeconds: 2, cancellationItem: false)));
+        var wall = await browser.NewWallPageAsync();
+        await WallBrowserTests.OpenLiveWallAsync(wall, server);
+        var best09 = wall.Locator("[data-testid=wall-cap-row][data-direction='09'] [data-testid=wall-cap-best]");
+
+        // 1500 m: normal; CAT I available (TDZ above 550 m), CAT II needs LVP in force.
+        await PushAllAsync(server, 1500);
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
+        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
+        // 400 m: LVP in force at once (invented test profile); TDZ 400 m is below CAT I's 550 m and above CAT II's 300 m.
+        for (var i = 0; i < 4; i++)
+        {
+            await PushAllAsync(server, 400);
+            await Task.Delay(1_000);
+        }
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
+        await Expect(best09).ToHaveTextAsync("CAT II", new() { Timeout = 10_000 });
+        await wall.ScreenshotAsync(new() { Path = Artifacts.PathFor("review-capability-wall-in-force.png") });
+        // 800 m: above active.rvrRecoverM 650 m, below preparation.rvrBelowM 1000 m: LVP leave force after the 2 s dwell
+        // and the episode stays in preparation, where CAT I is available again (800 m >= 550 m) and CAT II is not.
+        for (var i = 0; i < 6; i++)
+        {
+            await PushAllAsync(server, 800);
+            await Task.Delay(1_000);
+        }
+        await Expect(wall.Locator(PhaseTitle)).Not.ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
+        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
+        for (var i = 0; i < 30 && await wall.Locator(PhaseTitle).TextContentAsync() != "NORMAL OPERATIONS"; i++)
+        {
+            await PushAllAsync(server, 1500);
+            await Task.Delay(1_000);
+        }
+        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 5_000 });
+        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
+
+        var page = await browser.NewPageAsync(1600, 1100);
+        await BrowserAccess.SignInAsync(page, server, TestAccounts.Viewer, "/review");
+        var row = page.Locator("[data-testid=episode-row]");
+        await Expect(row).ToHaveCountAsync(1, new() { Timeout = 10_000 });
+        await Expect(row).Not.ToContainTextAsync("running");
+        var href = await row.Locator("a").First.GetAttributeAsync("href");
+        Assert.StartsWith("/review/", href, StringComparison.Ordinal);
+        await page.GotoAsync(new Uri(server.BaseAddress, href).ToString());
+
+        // The band under the chart: CAT II while LVP were in force, CAT I before and after (in preparation), in that order.
+        var segments = page.Locator("[data-testid=cap-band][data-direction='09'] [data-testid=cap-band-segment]");
+        await Expect(segments.First).ToBeVisibleAsync(new() { Timeout = 30_000 });
+        var best = await segments.EvaluateAllAsync<string[]>("els => els.map(e => e.dataset.best)");
+        output.WriteLine("09 band: " + string.Join(" | ", best));
+        output.WriteLine("09 band segments: " + string.Join(" | ", await segments.EvaluateAllAsync<string[]>("els => els.map(e => e.getAttribute('aria-label'))")));
+        output.WriteLine("capability table: " + string.Join(" | ", await page.Locator("[data-testid=review-capability-row]").AllInnerTextsAsync()));
+        Assert.Contains("CAT II", best);
+        var catII = Array.IndexOf(best, "CAT II");
+        Assert.Contains("CAT I", best[..catII]);
+        Assert.Contains("CAT I", best[(catII + 1)..]);
+        var catIIText = await segments.Nth(catII).GetAttributeAsync("aria-label");
+        output.WriteLine("CAT II segment: " + catIIText);
+        Assert.Contains("CAT I", catIIText!.Replace("CAT II", "", StringComparison.Ordinal), StringComparison.Ordinal); // CAT I named as not available, with its reason
+
+        // What-if: CAT II on 09 needing TDZ 450 m would not have been available at 400 m: differs from recorded.
+        var options = await page.Locator("[data-testid=whatif-op-select] option").AllTextContentsAsync();
+        var catIIOption = options.ToList().FindIndex(o => o.Trim() == "09 CAT II");
+        Assert.True(catIIOption > 0, "operations offered: " + string.Join(", ", options));
+        await page.Locator("[data-testid=whatif-op-select]").SelectOptionAsync(new SelectOptionValue { Index = catIIOption });
+        await SetNumberAsync(page, "whatif-op-min-tdz", "450");
+        await page.Locator("[data-testid=whatif-run]").ClickAsync();
+        var verdict = page.Locator("[data-testid=whatif-capability-direction][data-direction='09'] [data-testid=whatif-capability-verdict]");
+        await Expect(verdict).ToHaveTextAsync("09: differs from recorded", new() { Timeout = 15_000 });
+
+        var path = Artifacts.PathFor("review-capability.png");
+        await page.ScreenshotAsync(new() { Path = path, FullPage = true });
+        output.WriteLine($"screenshot: {path}");
+        browser.AssertNoCspViolationOrUncaughtError();
+    }
+
     private static Task PushAllAsync(OpsLvpServer server, double rvr) =>
         server.PushAsync(DateTimeOffset.UtcNow, (Tdz, "rvr", rvr), (Mid, "rvr", rvr), (End, "rvr", rvr), (Ceilometer, "cloud_base", 1000));
 

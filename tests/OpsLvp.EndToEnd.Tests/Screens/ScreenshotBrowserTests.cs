@@ -8,8 +8,9 @@ using static OpsLvp.EndToEnd.Tests.Infrastructure.TestProfile;
 namespace OpsLvp.EndToEnd.Tests.Screens;
 
 /// <summary>
-/// The screenshots of docs/screens.md: wall (1920×1080), console (1440×900), tablet (1024×768) in each state of one
-/// invented episode, then its review page. Readings and people are invented; thresholds are the test profile's.
+/// The screenshots of docs/screens.md: wall (1920×1080), console (1440×900), tablet (1024×768) and phone (390×844) in
+/// each state of one invented episode, then its review page. Readings and people are invented; thresholds and the runway
+/// capability section are the test profile's (illustrative).
 /// </summary>
 public sealed class ScreenshotBrowserTests(ITestOutputHelper output)
 {
@@ -19,7 +20,7 @@ public sealed class ScreenshotBrowserTests(ITestOutputHelper output)
         await using var browser = await BrowserSession.LaunchAsync();
         // In force only once safeguarded (docs/engine.md R13): 400 m first shows the held preparation, the two ticks then
         // put LVP in force.
-        await using var server = await OpsLvpServer.StartAsync(Variant(recoverDwellSeconds: 2, inForceNeedsSafeguards: true));
+        await using var server = await OpsLvpServer.StartAsync(WithCapability(Variant(recoverDwellSeconds: 2, inForceNeedsSafeguards: true)));
         var wall = await browser.NewWallPageAsync();
         await WallBrowserTests.OpenLiveWallAsync(wall, server);
         var console = await browser.NewPageAsync(1440, 900);
@@ -28,6 +29,8 @@ public sealed class ScreenshotBrowserTests(ITestOutputHelper output)
         await BrowserAccess.SignInAsync(tablet, server, TestAccounts.Apron, "/actions");
         var lights = await browser.NewPageAsync(1024, 768, touch: true);
         await BrowserAccess.SignInAsync(lights, server, TestAccounts.Lights, "/actions");
+        var phone = await browser.NewPageAsync(390, 844, touch: true);
+        await BrowserAccess.SignInAsync(phone, server, TestAccounts.Lights, "/actions");
 
         await PushAsync(server, 1500);
         await ShootAsync("normal", "NORMAL OPERATIONS");
@@ -65,7 +68,21 @@ public sealed class ScreenshotBrowserTests(ITestOutputHelper output)
             await SaveAsync(wall, $"screen-wall-{state}.png");
             await SaveAsync(console, $"screen-console-{state}.png");
             await SaveAsync(tablet, $"screen-tablet-{state}.png");
+            await SaveAsync(phone, $"screen-phone-{state}.png", fullPage: true);
+            await AssertAlarmsNotCutOffAsync(phone, state);
         }
+    }
+
+    /// <summary>On the phone every alarm's kind, message and time lie inside the screen and none is clipped (an alarm
+    /// whose text is cut off at the edge says less than it seems to).</summary>
+    private static async Task AssertAlarmsNotCutOffAsync(IPage phone, string state)
+    {
+        var cut = await phone.EvaluateAsync<string[]>("""
+            () => [...document.querySelectorAll('[data-testid=alarm] .alarm-kind, [data-testid=alarm] .alarm-message, [data-testid=alarm] .alarm-since')]
+              .filter(e => { const r = e.getBoundingClientRect(); return r.right > window.innerWidth + 0.5 || r.left < -0.5 || e.scrollWidth > e.clientWidth + 1; })
+              .map(e => e.className + ': ' + e.textContent.trim())
+            """);
+        Assert.True(cut.Length == 0, $"phone, {state}: alarm text cut off: {string.Join(" | ", cut)}");
     }
 
     private static Task PushAsync(OpsLvpServer server, double rvr) =>
