@@ -16,4 +16,6 @@ public enum AlarmKind
     ClockRegression,
     /// <summary>The capability of a runway direction in use went down (docs/engine.md R37).</summary>
     CapabilityDowngrade,
+    /// <summary>Raised by the host, not the engine, while pruning old readings (<c>Retention:ReadingsDays</c>) fails (docs/engine.md R78).</summary>
+    RetentionFailing,
 }

@@ -17,6 +17,7 @@ public static class AlarmWords
         AlarmKind.AuditStorageFailing => "Audit storage failing",
         AlarmKind.ClockRegression => "Clock stepped back",
         AlarmKind.CapabilityDowngrade => "Runway capability down",
+        AlarmKind.RetentionFailing => "Readings retention failing",
         _ => kind.ToString(),
     };
 

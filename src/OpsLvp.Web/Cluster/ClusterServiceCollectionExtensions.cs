@@ -41,6 +41,7 @@ public static class ClusterServiceCollectionExtensions
         services.AddHostedService(sp => sp.GetRequiredService<RedisLink>());
         services.AddSingleton<SnapshotFanout>();
         services.AddHostedService(sp => sp.GetRequiredService<SnapshotFanout>());
+        services.AddSingleton<ClusterSeal>();
         services.AddSingleton<CommandForwarding>();
         services.AddHostedService(sp => sp.GetRequiredService<CommandForwarding>());
         services.TryAddSingleton<LvpCommandService>();

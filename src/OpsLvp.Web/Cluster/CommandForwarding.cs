@@ -20,10 +20,15 @@ namespace OpsLvp.Web.Cluster;
 /// <see cref="FanoutOptions.CommandTimeout"/> the sender turns <c>pending</c> into <c>expired</c> with the same kind of
 /// script: whichever of the two comes first wins, so a command the person was told "not applied" can never be
 /// carried out later, by this leader or one that appears afterwards.
+/// <para>Both directions are sealed (<see cref="ClusterSeal"/>, docs/engine.md R76–R77): the leader carries out only a
+/// command a node of this installation sealed, sent within <see cref="FanoutOptions.CommandTimeout"/> plus
+/// <see cref="MaxClockSkew"/> of its own clock, and whose id it has not seen yet; anything else is refused, logged with
+/// its reason and counted (<see cref="Refusals"/>, shown by <c>/health</c>), and the channel keeps running.</para>
 /// </summary>
 public sealed class CommandForwarding(
     RedisLink redis,
     LvpCommandService local,
+    ClusterSeal seal,
     ILeadership leadership,
     IOptions<FanoutOptions> options,
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
@@ -45,8 +50,23 @@ public sealed class CommandForwarding(
     private static readonly TimeSpan s_keyLifetime = TimeSpan.FromHours(1);
     private static readonly TimeSpan s_pollInterval = TimeSpan.FromMilliseconds(200);
 
+    /// <summary>How far apart the nodes' clocks may be: a command's send time may be this far ahead of the leader's clock, or this much older than the timeout allows.</summary>
+    public static readonly TimeSpan MaxClockSkew = TimeSpan.FromSeconds(5);
+
     private readonly FanoutOptions _options = options.Value;
     private readonly ConcurrentDictionary<string, TaskCompletionSource<ForwardedOutcome>> _waiting = new(StringComparer.Ordinal);
+
+    // ids this node has taken or refused while leading, with their send time: a sealed message delivered again is refused
+    // even if someone with access to Redis has set its key back to pending
+    private readonly ConcurrentDictionary<string, DateTimeOffset> _seen = new(StringComparer.Ordinal);
+    private long _refused;
+    private volatile string? _lastRefusal;
+
+    /// <summary>Forwarded commands refused since start as not sealed by this installation, stale, replayed or malformed (docs/engine.md R77).</summary>
+    public long Refusals => Interlocked.Read(ref _refused);
+
+    /// <summary>Why the last one was refused, or null.</summary>
+    public string? LastRefusal => _lastRefusal;
 
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
@@ -105,7 +125,7 @@ public sealed class CommandForwarding(
             }
             var connection = await redis.Connection;
             var db = connection.GetDatabase();
-            var body = JsonSerializer.SerializeToUtf8Bytes(ForwardedCommand.From(id, leadership.NodeId, caller, command), LiveJson.Options);
+            var body = seal.SealCommand(JsonSerializer.Serialize(ForwardedCommand.From(id, leadership.NodeId, caller, command, realClock.GetUtcNow()), LiveJson.Options));
             try
             {
                 if (!await db.StringSetAsync(key, Pending, s_keyLifetime, When.NotExists))
@@ -158,7 +178,12 @@ public sealed class CommandForwarding(
                 var value = (string?)await db.StringGetAsync(key);
                 if (value is not null && value.StartsWith(DonePrefix, StringComparison.Ordinal))
                 {
-                    return JsonSerializer.Deserialize<ForwardedOutcome>(value[DonePrefix.Length..], LiveJson.Options)!.ToOutcome();
+                    if (seal.OpenOutcome(value[DonePrefix.Length..], out var why) is { } json)
+                    {
+                        return JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options)!.ToOutcome();
+                    }
+                    logger.LogError("Command {Id}: the outcome stored for it was refused: {Reason}", id, why);
+                    break;
                 }
                 if (value is null || value == Expired || realClock.GetUtcNow() >= deadline)
                 {
@@ -199,9 +224,18 @@ public sealed class CommandForwarding(
 
     private void ReceiveOutcome(RedisValue value)
     {
+        if (value.IsNullOrEmpty)
+        {
+            return;
+        }
+        if (seal.OpenOutcome((string)value!, out var why) is not { } json)
+        {
+            logger.LogError("Refused an outcome message on Cluster:Redis: {Reason}", why);
+            return;
+        }
         try
         {
-            if (JsonSerializer.Deserialize<ForwardedOutcome>((byte[])value!, LiveJson.Options) is { } outcome
+            if (JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options) is { } outcome
                 && _waiting.TryGetValue(outcome.Id, out var waiting))
             {
                 waiting.TrySetResult(outcome);
@@ -219,17 +253,7 @@ public sealed class CommandForwarding(
         {
             return;
         }
-        ForwardedCommand? request;
-        try
-        {
-            request = JsonSerializer.Deserialize<ForwardedCommand>((byte[])value!, LiveJson.Options);
-        }
-        catch (JsonException ex)
-        {
-            logger.LogWarning(ex, "Ignored a forwarded command that is not one");
-            return;
-        }
-        if (request is null)
+        if (Admit(value) is not { } request)
         {
             return;
         }
@@ -254,7 +278,7 @@ public sealed class CommandForwarding(
                 outcome = new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: the command's fields are not valid ({ex.Message})");
             }
             var answer = new ForwardedOutcome(request.Id, leadership.NodeId, outcome.Kind, outcome.Message, outcome.AuditSequence);
-            var json = JsonSerializer.Serialize(answer, LiveJson.Options);
+            var json = seal.SealOutcome(JsonSerializer.Serialize(answer, LiveJson.Options));
             await db.ScriptEvaluateAsync("redis.call('SET', KEYS[1], ARGV[1], 'KEEPTTL') return 1", [key], [DonePrefix + json]);
             await connection.GetSubscriber().PublishAsync(redis.Channel(OutcomesChannel), json);
         }
@@ -262,5 +286,64 @@ public sealed class CommandForwarding(
         {
             logger.LogError(ex, "Forwarded command {Id} from {Node}: Cluster:Redis failed while carrying it out", request.Id, request.FromNode);
         }
+    }
+
+    /// <summary>
+    /// The command in <paramref name="value"/> if this leader may carry it out: sealed by a node of this installation
+    /// (R76), sent recently by its own clock and not seen before (R77). Otherwise null, with the refusal logged and counted.
+    /// </summary>
+    internal ForwardedCommand? Admit(RedisValue value)
+    {
+        if (value.IsNullOrEmpty)
+        {
+            return Refuse("an empty message");
+        }
+        if (seal.OpenCommand((string)value!, out var why) is not { } json)
+        {
+            return Refuse(why!);
+        }
+        ForwardedCommand? request;
+        try
+        {
+            request = JsonSerializer.Deserialize<ForwardedCommand>(json, LiveJson.Options);
+        }
+        catch (JsonException ex)
+        {
+            return Refuse($"sealed, but not a command ({ex.Message})");
+        }
+        if (request is null || string.IsNullOrEmpty(request.Id) || request.Id.Length > 64 || !request.Id.All(char.IsAsciiLetterOrDigit))
+        {
+            return Refuse("sealed, but without a valid id");
+        }
+        var now = realClock.GetUtcNow();
+        var oldest = now - _options.CommandTimeout - MaxClockSkew;
+        foreach (var (seenId, sentAt) in _seen)
+        {
+            if (sentAt < oldest)
+            {
+                _seen.TryRemove(seenId, out _);
+            }
+        }
+        if (request.SentAt < oldest)
+        {
+            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} was sent at {request.SentAt:O}, {(now - request.SentAt).TotalSeconds:0.#} s ago: too old to be carried out (a delayed or replayed message)");
+        }
+        if (request.SentAt > now + MaxClockSkew)
+        {
+            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} claims to be sent at {request.SentAt:O}, ahead of this node's clock {now:O}");
+        }
+        if (!_seen.TryAdd(request.Id, request.SentAt))
+        {
+            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} was delivered before: a replay");
+        }
+        return request;
+    }
+
+    private ForwardedCommand? Refuse(string reason)
+    {
+        Interlocked.Increment(ref _refused);
+        _lastRefusal = reason;
+        logger.LogError("Refused a forwarded command on Cluster:Redis, not carried out: {Reason}", reason);
+        return null;
     }
 }

@@ -8,20 +8,22 @@ namespace OpsLvp.Web.Cluster;
 
 /// <summary>
 /// A command sent from a node that does not lead to the leader (docs/deployment.md "Fan-out and commands between
-/// nodes"): who asks (name, roles, teams, as the standby's sign-in established them) and the command by its type name.
+/// nodes"): who asks (name, roles, teams, as the standby's sign-in established them), the command by its type name, and
+/// when the sending node sent it (its real clock), so the leader can refuse a captured message replayed later. It
+/// travels protected by <see cref="ClusterSeal"/>: the leader believes none of it unless a node of this installation sealed it.
 /// </summary>
-public sealed record ForwardedCommand(string Id, string FromNode, string Caller, string[] Roles, string[] Teams, bool Authenticated, string Type, JsonElement Command)
+public sealed record ForwardedCommand(string Id, string FromNode, string Caller, string[] Roles, string[] Teams, bool Authenticated, string Type, JsonElement Command, DateTimeOffset SentAt)
 {
     private static readonly FrozenDictionary<string, Type> s_types = typeof(EngineCommand).Assembly.GetTypes()
         .Where(t => t.IsSubclassOf(typeof(EngineCommand)) && !t.IsAbstract)
         .ToFrozenDictionary(t => t.Name, StringComparer.Ordinal);
 
-    public static ForwardedCommand From(string id, string fromNode, CommandCaller caller, EngineCommand command)
+    public static ForwardedCommand From(string id, string fromNode, CommandCaller caller, EngineCommand command, DateTimeOffset sentAt)
     {
         ArgumentNullException.ThrowIfNull(caller);
         ArgumentNullException.ThrowIfNull(command);
         return new(id, fromNode, caller.Name, [.. caller.Roles], [.. caller.Teams], caller.Authenticated, command.GetType().Name,
-            JsonSerializer.SerializeToElement(command, command.GetType(), LiveJson.Options));
+            JsonSerializer.SerializeToElement(command, command.GetType(), LiveJson.Options), sentAt);
     }
 
     /// <summary>The caller as the standby had it.</summary>

@@ -20,6 +20,7 @@ public sealed class SnapshotFanout(
     LiveState live,
     ILeadership leadership,
     IOptions<FanoutOptions> options,
+    [FromKeyedServices(OpsLvp.Web.Time.TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<SnapshotFanout> logger) : BackgroundService
 {
     /// <summary>Channel name under the prefix.</summary>
@@ -30,7 +31,14 @@ public sealed class SnapshotFanout(
         Channel.CreateBounded<(LiveSnapshot, long)>(new BoundedChannelOptions(1) { FullMode = BoundedChannelFullMode.DropOldest, SingleReader = true });
 
     private long _lastHeard = Stopwatch.GetTimestamp();
+    private long _lastReceivedTicks; // real UTC ticks of the last state received from a leader; 0 = none yet
     private bool _markedNotLive;
+
+    /// <summary>Real UTC time the last state from a leader arrived; null before the first (<c>/health</c>).</summary>
+    public DateTimeOffset? LastReceivedAt => Interlocked.Read(ref _lastReceivedTicks) is var t and > 0 ? new DateTimeOffset(t, TimeSpan.Zero) : null;
+
+    /// <summary>Whether a state from a leader arrived within <see cref="FanoutOptions.LeaderSilence"/> (a standby's screens are live).</summary>
+    public bool HearsLeader => redis.Enabled && LastReceivedAt is { } at && realClock.GetUtcNow() - at < _options.LeaderSilence;
 
     private void OnPublishedOwn(LiveSnapshot snapshot, long epoch) => _outbox.Writer.TryWrite((snapshot, epoch));
 
@@ -141,6 +149,7 @@ public sealed class SnapshotFanout(
             return; // our own, sent while we led
         }
         Interlocked.Exchange(ref _lastHeard, Stopwatch.GetTimestamp());
+        Interlocked.Exchange(ref _lastReceivedTicks, realClock.GetUtcNow().UtcTicks);
         _markedNotLive = false;
         live.ApplyRemote(message.Snapshot, message.Epoch);
     }

@@ -19,6 +19,15 @@ public static class AuditEvents
     /// <summary>The one entry a recording gap leaves: its start, end, cause and what was refused meanwhile (docs/reliability.md "Storage faults").</summary>
     public const string RecordingGap = "recording_gap";
 
+    /// <summary>The readings prune started failing: the on-screen alarm was raised (docs/retention.md "When a run fails", docs/engine.md R78).</summary>
+    public const string RetentionAlarmRaised = "retention_alarm_raised";
+
+    /// <summary>A person acknowledged the retention alarm (actor: that person).</summary>
+    public const string RetentionAlarmAcknowledged = "retention_alarm_acknowledged";
+
+    /// <summary>A later prune succeeded: the retention alarm was cleared.</summary>
+    public const string RetentionAlarmCleared = "retention_alarm_cleared";
+
     /// <summary>Rejected readings and forecasts are logged, not audited (a feed may repeat them every poll; docs/engine.md R25).</summary>
     public static bool IsAudited(EngineEvent e) => e is not ReadingRejected and not ForecastRejected;
 

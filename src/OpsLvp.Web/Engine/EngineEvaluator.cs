@@ -22,7 +22,8 @@ internal sealed class EngineEvaluator(
     TimeProvider clock,
     TimeProvider realClock,
     ILogger logger,
-    ILogger night)
+    ILogger night,
+    OpsLvp.Web.Retention.RetentionAlarm? retentionAlarm = null)
 {
     /// <summary>The engine's time may lead the clock by this much (a commit and a read of the clock race) before it counts as the clock stepping back.</summary>
     private static readonly TimeSpan s_clockTolerance = TimeSpan.FromSeconds(2);
@@ -58,6 +59,19 @@ internal sealed class EngineEvaluator(
                 Publish(State, now, realNow, force: true);
                 return new EvaluationOutcome(false, [], [], recorder.NotRecordingText());
             }
+        }
+        Action? afterCommit = null;
+        if (command is AcknowledgeAlarm { AlarmKey: OpsLvp.Web.Retention.RetentionAlarm.Key } ack && retentionAlarm is not null)
+        {
+            // a host alarm (docs/engine.md R78): acknowledged here, on record as a host entry in the person's name
+            if (retentionAlarm.CannotAcknowledge() is { } why)
+            {
+                return new EvaluationOutcome(true, [new CommandRefused(now, ack, why)], [], null);
+            }
+            var raised = retentionAlarm.Current!;
+            hostEntries = [.. hostEntries, new NewAuditEntry(ack.Actor, AuditEvents.RetentionAlarmAcknowledged, System.Text.Json.JsonSerializer.Serialize(new { key = raised.Key, message = raised.Message, raisedAt = raised.RaisedAt }, System.Text.Json.JsonSerializerOptions.Web), now)];
+            command = null;
+            afterCommit = () => retentionAlarm.Acknowledge(ack.Actor, now);
         }
         var old = State;
         if (old.EvaluatedAt > now + s_clockTolerance)
@@ -168,6 +182,7 @@ internal sealed class EngineEvaluator(
         }
         State = next;
         LastEvaluationAt = now;
+        afterCommit?.Invoke();
         Publish(next, now, realNow, force: result.Events.Count > 0 || entries.Count > 0);
         return new EvaluationOutcome(true, result.Events, committed, null);
     }
@@ -182,6 +197,10 @@ internal sealed class EngineEvaluator(
         if (_clockAlarm is { } clockAlarm && now - clockAlarm.RaisedAt < s_clockAlarmShownFor)
         {
             hostAlarms.Add(clockAlarm);
+        }
+        if (retentionAlarm?.Current is { } retention)
+        {
+            hostAlarms.Add(retention);
         }
         publisher.Publish(run, state, now, realNow, force, hostAlarms, recorder.Recording);
     }

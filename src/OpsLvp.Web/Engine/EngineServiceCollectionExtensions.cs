@@ -45,6 +45,7 @@ public static class EngineServiceCollectionExtensions
             : ActivatorUtilities.CreateInstance<SingleNodeLeadership>(sp));
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
+        services.TryAddSingleton<OpsLvp.Web.Retention.RetentionAlarm>();
         services.AddSingleton<LiveEngineHost>();
         services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
         services.AddSingleton<ILvpCommandService, LvpCommandService>();

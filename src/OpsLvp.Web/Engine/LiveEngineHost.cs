@@ -41,7 +41,8 @@ public sealed class LiveEngineHost(
     ILogger<LiveEngineHost> logger,
     ILoggerFactory loggerFactory,
     TamperCheck tamper,
-    ILeadership leadership) : BackgroundService
+    ILeadership leadership,
+    OpsLvp.Web.Retention.RetentionAlarm retentionAlarm) : BackgroundService
 {
     /// <summary>The reason a standby gives for readings and commands it does not evaluate.</summary>
     public const string StandbyText = "this node is a standby: the engine runs on the leader node";
@@ -165,7 +166,7 @@ public sealed class LiveEngineHost(
         _recorder.Begin(restore.Written, restore.ReadingsCoveredTo, epoch);
         _runEpoch = epoch;
         _evaluator = new EngineEvaluator(restore.Run!, restore.State!, _recorder, _publisher, feeds, _feedJournal, clock, realClock,
-            logger, loggerFactory.CreateLogger(NightLog.Category));
+            logger, loggerFactory.CreateLogger(NightLog.Category), retentionAlarm);
         await EvaluateLockedAsync([], null, hostEntries, cancellationToken);
         if (restore.Acknowledged)
         {

@@ -1,33 +1,99 @@
 using Microsoft.AspNetCore.Http.HttpResults;
+using Microsoft.Extensions.Options;
+using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
+using OpsLvp.Web.Live;
 using OpsLvp.Web.Time;
 
 namespace OpsLvp.Web.Feeds;
 
 /// <summary>
-/// <c>GET /health</c>: liveness, per-feed health and the engine host's health (docs/feeds.md, "Health"). Always 200 while
-/// the server runs; <c>status</c> is <c>failing</c> while it is not recording (storage failing, docs/reliability.md "Storage faults").
+/// <c>GET /health</c>: liveness, per-feed health, the engine host's health and which node answers (docs/feeds.md,
+/// "Health"; docs/deployment.md "Which node am I: /health"). Always 200 while the server runs, so
+/// <c>--healthcheck</c> (a container's liveness) restarts only a node that does not answer; <c>status</c> is
+/// <c>failing</c> while it is not recording (storage failing, docs/reliability.md "Storage faults") or, on a standby,
+/// while it hears no leader state (NOT LIVE). <c>GET /health/ready</c> is the same body, answered 503 while
+/// <c>status</c> is <c>failing</c>, for a load balancer that takes a node that cannot show live state out of rotation.
 /// </summary>
 public static class HealthApi
 {
     public static IEndpointRouteBuilder MapHealthApi(this IEndpointRouteBuilder endpoints)
     {
-        endpoints.MapGet("/health", GetHealth);
+        endpoints.MapGet("/health", (HttpContext context) => TypedResults.Ok(Build(context.RequestServices)));
+        endpoints.MapGet("/health/ready", GetReady);
         return endpoints;
     }
 
-    private static Ok<HealthResponse> GetHealth(FeedHealthRegistry registry, DemoMode demo, TimeProvider clock, LiveEngineHost engine)
+    private static Results<Ok<HealthResponse>, JsonHttpResult<HealthResponse>> GetReady(HttpContext context)
     {
+        var health = Build(context.RequestServices);
+        return health.Status == "ok"
+            ? TypedResults.Ok(health)
+            : TypedResults.Json(health, statusCode: StatusCodes.Status503ServiceUnavailable);
+    }
+
+    private static HealthResponse Build(IServiceProvider services)
+    {
+        var registry = services.GetRequiredService<FeedHealthRegistry>();
+        var demo = services.GetRequiredService<DemoMode>();
+        var clock = services.GetRequiredService<TimeProvider>();
+        var engine = services.GetRequiredService<LiveEngineHost>();
         var feeds = registry.Snapshot();
         var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
         var engineHealth = engine.Health;
-        return TypedResults.Ok(new HealthResponse(
-            engineHealth.NotRecordingSince is null && engineHealth.Stopped is null ? "ok" : "failing",
+        var node = Node(services);
+        var reason = engineHealth.Stopped is { } stopped ? $"the engine is stopped: {stopped}"
+            : engineHealth.NotRecordingSince is not null ? $"not recording: {engineHealth.AuditError ?? "storage failing"}"
+            : !node.Live ? NotLiveReason(node, services)
+            : null;
+        return new HealthResponse(
+            reason is null ? "ok" : "failing",
             clock.GetUtcNow(),
             demo.Enabled,
             demo.Enabled ? demo.Speed : null,
             FeedHealthDto.StatusText(worst),
             feeds.Select(FeedHealthDto.From).ToList(),
-            engineHealth));
+            engineHealth,
+            node,
+            reason);
+    }
+
+    private static NodeHealth Node(IServiceProvider services)
+    {
+        var leadership = services.GetRequiredService<ILeadership>();
+        var fanoutOptions = services.GetService<IOptions<FanoutOptions>>()?.Value;
+        var redis = services.GetService<RedisLink>();
+        var fanout = services.GetService<SnapshotFanout>();
+        var forwarding = services.GetService<CommandForwarding>();
+        var configured = fanoutOptions?.Enabled == true && redis is not null;
+        var single = leadership is not ILeadershipElection && !configured;
+        var role = single ? "single" : leadership.IsLeader ? "leader" : "standby";
+        var lastHeard = role == "standby" ? fanout?.LastReceivedAt : null;
+        long? epoch = role switch
+        {
+            "leader" => leadership.Epoch,
+            "standby" when lastHeard is not null => services.GetRequiredService<LiveState>().CurrentEpoch,
+            _ => null,
+        };
+        return new NodeHealth(
+            leadership.NodeId,
+            role,
+            epoch,
+            !configured ? "not configured" : redis!.IsConnected ? "connected" : "unreachable",
+            lastHeard,
+            role != "standby" || (fanout?.HearsLeader ?? false),
+            forwarding?.Refusals ?? 0,
+            forwarding?.LastRefusal);
+    }
+
+    private static string NotLiveReason(NodeHealth node, IServiceProvider services)
+    {
+        var silence = services.GetService<IOptions<FanoutOptions>>()?.Value.LeaderSilence ?? TimeSpan.Zero;
+        var why = node.LastLeaderStateAt is null
+            ? "this standby has received no state from a leader yet"
+            : $"this standby has received no state from the leader for more than {silence.TotalSeconds:0.#} s";
+        return node.Fanout == "unreachable"
+            ? $"NOT LIVE: {why} (Cluster:Redis not reachable)"
+            : $"NOT LIVE: {why}";
     }
 }

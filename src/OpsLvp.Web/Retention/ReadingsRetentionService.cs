@@ -10,7 +10,9 @@ namespace OpsLvp.Web.Retention;
 /// <summary>
 /// Runs <see cref="ReadingsPruner"/> every <see cref="RetentionOptions.Interval"/> (real time) on the node that leads
 /// (docs/retention.md). The cutoff is in the app's clock (demo time in demo mode), like the readings' receipt times.
-/// A failed run deletes nothing and is logged as an error with its reason; the next run tries again.
+/// A failed run deletes nothing (or only what its committed audit entry names) and is logged as an error with its
+/// reason; it also raises the on-screen <see cref="RetentionAlarm"/> (with an audit entry), which the next successful
+/// run clears (docs/engine.md R78). The next run tries again.
 /// </summary>
 public sealed class ReadingsRetentionService(
     ReadingsPruner pruner,
@@ -18,6 +20,7 @@ public sealed class ReadingsRetentionService(
     IOptions<RetentionOptions> options,
     RetentionFolder folder,
     ILeadership leadership,
+    RetentionAlarm alarm,
     TimeProvider time,
     ILogger<ReadingsRetentionService> logger) : BackgroundService
 {
@@ -49,6 +52,7 @@ public sealed class ReadingsRetentionService(
             catch (Exception ex)
             {
                 logger.LogError(ex, "Readings retention run failed; nothing of it was deleted unless its audit entry was committed");
+                await RaiseAsync($"readings not pruned: the run failed: {ex.Message.ReplaceLineEndings(" ")}", stoppingToken);
                 await Task.Delay(o.Interval, stoppingToken).ContinueWith(_ => { }, TaskScheduler.Default);
             }
         }
@@ -68,6 +72,7 @@ public sealed class ReadingsRetentionService(
         {
             LastOutcome = new PruneOutcome(null, null, 0, $"readings not pruned: the stored engine state cannot be read to find an open episode: {ex.Message}");
             logger.LogError("{Failure}", LastOutcome.Failure);
+            await RaiseAsync(LastOutcome.Failure!, cancellationToken);
             return LastOutcome;
         }
         if (RetentionCutoff.Compute(time.GetUtcNow(), o.ReadingsDays, episodeStart) is not { } cutoff)
@@ -79,12 +84,50 @@ public sealed class ReadingsRetentionService(
         if (outcome.Failed)
         {
             logger.LogError("Readings retention: {Failure}", outcome.Failure);
+            await RaiseAsync(outcome.Failure!, cancellationToken);
+            return outcome;
         }
-        else if (outcome.Pruned is { } p)
+        await ClearAsync(cancellationToken);
+        if (outcome.Pruned is { } p)
         {
             logger.LogInformation("Readings retention: pruned {Count} reading(s) with id {First}–{Last} received before {Cutoff} into {Files} export file(s); audit entry {Sequence}",
                 p.Count, p.After + 1, p.To, p.Cutoff, p.Files.Count, outcome.AuditSequence);
         }
         return outcome;
+    }
+
+    private async Task RaiseAsync(string failure, CancellationToken cancellationToken)
+    {
+        var now = time.GetUtcNow();
+        if (!alarm.Raise(failure, now))
+        {
+            return;
+        }
+        logger.LogError("Readings retention alarm raised on screen: {Failure}", failure);
+        await RecordAsync(AuditEvents.RetentionAlarmRaised, new { key = RetentionAlarm.Key, message = alarm.Current?.Message ?? failure }, now, cancellationToken);
+    }
+
+    private async Task ClearAsync(CancellationToken cancellationToken)
+    {
+        if (alarm.Clear() is not { } was)
+        {
+            return;
+        }
+        var now = time.GetUtcNow();
+        logger.LogWarning("Readings retention works again: alarm cleared (it was raised at {RaisedAt}: {Message})", was.RaisedAt, was.Message);
+        await RecordAsync(AuditEvents.RetentionAlarmCleared, new { key = RetentionAlarm.Key, message = was.Message, raisedAt = was.RaisedAt }, now, cancellationToken);
+    }
+
+    /// <summary>The alarm's audit entry, like the prune's own: appended without engine state. A failure to record it is logged; the alarm stays on screen regardless.</summary>
+    private async Task RecordAsync(string kind, object payload, DateTimeOffset now, CancellationToken cancellationToken)
+    {
+        try
+        {
+            await audit.AppendAsync([AuditEvents.HostEntry(kind, now, payload)], null, cancellationToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException)
+        {
+            logger.LogError(ex, "Readings retention: the audit entry {Kind} could not be recorded", kind);
+        }
     }
 }

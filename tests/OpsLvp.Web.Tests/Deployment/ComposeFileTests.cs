@@ -112,6 +112,21 @@ public sealed class ComposeFileTests
     }
 
     [Fact]
+    public void AppNodes_PlayTheDemoOnlyAsTheLeader_AtRealSpeed_WithTheSameDemoSettings()
+    {
+        // docs/deployment.md "The demo in the ha profile": the simulator follows leadership (DemoSimulatorTests); an
+        // accelerated demo clock starts at each node's own start, so a takeover would see another time: speed 1 on all
+        var demo = Nodes.Select(n => ComposeFile.Environment(n.Value).Where(e => e.Key.StartsWith("Demo__", StringComparison.Ordinal))
+            .OrderBy(e => e.Key, StringComparer.Ordinal).ToList()).ToList();
+        Assert.Equal(2, demo.Count);
+        Assert.All(demo, d => Assert.Equal(demo[0], d));
+        var settings = demo[0].ToDictionary(e => e.Key, e => e.Value);
+        Assert.Equal("Auto", settings["Demo__Simulator"]);
+        Assert.Equal(1.0, double.Parse(settings["Demo__Speed"], CultureInfo.InvariantCulture));
+        Assert.False(settings.ContainsKey("Demo__Start"), "a fixed demo start would put the two nodes' clocks apart by their start times");
+    }
+
+    [Fact]
     public void Nginx_MountsTheRepositorysConfig_WhoseUpstreamIsStickyAndListsBothNodes()
     {
         var mount = Assert.Single(Mounts(Nginx.Value), m => m.Target.StartsWith("/etc/nginx/", StringComparison.Ordinal));

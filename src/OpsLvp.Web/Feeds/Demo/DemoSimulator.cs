@@ -10,6 +10,10 @@ namespace OpsLvp.Web.Feeds.Demo;
 /// (clock at start + offset), actions go to the <see cref="DemoActionQueue"/>. At the end it loops after
 /// <c>Demo:LoopGap</c>, time continuing forward. A missing or broken scenario is logged and shown as health
 /// <c>down</c>; it never stops the server.
+/// <para>With several nodes only the node that leads plays (docs/deployment.md "The demo in the ha profile"): every
+/// node keeps the scenario's schedule from its own start, but a node that does not lead submits nothing (no readings,
+/// forecasts or demo actions, which would otherwise be forwarded to the leader a second time) and shows no <c>demo</c>
+/// feed; the node that takes over goes on from its place in the schedule. On one node it always leads.</para>
 /// </summary>
 public sealed class DemoSimulator(
     IOptions<DemoOptions> options,
@@ -19,8 +23,16 @@ public sealed class DemoSimulator(
     DemoActionQueue actions,
     FeedHealthRegistry health,
     TimeProvider clock,
-    ILogger<DemoSimulator> logger) : BackgroundService
+    ILogger<DemoSimulator> logger,
+    OpsLvp.Web.Cluster.ILeadership? leadership = null) : BackgroundService
 {
+    private long _skipped;
+    private bool _registered;
+    private bool? _wasLeading;
+
+    /// <summary>Groups of rows due while this node did not lead, so not submitted.</summary>
+    public long SkippedGroups => Interlocked.Read(ref _skipped);
+
     /// <summary>Health and batch source name of the simulator.</summary>
     public const string SourceName = "demo";
 
@@ -35,7 +47,11 @@ public sealed class DemoSimulator(
         }
 
         await Task.Yield();
-        health.Register(SourceName, "simulator");
+        if (leadership is OpsLvp.Web.Cluster.ILeadershipElection && demoMode.Speed != 1)
+        {
+            logger.LogWarning("Demo:Speed is {Speed} on a node of several: each node's demo clock starts at its own start, so a takeover sees another time; set Demo:Speed to 1 on every node (docs/deployment.md \"The demo in the ha profile\")", demoMode.Speed);
+        }
+        _ = Leading();
         var scenario = Load();
         if (scenario is null)
         {
@@ -43,7 +59,7 @@ public sealed class DemoSimulator(
         }
 
         var origin = clock.GetUtcNow();
-        if (scenario.Rejections.Count > 0)
+        if (scenario.Rejections.Count > 0 && Leading())
         {
             await pipeline.SubmitAsync(new ReadingBatch(SourceName, origin, [], scenario.Rejections), stoppingToken);
         }
@@ -80,11 +96,26 @@ public sealed class DemoSimulator(
             offset = nextForecast < offset ? nextForecast : offset;
             var due = loopStart + offset;
             await WaitUntilAsync(due, stoppingToken);
+            var leading = Leading();
 
             var group = new List<OpsLvp.Core.Readings.Reading>();
             while (r < scenario.Readings.Count && scenario.Readings[r].Offset == offset)
             {
                 group.Add(scenario.Readings[r++].At(due));
+            }
+
+            if (!leading)
+            {
+                Interlocked.Increment(ref _skipped);
+                while (a < scenario.Actions.Count && scenario.Actions[a].Offset == offset)
+                {
+                    a++;
+                }
+                while (f < scenario.Forecasts.Count && scenario.Forecasts[f].Offset == offset)
+                {
+                    f++;
+                }
+                continue;
             }
 
             if (group.Count > 0)
@@ -211,6 +242,28 @@ public sealed class DemoSimulator(
         logger.LogInformation("Demo simulator: {Readings} readings, {Actions} actions over {Duration} of demo time at x{Speed}",
             scenario.Readings.Count, scenario.Actions.Count, scenario.Duration, demoMode.Speed);
         return scenario;
+    }
+
+    /// <summary>Whether this node plays now; logs each change and registers the <c>demo</c> feed the first time it leads.</summary>
+    private bool Leading()
+    {
+        var leading = leadership?.IsLeader ?? true;
+        if (_wasLeading != leading)
+        {
+            if (_wasLeading is not null || !leading)
+            {
+                logger.LogInformation(leading
+                    ? "Demo simulator: this node leads; it plays the demo scenario from here"
+                    : "Demo simulator: this node does not lead; the leader plays the demo scenario");
+            }
+            _wasLeading = leading;
+        }
+        if (leading && !_registered)
+        {
+            health.Register(SourceName, "simulator");
+            _registered = true;
+        }
+        return leading;
     }
 
     private void Fail(string error)

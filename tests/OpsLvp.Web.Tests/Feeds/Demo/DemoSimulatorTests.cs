@@ -43,7 +43,7 @@ public sealed class DemoSimulatorTests : IDisposable
 
     public void Dispose() => Directory.Delete(_folder, recursive: true);
 
-    private DemoSimulator Simulator(TimeProvider clock, FeedHealthRegistry health, bool demo = true, string scenario = "night.csv") => new(
+    private DemoSimulator Simulator(TimeProvider clock, FeedHealthRegistry health, bool demo = true, string scenario = "night.csv", OpsLvp.Web.Cluster.ILeadership? leadership = null) => new(
         Options.Create(new DemoOptions { ScenarioPath = scenario, ActionsPath = "night.actions.csv", LoopGap = TimeSpan.FromMinutes(1) }),
         new DemoMode(demo, 30),
         new ContentPaths(_folder),
@@ -51,7 +51,8 @@ public sealed class DemoSimulatorTests : IDisposable
         _actions,
         health,
         clock,
-        NullLogger<DemoSimulator>.Instance);
+        NullLogger<DemoSimulator>.Instance,
+        leadership);
 
     private async Task<ReadingBatch> NextAsync()
     {
@@ -110,6 +111,37 @@ public sealed class DemoSimulatorTests : IDisposable
         Assert.Equal(2, looped.Readings.Count);
 
         Assert.Equal(FeedStatus.Ok, health.Get("demo")!.Status);
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    [Fact]
+    public async Task WithSeveralNodes_OnlyTheLeaderPlays_AndANodeThatTakesOverGoesOnFromItsPlaceInTheSchedule()
+    {
+        // docs/deployment.md "The demo in the ha profile": a standby submits nothing (readings, rejections, actions) and shows no demo feed
+        var health = new FeedHealthRegistry(_fake);
+        var leadership = new OpsLvp.Web.Tests.Cluster.SwitchableLeadership("node-b", leader: false, epoch: 1);
+        using var simulator = Simulator(_fake, health, leadership: leadership);
+        await simulator.StartAsync(CancellationToken.None);
+        await Infrastructure.Eventually.TrueAsync(() => simulator.SkippedGroups == 1, "the rows at 00:00 skipped");
+        _fake.Advance(TimeSpan.FromMinutes(1));
+        await Infrastructure.Eventually.TrueAsync(() => simulator.SkippedGroups == 2, "the rows and the action at 00:01 skipped");
+        Assert.False(_pipeline.TryRead(out _));
+        Assert.False(_actions.TryRead(out _));
+        Assert.Null(health.Get("demo"));
+
+        // this node takes over: the rows due from now on are played, stamped as the schedule has them
+        leadership.Set(true, epoch: 2);
+        _fake.Advance(TimeSpan.FromMinutes(1));
+        var played = await NextAsync();
+        Assert.Equal(new Reading(s_start.AddMinutes(2), "T1", ReadingKind.Rvr, 600, ReadingStatus.Failed), Assert.Single(played.Readings));
+        Assert.Equal(FeedStatus.Ok, health.Get("demo")!.Status);
+        Assert.Equal(2, simulator.SkippedGroups);
+
+        // and a node that stops leading stops playing
+        leadership.Set(false);
+        _fake.Advance(TimeSpan.FromMinutes(1));
+        await Infrastructure.Eventually.TrueAsync(() => simulator.SkippedGroups == 3, "the next loop's first rows skipped");
+        Assert.False(_pipeline.TryRead(out _));
         await simulator.StopAsync(CancellationToken.None);
     }
 
