@@ -24,36 +24,9 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         var wall = await browser.NewWallPageAsync();
         await WallBrowserTests.OpenLiveWallAsync(wall, server);
 
-        await PushAllAsync(server, 1500);
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
-        // 400 m < active.rvrBelowM 550 m, enter dwell 0 s (invented test profile, inForceNeedsSafeguards false): LVP in force.
-        await PushAllAsync(server, 400);
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
-        // 800 m: above active.rvrRecoverM 650 m, so active ends after its 2 s dwell; a what-if active threshold of
-        // 900 m would have kept it in force for these seconds.
-        for (var i = 0; i < 6; i++)
-        {
-            await PushAllAsync(server, 800);
-            await Task.Delay(1_000);
-        }
-        await Expect(wall.Locator(PhaseTitle)).Not.ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
-        // 1500 m: above every recovery value; back to normal after the dwells.
-        for (var i = 0; i < 30 && await wall.Locator(PhaseTitle).TextContentAsync() != "NORMAL OPERATIONS"; i++)
-        {
-            await PushAllAsync(server, 1500);
-            await Task.Delay(1_000);
-        }
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 5_000 });
+        await RunEpisodeAsync(wall, server, _ => Task.CompletedTask);
 
-        var page = await browser.NewPageAsync(1600, 1100);
-        await BrowserAccess.SignInAsync(page, server, TestAccounts.Viewer, "/review");
-        var row = page.Locator("[data-testid=episode-row]");
-        await Expect(row).ToHaveCountAsync(1, new() { Timeout = 10_000 });
-        await Expect(row).Not.ToContainTextAsync("running");
-        // Open the picked episode's own address (a click during the list's prerender can be lost on a loaded machine).
-        var href = await row.Locator("a").First.GetAttributeAsync("href");
-        Assert.StartsWith("/review/", href, StringComparison.Ordinal);
-        await page.GotoAsync(new Uri(server.BaseAddress, href).ToString());
+        var page = await OpenTheOnlyEpisodeAsync(browser, server);
 
         var chart = page.Locator("[data-testid=timeline-chart]");
         await Expect(chart).ToHaveAttributeAsync("data-rendered", "1", new() { Timeout = 30_000 });
@@ -95,44 +68,18 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         await WallBrowserTests.OpenLiveWallAsync(wall, server);
         var best09 = wall.Locator("[data-testid=wall-cap-row][data-direction='09'] [data-testid=wall-cap-best]");
 
-        // 1500 m: normal; CAT I available (TDZ above 550 m), CAT II needs LVP in force.
-        await PushAllAsync(server, 1500);
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
-        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
-        // 400 m: LVP in force at once (invented test profile); TDZ 400 m is below CAT I's 550 m and above CAT II's 300 m.
-        for (var i = 0; i < 4; i++)
+        // CAT I available while TDZ is at or above 550 m (normal, and preparation at 800 m); CAT II only while LVP are in
+        // force (at 400 m, above its 300 m); nothing else in between.
+        await RunEpisodeAsync(wall, server, async phase =>
         {
-            await PushAllAsync(server, 400);
-            await Task.Delay(1_000);
-        }
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
-        await Expect(best09).ToHaveTextAsync("CAT II", new() { Timeout = 10_000 });
-        await wall.ScreenshotAsync(new() { Path = Artifacts.PathFor("review-capability-wall-in-force.png") });
-        // 800 m: above active.rvrRecoverM 650 m, below preparation.rvrBelowM 1000 m: LVP leave force after the 2 s dwell
-        // and the episode stays in preparation, where CAT I is available again (800 m >= 550 m) and CAT II is not.
-        for (var i = 0; i < 6; i++)
-        {
-            await PushAllAsync(server, 800);
-            await Task.Delay(1_000);
-        }
-        await Expect(wall.Locator(PhaseTitle)).Not.ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
-        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
-        for (var i = 0; i < 30 && await wall.Locator(PhaseTitle).TextContentAsync() != "NORMAL OPERATIONS"; i++)
-        {
-            await PushAllAsync(server, 1500);
-            await Task.Delay(1_000);
-        }
-        await Expect(wall.Locator(PhaseTitle)).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 5_000 });
-        await Expect(best09).ToHaveTextAsync("CAT I", new() { Timeout = 10_000 });
+            await Expect(best09).ToHaveTextAsync(phase == "LVP IN FORCE" ? "CAT II" : "CAT I", new() { Timeout = 10_000 });
+            if (phase == "LVP IN FORCE")
+            {
+                await wall.ScreenshotAsync(new() { Path = Artifacts.PathFor("review-capability-wall-in-force.png") });
+            }
+        });
 
-        var page = await browser.NewPageAsync(1600, 1100);
-        await BrowserAccess.SignInAsync(page, server, TestAccounts.Viewer, "/review");
-        var row = page.Locator("[data-testid=episode-row]");
-        await Expect(row).ToHaveCountAsync(1, new() { Timeout = 10_000 });
-        await Expect(row).Not.ToContainTextAsync("running");
-        var href = await row.Locator("a").First.GetAttributeAsync("href");
-        Assert.StartsWith("/review/", href, StringComparison.Ordinal);
-        await page.GotoAsync(new Uri(server.BaseAddress, href).ToString());
+        var page = await OpenTheOnlyEpisodeAsync(browser, server);
 
         // The band under the chart: CAT II while LVP were in force, CAT I before and after (in preparation), in that order.
         var segments = page.Locator("[data-testid=cap-band][data-direction='09'] [data-testid=cap-band-segment]");
@@ -163,6 +110,57 @@ public sealed class ReviewBrowserTests(ITestOutputHelper output)
         await page.ScreenshotAsync(new() { Path = path, FullPage = true });
         output.WriteLine($"screenshot: {path}");
         browser.AssertNoCspViolationOrUncaughtError();
+    }
+
+    /// <summary>
+    /// One episode through to normal, by pushed readings (invented) against the test profile's illustrative values with
+    /// 2 s recovery dwells: 1500 m (normal); 400 m for 4 s (below active.rvrBelowM 550 m, enter dwell 0 s: LVP in force
+    /// at once, inForceNeedsSafeguards false); 800 m for 6 s (above active.rvrRecoverM 650 m, below preparation's 1000 m:
+    /// LVP leave force after the 2 s dwell, preparation stays; a what-if active threshold of 900 m would have kept them
+    /// in force); 1500 m until normal. <paramref name="reached"/> gets the wall's phase title after each step.
+    /// </summary>
+    private static async Task RunEpisodeAsync(IPage wall, OpsLvpServer server, Func<string, Task> reached)
+    {
+        var title = wall.Locator(PhaseTitle);
+        await PushAllAsync(server, 1500);
+        await Expect(title).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 10_000 });
+        await reached("NORMAL OPERATIONS");
+        await PushForAsync(server, 400, seconds: 4);
+        await Expect(title).ToHaveTextAsync("LVP IN FORCE", new() { Timeout = 10_000 });
+        await reached("LVP IN FORCE");
+        await PushForAsync(server, 800, seconds: 6);
+        await Expect(title).ToHaveTextAsync("LVP PREPARATION", new() { Timeout = 10_000 });
+        await reached("LVP PREPARATION");
+        for (var i = 0; i < 30 && await title.TextContentAsync() != "NORMAL OPERATIONS"; i++)
+        {
+            await PushForAsync(server, 1500, seconds: 1);
+        }
+        await Expect(title).ToHaveTextAsync("NORMAL OPERATIONS", new() { Timeout = 5_000 });
+        await reached("NORMAL OPERATIONS");
+    }
+
+    private static async Task PushForAsync(OpsLvpServer server, double rvr, int seconds)
+    {
+        for (var i = 0; i < seconds; i++)
+        {
+            await PushAllAsync(server, rvr);
+            await Task.Delay(1_000);
+        }
+    }
+
+    /// <summary>Signs a viewer in to the review list, waits for its one finished episode and opens that episode's own
+    /// address (a click during the list's prerender can be lost on a loaded machine).</summary>
+    private static async Task<IPage> OpenTheOnlyEpisodeAsync(BrowserSession browser, OpsLvpServer server)
+    {
+        var page = await browser.NewPageAsync(1600, 1100);
+        await BrowserAccess.SignInAsync(page, server, TestAccounts.Viewer, "/review");
+        var row = page.Locator("[data-testid=episode-row]");
+        await Expect(row).ToHaveCountAsync(1, new() { Timeout = 10_000 });
+        await Expect(row).Not.ToContainTextAsync("running");
+        var href = await row.Locator("a").First.GetAttributeAsync("href");
+        Assert.StartsWith("/review/", href, StringComparison.Ordinal);
+        await page.GotoAsync(new Uri(server.BaseAddress, href).ToString());
+        return page;
     }
 
     private static Task PushAllAsync(OpsLvpServer server, double rvr) =>
