@@ -130,6 +130,13 @@ public sealed class LiveEngineHost(
     public Task<EvaluationOutcome> ExecuteAsync(EngineCommand command, CancellationToken cancellationToken = default) =>
         EvaluateAsync([], command, [], cancellationToken);
 
+    /// <summary>
+    /// Evaluates reading batches taken from the reading inbox (pushed to a standby; docs/engine.md R74) through the
+    /// single evaluation path, as one evaluation: stored in one transaction that also removes their inbox rows, or not at all.
+    /// </summary>
+    public Task<EvaluationOutcome> EvaluateInboxAsync(IReadOnlyList<ReadingBatch> batches, CancellationToken cancellationToken = default) =>
+        EvaluateAsync(batches, null, [], cancellationToken);
+
     protected override Task ExecuteAsync(CancellationToken stoppingToken)
     {
         _stoppingRegistration = stoppingToken.Register(_stopping.Cancel);
