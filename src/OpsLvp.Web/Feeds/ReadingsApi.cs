@@ -17,7 +17,8 @@ namespace OpsLvp.Web.Feeds;
 /// Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md): a key
 /// with the ingest scope issued on /admin/keys, or a bootstrap key from <c>Feeds:Push:ApiKeys</c> (docs/access.md).
 /// 202 means the readings are durably stored (docs/reliability.md "Storage faults"); while the server is not recording the answer is
-/// 503 with the reason and <c>Retry-After</c>, so the feed keeps them and sends them again.
+/// 503 with the reason and <c>Retry-After</c>, so the feed keeps them and sends them again. On a standby node the batch is
+/// screened the same way and handed to the leader through the reading inbox (docs/engine.md R73).
 /// </summary>
 public static class ReadingsApi
 {
