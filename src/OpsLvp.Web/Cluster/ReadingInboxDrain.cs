@@ -29,6 +29,7 @@ public sealed class ReadingInboxDrain(
     FeedHealthRegistry feeds,
     IDbContextFactory<OpsLvpDbContext> dbFactory,
     IOptions<ClusterOptions> options,
+    TimeProvider clock,
     [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<ReadingInboxDrain> logger) : BackgroundService
 {
@@ -137,10 +138,11 @@ public sealed class ReadingInboxDrain(
         var outcome = await engine.EvaluateInboxAsync(batches, cancellationToken);
         if (!outcome.Committed)
         {
-            var now = realClock.GetUtcNow();
-            if (now - rows[0].ReceivedAt > s_waitingWarnAfter && now - _lastWaitingWarning > s_waitingWarnAfter)
+            // the age on the app clock the standby stamped it with; the warning's rate on the real clock
+            var realNow = realClock.GetUtcNow();
+            if (clock.GetUtcNow() - rows[0].ReceivedAt > s_waitingWarnAfter && realNow - _lastWaitingWarning > s_waitingWarnAfter)
             {
-                _lastWaitingWarning = now;
+                _lastWaitingWarning = realNow;
                 logger.LogWarning("Reading inbox: {Batches} batch(es) or more wait, the oldest received {Oldest:o} on {Node}: {Reason}",
                     rows.Count, rows[0].ReceivedAt, rows[0].NodeId, outcome.Error);
             }
