@@ -16,6 +16,7 @@ public static class OpsLvpDataServiceCollectionExtensions
         ArgumentNullException.ThrowIfNull(configuration);
         services.AddDbContextFactory<OpsLvpDbContext>(b => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString));
         services.AddSingleton<ReadingStore>();
+        services.AddSingleton<ReadingInboxStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();
         services.AddSingleton<DisplayTokenStore>();
@@ -33,6 +34,7 @@ public static class OpsLvpDataServiceCollectionExtensions
         ArgumentNullException.ThrowIfNull(defaultConnectionString);
         services.AddDbContextFactory<OpsLvpDbContext>((sp, b) => OpsLvpDatabase.Configure(b, configuration, defaultConnectionString(sp)));
         services.AddSingleton<ReadingStore>();
+        services.AddSingleton<ReadingInboxStore>();
         services.AddSingleton<AuditStore>();
         services.AddSingleton<FeedHealthStore>();
         services.AddSingleton<DisplayTokenStore>();

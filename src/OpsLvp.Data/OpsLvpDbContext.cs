@@ -25,6 +25,8 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
 
     public DbSet<EngineLeadershipRow> EngineLeadership => Set<EngineLeadershipRow>();
 
+    public DbSet<ReadingInboxRow> ReadingInbox => Set<ReadingInboxRow>();
+
     public DbSet<FeedHealthRow> FeedHealth => Set<FeedHealthRow>();
 
     public DbSet<DisplayTokenRow> DisplayTokens => Set<DisplayTokenRow>();
@@ -101,6 +103,18 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(l => l.Epoch).HasColumnName("epoch");
             e.Property(l => l.NodeId).HasColumnName("node_id");
             e.Property(l => l.Since).HasColumnName("since");
+        });
+        modelBuilder.Entity<ReadingInboxRow>(e =>
+        {
+            e.ToTable("reading_inbox");
+            e.HasKey(r => r.Id);
+            e.Property(r => r.Id).HasColumnName("id");
+            e.Property(r => r.ReceivedAt).HasColumnName("received_at");
+            e.Property(r => r.Source).HasColumnName("source");
+            e.Property(r => r.NodeId).HasColumnName("node_id");
+            e.Property(r => r.Body).HasColumnName("body");
+            e.Property(r => r.Accepted).HasColumnName("accepted");
+            e.Property(r => r.Rejected).HasColumnName("rejected");
         });
         modelBuilder.Entity<FeedHealthRow>(e =>
         {

@@ -7,10 +7,10 @@ namespace OpsLvp.FaultCases;
 
 /// <summary>
 /// Failover of two real server processes on one PostgreSQL database (docs/engine.md R70–R72; docs/reliability.md
-/// "Failover"): a stream of pushed readings goes to both nodes (the standby refuses them, unacknowledged), the engine
-/// ticks on the leader; the leader is killed with SIGKILL again and again. Each time the other node must take over
+/// "Failover"): a stream of pushed readings goes to both nodes (the standby hands its readings over to the leader through
+/// the reading inbox, docs/engine.md R73–R75), the engine ticks on the leader; the leader is killed with SIGKILL again and again. Each time the other node must take over
 /// (takeover time: the kill to the first <c>/health</c> of the other node showing its engine running with an
-/// evaluation after the kill), every reading answered 202 must be stored, the chain must verify with no sequence written
+/// evaluation after the kill), the inbox must drain, every reading answered 202 by either node must be stored, the chain must verify with no sequence written
 /// twice, and the killed node restarts and joins as a standby. Rows of <see cref="Group"/> in the tally.
 /// </summary>
 public static class HaKillRun
@@ -60,7 +60,7 @@ public static class HaKillRun
                         }
                         if (status != HttpStatusCode.Accepted)
                         {
-                            // the standby refuses at once: the feed retries later, not in a tight loop
+                            // a node refusing (killed, not recording, just taking over): the feed retries later, not in a tight loop
                             await Task.Delay(100, CancellationToken.None);
                         }
                     }
@@ -85,6 +85,21 @@ public static class HaKillRun
 
                 using (var facts = new PostgresStoredFacts(connectionString))
                 {
+                    // readings acknowledged by the standby are stored by the leader from the inbox: wait for it to drain
+                    var drainDeadline = DateTime.UtcNow + TimeSpan.FromSeconds(60);
+                    long waiting;
+                    while ((waiting = await facts.InboxWaitingAsync()) > 0 && DateTime.UtcNow < drainDeadline)
+                    {
+                        await Task.Delay(100, CancellationToken.None);
+                    }
+                    if (waiting == 0)
+                    {
+                        tally.Held(Group, "inbox drained by the new leader");
+                    }
+                    else
+                    {
+                        tally.Broke(Group, "inbox drained by the new leader", $"kill {kill}: {waiting} batch(es) still in the reading inbox 60 s after the takeover");
+                    }
                     var acknowledged = pushes.Acknowledged;
                     var missing = await facts.MissingAsync(acknowledged, runStart);
                     lost = missing.Count;

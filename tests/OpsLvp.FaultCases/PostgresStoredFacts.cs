@@ -21,4 +21,13 @@ public sealed class PostgresStoredFacts(string connectionString) : DatabaseFacts
         await using var gaps = new NpgsqlCommand("SELECT COUNT(*) = MAX(sequence) AND MIN(sequence) = 1 FROM audit_entries", connection);
         return await gaps.ExecuteScalarAsync() is not true ? "audit sequences are not 1..n without a gap" : null;
     }
+
+    /// <summary>Reading batches still waiting in the reading inbox (pushed to a standby, not yet stored by the leader).</summary>
+    public async Task<long> InboxWaitingAsync()
+    {
+        await using var connection = new NpgsqlConnection(_connectionString);
+        await connection.OpenAsync();
+        await using var count = new NpgsqlCommand("SELECT COUNT(*) FROM reading_inbox", connection);
+        return (long)(await count.ExecuteScalarAsync())!;
+    }
 }

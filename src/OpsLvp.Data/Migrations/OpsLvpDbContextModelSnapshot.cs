@@ -519,6 +519,46 @@ namespace OpsLvp.Data.Migrations
                     b.ToTable("users", (string)null);
                 });
 
+            modelBuilder.Entity("OpsLvp.Data.Entities.ReadingInboxRow", b =>
+                {
+                    b.Property<long>("Id")
+                        .ValueGeneratedOnAdd()
+                        .HasColumnType("INTEGER")
+                        .HasColumnName("id");
+
+                    b.Property<int>("Accepted")
+                        .HasColumnType("INTEGER")
+                        .HasColumnName("accepted");
+
+                    b.Property<string>("Body")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("body");
+
+                    b.Property<string>("NodeId")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("node_id");
+
+                    b.Property<string>("ReceivedAt")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("received_at");
+
+                    b.Property<int>("Rejected")
+                        .HasColumnType("INTEGER")
+                        .HasColumnName("rejected");
+
+                    b.Property<string>("Source")
+                        .IsRequired()
+                        .HasColumnType("TEXT")
+                        .HasColumnName("source");
+
+                    b.HasKey("Id");
+
+                    b.ToTable("reading_inbox", (string)null);
+                });
+
             modelBuilder.Entity("OpsLvp.Data.Entities.ReadingRow", b =>
                 {
                     b.Property<long>("Id")

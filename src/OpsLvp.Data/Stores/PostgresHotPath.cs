@@ -29,6 +29,10 @@ internal static class PostgresHotPath
         + "ON CONFLICT (id) DO UPDATE SET state_json = excluded.state_json, audit_sequence = excluded.audit_sequence, "
         + "audit_hash = excluded.audit_hash, state_signature = excluded.state_signature, profile_version = excluded.profile_version, saved_at = excluded.saved_at";
 
+    private const string EpochShareSql = "SELECT epoch FROM engine_leadership WHERE id = 1 FOR SHARE";
+
+    private const string DeleteInboxSql = "DELETE FROM reading_inbox WHERE id = ANY($1)";
+
     private const string InsertReadingSql =
         "INSERT INTO readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) "
         + "VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10)";
@@ -92,10 +96,36 @@ internal static class PostgresHotPath
         return appended;
     }
 
-    /// <summary>Inserts the rows in one transaction (all or none).</summary>
-    public static async Task<int> InsertReadingsAsync(PostgresWriter.Session session, IReadOnlyList<ReadingRow> rows, CancellationToken cancellationToken)
+    /// <summary>
+    /// Inserts the rows in one transaction (all or none). With a <paramref name="claim"/> the same transaction first
+    /// checks the claim's epoch against <c>engine_leadership</c> with a share lock on its row (a takeover's update of
+    /// the epoch waits for this commit, or this check sees the new epoch) and deletes the claimed inbox rows, writing
+    /// nothing when any of them is gone: an inbox row's readings are stored exactly once (docs/engine.md R74).
+    /// </summary>
+    public static async Task<int> InsertReadingsAsync(PostgresWriter.Session session, IReadOnlyList<ReadingRow> rows, InboxClaim? claim, CancellationToken cancellationToken)
     {
         await using var transaction = await session.Connection.BeginTransactionAsync(cancellationToken);
+        if (claim is not null)
+        {
+            if (claim.Epoch is { } fence)
+            {
+                var epochCommand = await session.CommandAsync(EpochShareSql, transaction, cancellationToken);
+                var current = await epochCommand.ExecuteScalarAsync(cancellationToken) is long value ? value : (long?)null;
+                if (current != fence)
+                {
+                    await transaction.RollbackAsync(cancellationToken);
+                    throw new StaleEpochException(fence, current);
+                }
+            }
+            var delete = await session.CommandAsync(DeleteInboxSql, transaction, cancellationToken, NpgsqlDbType.Array | NpgsqlDbType.Bigint);
+            PostgresWriter.Session.Bind(delete, claim.Ids.ToArray());
+            var deleted = await delete.ExecuteNonQueryAsync(cancellationToken);
+            if (deleted != claim.Ids.Count)
+            {
+                await transaction.RollbackAsync(cancellationToken);
+                throw new InboxClaimLostException(claim.Ids.Count, deleted);
+            }
+        }
         var insert = await session.CommandAsync(InsertReadingSql, transaction, cancellationToken,
             NpgsqlDbType.Text, NpgsqlDbType.Text, NpgsqlDbType.Text, NpgsqlDbType.Text, NpgsqlDbType.Text,
             NpgsqlDbType.Double, NpgsqlDbType.Text, NpgsqlDbType.Boolean, NpgsqlDbType.Text, NpgsqlDbType.Text);

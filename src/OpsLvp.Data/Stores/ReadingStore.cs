@@ -24,18 +24,37 @@ public sealed class ReadingStore(IDbContextFactory<OpsLvpDbContext> factory) : I
 
     /// <summary>Inserts the batch in one transaction (all or none).</summary>
     /// <exception cref="ArgumentException">An accepted reading lacks time, value or status or has a reject reason, or a rejected one has none; or source is empty.</exception>
-    public async Task InsertAsync(IReadOnlyList<ReceivedReading> readings, CancellationToken cancellationToken = default)
+    public Task InsertAsync(IReadOnlyList<ReceivedReading> readings, CancellationToken cancellationToken = default) =>
+        InsertAsync(readings, null, cancellationToken);
+
+    /// <summary>
+    /// Inserts the batch in one transaction (all or none) and, with a <paramref name="claim"/> (PostgreSQL only), deletes
+    /// the claimed <c>reading_inbox</c> rows in the same transaction (docs/engine.md R74).
+    /// </summary>
+    /// <exception cref="ArgumentException">An accepted reading lacks time, value or status or has a reject reason, or a rejected one has none; or source is empty.</exception>
+    /// <exception cref="StaleEpochException">The claim's epoch is no longer the current one: nothing was written.</exception>
+    /// <exception cref="InboxClaimLostException">A claimed row is gone (another node stored it): nothing was written.</exception>
+    /// <exception cref="InvalidOperationException">A claim on SQLite, which has no inbox.</exception>
+    public async Task InsertAsync(IReadOnlyList<ReceivedReading> readings, InboxClaim? claim, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(readings);
         var rows = readings.Select(ToRow).ToList();
-        if (rows.Count == 0)
+        if (claim is { Ids.Count: 0 })
+        {
+            claim = null;
+        }
+        if (rows.Count == 0 && claim is null)
         {
             return;
         }
         if (_provider.IsPostgres)
         {
-            await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.InsertReadingsAsync(session, rows, ct), cancellationToken);
+            await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.InsertReadingsAsync(session, rows, claim, ct), cancellationToken);
             return;
+        }
+        if (claim is not null)
+        {
+            throw new InvalidOperationException("the reading inbox is used with PostgreSQL only (several nodes)");
         }
         await _writer.RunAsync(session =>
         {

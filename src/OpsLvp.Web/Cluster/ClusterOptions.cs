@@ -16,4 +16,10 @@ public sealed class ClusterOptions
     /// (docs/deployment.md "PostgreSQL and several nodes"). Between 100 ms and 10 s.
     /// </summary>
     public TimeSpan LeaderRetryInterval { get; set; } = TimeSpan.FromSeconds(1);
+
+    /// <summary>
+    /// On PostgreSQL: how often the leader looks into the reading inbox even without a notification, so a lost
+    /// <c>NOTIFY</c> only delays readings pushed to a standby (docs/engine.md R74). Between 100 ms and 1 min.
+    /// </summary>
+    public TimeSpan InboxPollInterval { get; set; } = TimeSpan.FromSeconds(2);
 }

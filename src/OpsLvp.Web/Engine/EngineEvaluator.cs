@@ -141,6 +141,18 @@ internal sealed class EngineEvaluator(
             {
                 await recorder.StoreReadingsAsync(perBatch, fresh, rejected, cancellationToken);
             }
+            catch (StaleEpochException)
+            {
+                // not a storage fault: another node leads (docs/engine.md R71); the host steps down
+                throw;
+            }
+            catch (InboxClaimLostException ex)
+            {
+                // another node stored these inbox batches first: not a storage fault, nothing written (docs/engine.md R74)
+                logger.LogWarning("Inbox batches not stored here: {Reason}", ex.Message);
+                recorder.Refuse(batches, ex.Message);
+                return new EvaluationOutcome(false, result.Events, [], ex.Message);
+            }
             catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
             {
                 recorder.StopRecording(now, $"readings not stored: {EngineRecorder.Describe(ex)}", ex);

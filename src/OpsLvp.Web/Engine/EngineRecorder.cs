@@ -58,6 +58,8 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     }
 
     /// <summary>Stores the batches' readings, accepted and rejected (with the reason); throws when they are not stored.</summary>
+    /// <exception cref="StaleEpochException">Inbox batches, and another node has taken leadership: nothing was written.</exception>
+    /// <exception cref="InboxClaimLostException">Inbox batches another node has already stored: nothing was written.</exception>
     public async Task StoreReadingsAsync(List<(ReadingBatch Batch, int From, int To)> batches, List<(Reading Reading, string Source)> fresh, Dictionary<Reading, ReadingRejected> rejected, CancellationToken cancellationToken)
     {
         var rows = new List<ReceivedReading>(fresh.Count);
@@ -75,7 +77,9 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
                     : ReceivedReading.Accept(reading, batch.ReceivedAt, source));
             }
         }
-        await readingStore.InsertAsync(rows, cancellationToken);
+        // batches from the reading inbox leave it in the transaction that stores their readings (docs/engine.md R74)
+        var inbox = batches.Where(b => b.Batch.InboxId is not null).Select(b => b.Batch.InboxId!.Value).ToList();
+        await readingStore.InsertAsync(rows, inbox.Count > 0 ? new InboxClaim(inbox, _epoch) : null, cancellationToken);
     }
 
     /// <summary>

@@ -37,6 +37,7 @@ public static class EngineServiceCollectionExtensions
             .Bind(configuration.GetSection(ClusterOptions.SectionName))
             .ValidateShape(configuration, ClusterOptions.SectionName)
             .Validate(o => o.LeaderRetryInterval >= TimeSpan.FromMilliseconds(100) && o.LeaderRetryInterval <= TimeSpan.FromSeconds(10), "Cluster:LeaderRetryInterval must be between 00:00:00.1 and 00:00:10.")
+            .Validate(o => o.InboxPollInterval >= TimeSpan.FromMilliseconds(100) && o.InboxPollInterval <= TimeSpan.FromMinutes(1), "Cluster:InboxPollInterval must be between 00:00:00.1 and 00:01:00.")
             .ValidateOnStart();
         // several nodes elect the engine's leader on PostgreSQL; the embedded SQLite file has one node, always leading
         services.AddSingleton<PostgresLeadership>();
@@ -48,6 +49,9 @@ public static class EngineServiceCollectionExtensions
         services.TryAddSingleton<OpsLvp.Web.Retention.RetentionAlarm>();
         services.AddSingleton<LiveEngineHost>();
         services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
+        // after the engine host, which has loaded the profile by the time this starts (PostgreSQL only; idle on SQLite)
+        services.AddSingleton<ReadingInboxDrain>();
+        services.AddHostedService(sp => sp.GetRequiredService<ReadingInboxDrain>());
         services.AddSingleton<ILvpCommandService, LvpCommandService>();
         services.AddSingleton<ICommandPreview, EngineCommandPreview>();
         services.AddHostedService<DemoActionRunner>();

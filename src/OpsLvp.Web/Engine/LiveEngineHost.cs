@@ -22,8 +22,8 @@ namespace OpsLvp.Web.Engine;
 /// <para>Leadership (<see cref="ILeadership"/>; docs/engine.md R70–R72): only the leader evaluates. On one node it
 /// always leads. With several nodes on PostgreSQL a node that takes leadership restores the state from the database
 /// and starts evaluating with the new epoch, whose appends are fenced; a node that loses it (or whose append is
-/// refused as stale) stops evaluating at once and is a standby: reading batches on it are refused, not
-/// acknowledged, and its ticks evaluate nothing.</para>
+/// refused as stale) stops evaluating at once and is a standby: batches reaching its evaluation path are refused, not
+/// acknowledged (pushes to it go to the reading inbox instead, R73), and its ticks evaluate nothing.</para>
 /// </summary>
 public sealed class LiveEngineHost(
     IOptions<EngineOptions> options,
@@ -130,6 +130,13 @@ public sealed class LiveEngineHost(
     /// <summary>Evaluates one command through the single evaluation path (used by the command service).</summary>
     public Task<EvaluationOutcome> ExecuteAsync(EngineCommand command, CancellationToken cancellationToken = default) =>
         EvaluateAsync([], command, [], cancellationToken);
+
+    /// <summary>
+    /// Evaluates reading batches taken from the reading inbox (pushed to a standby; docs/engine.md R74) through the
+    /// single evaluation path, as one evaluation: stored in one transaction that also removes their inbox rows, or not at all.
+    /// </summary>
+    public Task<EvaluationOutcome> EvaluateInboxAsync(IReadOnlyList<ReadingBatch> batches, CancellationToken cancellationToken = default) =>
+        EvaluateAsync(batches, null, [], cancellationToken);
 
     protected override Task ExecuteAsync(CancellationToken stoppingToken)
     {

@@ -12,4 +12,7 @@ public sealed record ReadingBatch(string Source, DateTimeOffset ReceivedAt, IRea
 {
     /// <summary>Forecasts that came with the batch (a TAF, the TREND of a METAR/SPECI; docs/engine.md R25), applied after its readings.</summary>
     public IReadOnlyList<OpsLvp.Core.Engine.ForecastInput> Forecasts { get; init; } = [];
+
+    /// <summary>The <c>reading_inbox</c> row the batch came from (pushed to a standby; docs/engine.md R74), deleted when its readings are stored; null otherwise.</summary>
+    public long? InboxId { get; init; }
 }

@@ -1,10 +1,13 @@
+using System.Text;
 using Microsoft.AspNetCore.Http.Features;
 using Microsoft.AspNetCore.Http.HttpResults;
 using Microsoft.AspNetCore.Authentication;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Engine;
 using OpsLvp.Core.Profile;
+using OpsLvp.Data.Entities;
 using OpsLvp.Data.Stores;
+using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Access;
 
@@ -14,7 +17,8 @@ namespace OpsLvp.Web.Feeds;
 /// Push ingest: <c>POST /api/readings</c> with the readings JSON and an <c>X-Api-Key</c> header (docs/feeds.md): a key
 /// with the ingest scope issued on /admin/keys, or a bootstrap key from <c>Feeds:Push:ApiKeys</c> (docs/access.md).
 /// 202 means the readings are durably stored (docs/reliability.md "Storage faults"); while the server is not recording the answer is
-/// 503 with the reason and <c>Retry-After</c>, so the feed keeps them and sends them again.
+/// 503 with the reason and <c>Retry-After</c>, so the feed keeps them and sends them again. On a standby node the batch is
+/// screened the same way and handed to the leader through the reading inbox (docs/engine.md R73).
 /// </summary>
 public static class ReadingsApi
 {
@@ -39,6 +43,8 @@ public static class ReadingsApi
         FeedHealthRegistry health,
         ApiKeyStore keys,
         LiveEngineHost engine,
+        ReadingInboxStore inbox,
+        ILeadership leadership,
         TimeProvider clock,
         ILoggerFactory loggers)
     {
@@ -92,9 +98,7 @@ public static class ReadingsApi
         }
         if (engine.IsStandby)
         {
-            // a standby stores nothing itself (docs/engine.md R70): not acknowledged, the feed sends them again
-            context.Response.Headers.RetryAfter = "5";
-            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {LiveEngineHost.StandbyText}");
+            return await HandOverAsync(context, body, parsed, source, inbox, leadership, engine, health, clock, loggers);
         }
         // With the engine host off (Engine:Enabled=false: no profile loaded) nothing stores readings: the batch is only
         // queued. Otherwise the answer always waits for the store, also while a node that has just won leadership is still
@@ -118,13 +122,64 @@ public static class ReadingsApi
         }
 
         var items = Screen(parsed, engine.Profile, clock.GetUtcNow());
+        var answer = Answer(source, items);
+        health.RecordSuccess(source, answer.Accepted, answer.Rejected.Count);
+        return TypedResults.Accepted((string?)null, answer);
+    }
+
+    /// <summary>
+    /// A standby (docs/engine.md R73): screens the batch exactly as the leader does, with the loaded profile, and stores
+    /// the body as received in the reading inbox, durably and before the 202, with a <c>NOTIFY</c> that wakes the
+    /// leader, which evaluates and records it as if pushed to it (R74). With no inbox (SQLite has one node, so this is
+    /// only a test setting) or the database unreachable: 503 with the reason, nothing acknowledged.
+    /// </summary>
+    private static async Task<Results<Accepted<PushResponse>, JsonHttpResult<ApiError>>> HandOverAsync(
+        HttpContext context, byte[] body, ReadingParseResult parsed, string source, ReadingInboxStore inbox, ILeadership leadership,
+        LiveEngineHost engine, FeedHealthRegistry health, TimeProvider clock, ILoggerFactory loggers)
+    {
+        var logger = loggers.CreateLogger(typeof(ReadingsApi).FullName!);
+        if (!inbox.IsAvailable)
+        {
+            // a standby without an inbox stores nothing itself (docs/engine.md R70): not acknowledged, the feed sends them again
+            context.Response.Headers.RetryAfter = "5";
+            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {LiveEngineHost.StandbyText}");
+        }
+        var receivedAt = clock.GetUtcNow();
+        var items = Screen(parsed, engine.Profile, receivedAt);
+        var answer = Answer(source, items);
+        if (parsed.Readings.Count > 0 || parsed.Rejections.Count > 0)
+        {
+            try
+            {
+                await inbox.EnqueueAsync(new ReadingInboxRow
+                {
+                    ReceivedAt = receivedAt,
+                    Source = source,
+                    NodeId = leadership.NodeId,
+                    Body = Encoding.UTF8.GetString(body),
+                    Accepted = answer.Accepted,
+                    Rejected = answer.Rejected.Count,
+                }, context.RequestAborted);
+            }
+            catch (Exception ex) when (ex is not OperationCanceledException || !context.RequestAborted.IsCancellationRequested)
+            {
+                var reason = $"the reading inbox could not be written: {EngineRecorder.Describe(ex)}";
+                logger.LogWarning("Push from {Source} to standby {Node} not stored: {Reason}", source, leadership.NodeId, reason);
+                context.Response.Headers.RetryAfter = "5";
+                return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {reason}");
+            }
+        }
+        health.RecordSuccess(source, answer.Accepted, answer.Rejected.Count);
+        return TypedResults.Accepted((string?)null, answer);
+    }
+
+    private static PushResponse Answer(string source, List<PushItemResult> items)
+    {
         var rejected = items
             .Where(i => i.Outcome == PushItemResult.Rejected)
             .Select(i => new PushRejection(i.Index, i.Reason!, i.Detail!, i.Sensor))
             .ToList();
-        var accepted = items.Count - rejected.Count;
-        health.RecordSuccess(source, accepted, rejected.Count);
-        return TypedResults.Accepted((string?)null, new PushResponse(source, accepted, rejected, items));
+        return new PushResponse(source, items.Count - rejected.Count, rejected, items);
     }
 
     /// <summary>

@@ -1,0 +1,88 @@
+using Microsoft.EntityFrameworkCore;
+using Npgsql;
+using NpgsqlTypes;
+using OpsLvp.Data.Entities;
+
+namespace OpsLvp.Data.Stores;
+
+/// <summary>
+/// The <c>reading_inbox</c> queue (docs/deployment.md "Readings from any node"; docs/engine.md R73–R75): a standby
+/// stores a pushed batch here, durably, before it answers 202, and wakes the leader with <c>NOTIFY</c> on
+/// <see cref="NotifyChannel"/>; the leader reads the rows in id order and deletes them in the transaction that stores
+/// their readings (<see cref="ReadingStore.InsertAsync(IReadOnlyList{ReceivedReading}, InboxClaim?, CancellationToken)"/>).
+/// PostgreSQL only: on SQLite (one node) nothing is ever queued.
+/// </summary>
+public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory)
+{
+    /// <summary>The channel a standby notifies after queueing a batch.</summary>
+    public const string NotifyChannel = "opslvp_readings";
+
+    private const string EnqueueSql =
+        "INSERT INTO reading_inbox (received_at, source, node_id, body, accepted, rejected) VALUES ($1, $2, $3, $4, $5, $6) RETURNING id";
+
+    private const string NotifySql = "SELECT pg_notify('" + NotifyChannel + "', $1)";
+
+    private readonly ProviderProbe _provider = new(factory);
+
+    /// <summary>True when the database is PostgreSQL, the only provider with several nodes and so with an inbox.</summary>
+    public bool IsAvailable => _provider.IsPostgres;
+
+    /// <summary>
+    /// Stores <paramref name="row"/> and notifies <see cref="NotifyChannel"/> in one transaction: when this returns the
+    /// batch is committed (<c>synchronous_commit</c> is checked at start), and the notification is sent with the commit.
+    /// Returns the row's id.
+    /// </summary>
+    /// <exception cref="InvalidOperationException">The database is not PostgreSQL.</exception>
+    public async Task<long> EnqueueAsync(ReadingInboxRow row, CancellationToken cancellationToken = default)
+    {
+        ArgumentNullException.ThrowIfNull(row);
+        if (!IsAvailable)
+        {
+            throw new InvalidOperationException("the reading inbox is used with PostgreSQL only (several nodes)");
+        }
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        await db.Database.OpenConnectionAsync(cancellationToken);
+        var connection = (NpgsqlConnection)db.Database.GetDbConnection();
+        await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
+        long id;
+        await using (var insert = new NpgsqlCommand(EnqueueSql, connection, transaction))
+        {
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = UtcTextConverter.Format(row.ReceivedAt) });
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = row.Source });
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = row.NodeId });
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = row.Body });
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Integer, Value = row.Accepted });
+            insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Integer, Value = row.Rejected });
+            id = (long)(await insert.ExecuteScalarAsync(cancellationToken))!;
+        }
+        await using (var notify = new NpgsqlCommand(NotifySql, connection, transaction))
+        {
+            notify.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = id.ToString(System.Globalization.CultureInfo.InvariantCulture) });
+            await notify.ExecuteNonQueryAsync(cancellationToken);
+        }
+        await transaction.CommitAsync(cancellationToken);
+        row.Id = id;
+        return id;
+    }
+
+    /// <summary>The first <paramref name="limit"/> waiting rows, oldest (lowest id) first.</summary>
+    public async Task<IReadOnlyList<ReadingInboxRow>> PeekAsync(int limit, CancellationToken cancellationToken = default)
+    {
+        ArgumentOutOfRangeException.ThrowIfLessThan(limit, 1);
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        return await db.ReadingInbox.AsNoTracking().OrderBy(r => r.Id).Take(limit).ToListAsync(cancellationToken);
+    }
+
+    /// <summary>How many batches wait, and when the oldest of them was received (null when none waits).</summary>
+    public async Task<(int Batches, DateTimeOffset? OldestReceivedAt)> WaitingAsync(CancellationToken cancellationToken = default)
+    {
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        var count = await db.ReadingInbox.CountAsync(cancellationToken);
+        if (count == 0)
+        {
+            return (0, null);
+        }
+        var oldest = await db.ReadingInbox.AsNoTracking().OrderBy(r => r.Id).Select(r => (DateTimeOffset?)r.ReceivedAt).FirstOrDefaultAsync(cancellationToken);
+        return (count, oldest);
+    }
+}
