@@ -10,7 +10,7 @@ namespace OpsLvp.Benchmarks.Audit;
 
 /// <summary>
 /// Issue 16: the audit append on PostgreSQL as the engine host does it for one evaluation that covers a tick of
-/// readings — <see cref="ReadingStore.InsertAsync"/> of <see cref="Readings"/> readings, then
+/// readings — <see cref="ReadingStore.InsertAsync(IReadOnlyList{ReceivedReading}, CancellationToken)"/> of <see cref="Readings"/> readings, then
 /// <see cref="AuditStore.AppendAsync"/> of one entry (both through <c>PostgresWriter</c>, two transactions) — against
 /// raw Npgsql INSERTs of the same rows on a kept connection with prepared statements, also two transactions, into a
 /// second database made by the same migrations. A throwaway cluster on loopback (<see cref="BenchPostgres"/>),
