@@ -2,16 +2,17 @@ namespace OpsLvp.Benchmarks;
 
 /// <summary>
 /// Command line: <c>[--quick] [--only engine,audit,review,push,circuits,pg-audit,anchors,year] [--days N] [--out FOLDER] [--data-dir FOLDER]</c>.
-/// The <c>year</c> suite (a database filled with <see cref="Days"/> days of readings, issue 16) runs only when named.
+/// The <c>year</c> suite (a database filled with <see cref="Days"/> days of readings, issue 16) and <c>push-ha</c> (push
+/// latency through two nodes and Redis, issue 16; needs PostgreSQL and redis-server) run only when named.
 /// </summary>
 public sealed record BenchOptions
 {
-    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits", "pg-audit", "anchors", "year"];
+    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits", "pg-audit", "anchors", "year", "push-ha"];
 
     /// <summary>Few iterations and small harness counts; the whole run stays under 3 minutes.</summary>
     public bool Quick { get; init; }
 
-    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites.Where(s => s != "year"));
+    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites.Where(s => s is not "year" and not "push-ha"));
 
     /// <summary>Days of 15-second readings the <c>year</c> suite fills (365: about 23 million rows).</summary>
     public int Days { get; init; } = 365;

@@ -149,6 +149,18 @@ public static class BenchmarksProgram
             }
         }
 
+        if (options.Runs("push-ha"))
+        {
+            try
+            {
+                await OpsLvp.Benchmarks.Live.PushHaHarness.RunAsync(options, book, Command("push-ha"));
+            }
+            catch (Exception ex) when (ex is TimeoutException or InvalidOperationException or HttpRequestException or System.Data.Common.DbException)
+            {
+                book.Note($"push-ha: not measured on this run: {ex.GetType().Name}: {ex.Message.ReplaceLineEndings(" ")}");
+            }
+        }
+
         if (options.Runs("circuits"))
         {
             try

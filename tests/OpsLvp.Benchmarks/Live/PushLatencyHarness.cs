@@ -88,19 +88,32 @@ public static class PushLatencyHarness
     /// <param name="key">API key sent as <see cref="ApiKeyAuthenticationHandler.Header"/> on the hub connection; null: none (bare hub).</param>
     private static async Task<(Latencies Latencies, int PayloadChars)> MeasureAsync(Uri hub, string? key, int n, int rounds, Func<string?> marker, Func<Task> post)
     {
-        var clients = new List<Client>(n);
+        var measured = await MeasureGroupsAsync(Enumerable.Repeat(("all", hub), n).ToList(), key, rounds, marker, post);
+        return (measured.ByGroup["all"], measured.PayloadChars);
+    }
+
+    /// <summary>
+    /// One client per entry of <paramref name="placement"/> (a group name and the hub it connects to), runs
+    /// <paramref name="rounds"/> posts and returns the latencies of every round per group, the largest payload seen,
+    /// and how many <c>state</c> messages of the awaited version each client received per round on average (1 unless
+    /// the same snapshot reaches a client more than once).
+    /// </summary>
+    internal static async Task<(IReadOnlyDictionary<string, Latencies> ByGroup, int PayloadChars, double DeliveriesPerRound)> MeasureGroupsAsync(
+        IReadOnlyList<(string Group, Uri Hub)> placement, string? key, int rounds, Func<string?> marker, Func<Task> post)
+    {
+        var clients = new List<(string Group, Client Client)>(placement.Count);
         try
         {
             using var throttle = new SemaphoreSlim(50);
-            var connecting = Enumerable.Range(0, n).Select(async _ =>
+            var connecting = placement.Select(async p =>
             {
                 await throttle.WaitAsync();
                 try
                 {
-                    var client = new Client(hub, key);
+                    var client = new Client(p.Hub, key);
                     lock (clients)
                     {
-                        clients.Add(client);
+                        clients.Add((p.Group, client));
                     }
                     await client.StartAsync();
                 }
@@ -111,34 +124,48 @@ public static class PushLatencyHarness
             });
             await Task.WhenAll(connecting);
             // One unmeasured round warms up both paths.
-            var samples = new List<double>(n * rounds);
+            var samples = placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(placement.Count * rounds));
+            long deliveries = 0;
             for (var round = -1; round < rounds; round++)
             {
                 await Task.Delay(150);
+                if (round > 0)
+                {
+                    deliveries += clients.Sum(c => c.Client.Deliveries);
+                }
                 var expected = marker();
-                foreach (var c in clients)
+                foreach (var (_, c) in clients)
                 {
                     c.Arm(expected);
                 }
                 var t0 = Stopwatch.GetTimestamp();
                 await post();
-                var all = Task.WhenAll(clients.Select(c => c.Received));
+                var all = Task.WhenAll(clients.Select(c => c.Client.Received));
                 if (await Task.WhenAny(all, Task.Delay(RoundTimeout)) != all)
                 {
-                    throw new TimeoutException($"not every client received 'state' within {RoundTimeout.TotalSeconds} s ({clients.Count(c => c.Received.IsCompleted)}/{n})");
+                    throw new TimeoutException($"not every client received 'state' within {RoundTimeout.TotalSeconds} s ({clients.Count(c => c.Client.Received.IsCompleted)}/{clients.Count})");
                 }
                 if (round >= 0)
                 {
-                    samples.AddRange(clients.Select(c => Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds));
+                    foreach (var (group, c) in clients)
+                    {
+                        samples[group].Add(Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds);
+                    }
                 }
             }
-            return (new Latencies(samples), clients.Max(c => c.LastPayloadChars));
+            await Task.Delay(150);
+            deliveries += clients.Sum(c => c.Client.Deliveries);
+            return (samples.ToDictionary(g => g.Key, g => new Latencies(g.Value)), clients.Max(c => c.Client.LastPayloadChars),
+                rounds == 0 || clients.Count == 0 ? 0 : deliveries / (double)(rounds * clients.Count));
         }
         finally
         {
-            await Task.WhenAll(clients.Select(c => c.DisposeAsync().AsTask()));
+            await Task.WhenAll(clients.Select(c => c.Client.DisposeAsync().AsTask()));
         }
     }
+
+    /// <summary>The median of <paramref name="appends"/> audit commits on a fresh SQLite file (FULL), the "one audit commit" of the push target.</summary>
+    internal static Task<double> MeasureSqliteAuditCommitAsync(int appends) => MeasureAuditCommitAsync(appends);
 
     private static async Task<double> MeasureAuditCommitAsync(int appends)
     {
@@ -171,7 +198,7 @@ public static class PushLatencyHarness
     }
 
     /// <summary>1500, 1510, … 1890, 1500, …: above the preparation threshold (phase stays normal), never twice in a row.</summary>
-    private static int NextValue(int value) => value >= 1890 ? 1500 : value + 10;
+    internal static int NextValue(int value) => value >= 1890 ? 1500 : value + 10;
 
     private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
 
@@ -181,6 +208,8 @@ public static class PushLatencyHarness
         private readonly HubConnection _connection;
         private TaskCompletionSource<long> _received = NewSource();
         private volatile string? _marker;
+        private long _awaitedVersion = -2;
+        private long _deliveries;
 
         public Client(Uri hub, string? key)
         {
@@ -196,9 +225,17 @@ public static class PushLatencyHarness
                 var now = Stopwatch.GetTimestamp();
                 var text = payload.GetRawText();
                 LastPayloadChars = text.Length;
+                var version = payload.ValueKind == JsonValueKind.Object && payload.TryGetProperty("version", out var v) && v.TryGetInt64(out var number) ? number : -1;
                 if (_marker is not { } marker || text.Contains(marker, StringComparison.Ordinal))
                 {
-                    Volatile.Read(ref _received).TrySetResult(now);
+                    if (Volatile.Read(ref _received).TrySetResult(now))
+                    {
+                        Interlocked.Exchange(ref _awaitedVersion, version);
+                    }
+                }
+                if (version >= 0 && version == Interlocked.Read(ref _awaitedVersion))
+                {
+                    Interlocked.Increment(ref _deliveries);
                 }
             });
         }
@@ -209,9 +246,14 @@ public static class PushLatencyHarness
 
         public Task StartAsync() => _connection.StartAsync();
 
+        /// <summary>How many <c>state</c> messages of the awaited snapshot's version arrived since <see cref="Arm"/>.</summary>
+        public long Deliveries => Interlocked.Read(ref _deliveries);
+
         public void Arm(string? marker)
         {
             _marker = marker;
+            Interlocked.Exchange(ref _awaitedVersion, -2);
+            Interlocked.Exchange(ref _deliveries, 0);
             Volatile.Write(ref _received, NewSource());
         }
 

@@ -2,6 +2,7 @@ using System.Diagnostics;
 using System.Globalization;
 using System.Text.Json;
 using Microsoft.Data.Sqlite;
+using Microsoft.Extensions.DependencyInjection;
 using Npgsql;
 using NpgsqlTypes;
 using OpsLvp.Benchmarks.Engine;
@@ -9,6 +10,7 @@ using OpsLvp.Benchmarks.Live;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Benchmarks.Services;
 using OpsLvp.Core.Audit;
+using OpsLvp.Core.Audit.Anchors;
 using OpsLvp.Core.Engine.Replay;
 using OpsLvp.Core.Readings;
 using OpsLvp.Data;
@@ -29,7 +31,9 @@ namespace OpsLvp.Benchmarks.Year;
 /// </summary>
 public static class YearHarness
 {
-    private const int Chunk = 100_000;
+    private const int Chunk = 1_000_000;
+
+    private const int RowsPerInsert = 100;
 
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
     {
@@ -69,59 +73,41 @@ public static class YearHarness
                 await audit.AppendAsync(events.Where(AuditEvents.IsAudited).Select(AuditEvents.ToEntry).ToList());
             }
 
+            var settings = new Dictionary<string, string?>
+            {
+                [OpsLvpDatabase.ProviderSetting] = provider,
+                [postgres ? OpsLvpDatabase.PostgresConnectionStringSetting : OpsLvpDatabase.ConnectionStringSetting] = connectionString,
+                // one installation, one anchor key across its starts (docs/audit.md "Anchors"): each BenchServer has its own
+                // data folder, and a start with another key would find the state row sealed by a key it does not hold
+                ["Anchors:KeyPath"] = Path.Combine(folder, "anchor-key.pem"),
+                ["Anchors:LogPath"] = Path.Combine(folder, "anchors.jsonl"),
+            };
+
+            // the same start, review and state on the EMPTY database first (migrated, the episode's audit entries only),
+            // so the filled figures below can be read against it
+            // one unmeasured start first, so neither measured start pays for the process's first JIT of the app's code
+            Progress($"{name}: warm-up start on the empty database (not measured)");
+            await MeasureAppAsync(settings, name, "warm-up", null, section, command);
+            Progress($"{name}: app start on the empty database");
+            await MeasureAppAsync(settings, name, "empty database", book, section, command);
+            SqliteConnection.ClearAllPools();
+            NpgsqlConnection.ClearAllPools();
+
+            Progress($"{name}: bulk fill of {options.Days} days");
             var fill = Stopwatch.StartNew();
             var rows = postgres
                 ? await CopyPostgresAsync(connectionString, Readings(profile, start, options.Days - 1, night))
                 : InsertSqlite(file, Readings(profile, start, options.Days - 1, night));
             fill.Stop();
             book.Add(new ResultRow(section, $"{name}: bulk insert of {rows:N0} rows", Seconds(fill.Elapsed), null, null, null,
-                string.Create(CultureInfo.InvariantCulture, $"{rows / fill.Elapsed.TotalSeconds:N0} rows/s ({(postgres ? "binary COPY" : $"prepared INSERT, one transaction per {Chunk:N0} rows")})"), command));
+                string.Create(CultureInfo.InvariantCulture, $"{rows / fill.Elapsed.TotalSeconds:N0} rows/s ({(postgres ? "binary COPY, max_wal_size 8GB for the fill only" : $"prepared {RowsPerInsert}-row INSERT, one transaction per {Chunk:N0} rows, synchronous=OFF for the fill only")})"), command));
+            Progress(string.Create(CultureInfo.InvariantCulture, $"{name}: filled {rows:N0} rows in {fill.Elapsed.TotalSeconds:0} s"));
             book.Add(new ResultRow(section, $"{name}: disk size", Megabytes(postgres ? await PostgresSizeAsync(connectionString) : SqliteSize(file)), null, null, null,
                 postgres ? "pg_database_size" : "database file + WAL", command));
 
-            var settings = new Dictionary<string, string?>
-            {
-                [OpsLvpDatabase.ProviderSetting] = provider,
-                [postgres ? OpsLvpDatabase.PostgresConnectionStringSetting : OpsLvpDatabase.ConnectionStringSetting] = connectionString,
-            };
-            var startup = Stopwatch.StartNew();
-            await using var server = BenchServer.Start(settings);
-            using var http = new HttpClient { BaseAddress = server.BaseAddress, Timeout = TimeSpan.FromMinutes(5) };
-            string health;
-            while (true)
-            {
-                using var response = await http.GetAsync(new Uri("/health", UriKind.Relative));
-                health = await response.Content.ReadAsStringAsync();
-                if (response.IsSuccessStatusCode)
-                {
-                    break;
-                }
-                if (startup.Elapsed > TimeSpan.FromMinutes(10))
-                {
-                    throw new TimeoutException($"/health did not answer 200 within 10 minutes on {name}: {health}");
-                }
-                await Task.Delay(50);
-            }
-            startup.Stop();
-            var status = JsonDocument.Parse(health).RootElement.TryGetProperty("status", out var s) ? s.GetString() : "?";
-            book.Add(new ResultRow(section, $"{name}: app start to /health 200", Seconds(startup.Elapsed), null, null, null, $"status \"{status}\" (migrations checked, engine restored, no feed)", command));
-
-            var source = new StoreEpisodeSource(server.Services);
-            var review = Stopwatch.StartNew();
-            var record = await source.LoadAsync();
-            review.Stop();
-            book.Add(new ResultRow(section, $"{name}: one review load (episode list + one episode)", Millis(review.Elapsed), null, null, null,
-                string.Create(CultureInfo.InvariantCulture, $"StoreEpisodeSource.LoadAsync in the running app: {record.Readings.Count:N0} readings of the episode window"), command));
-
-            var key = await server.IssuePushKeyAsync();
-            using var request = new HttpRequestMessage(HttpMethod.Get, "/api/state");
-            request.Headers.Add(ApiKeyAuthenticationHandler.Header, key);
-            var stateClock = Stopwatch.StartNew();
-            using var state = await http.SendAsync(request);
-            var body = await state.Content.ReadAsByteArrayAsync();
-            stateClock.Stop();
-            book.Add(new ResultRow(section, $"{name}: GET /api/state", Millis(stateClock.Elapsed), null, null, null,
-                string.Create(CultureInfo.InvariantCulture, $"HTTP {(int)state.StatusCode}, {body.Length:N0} bytes (first request, cold)"), command));
+            Progress($"{name}: app start on the filled database");
+            await MeasureAppAsync(settings, name, string.Create(CultureInfo.InvariantCulture, $"{rows:N0} rows"), book, section, command);
+            Progress($"{name}: done");
         }
         finally
         {
@@ -130,6 +116,61 @@ public static class YearHarness
             BenchFiles.TryDeleteFolder(folder);
         }
     }
+
+    /// <summary>Starts the app on the database, times start to the first /health 200, one review load and the first /api/state; stops it.</summary>
+    /// <param name="book">Where the figures go; null: a warm-up, only printed.</param>
+    private static async Task MeasureAppAsync(Dictionary<string, string?> settings, string name, string holding, ResultsBook? book, string section, string command)
+    {
+        var startup = Stopwatch.StartNew();
+        await using var server = BenchServer.Start(settings);
+        using var http = new HttpClient { BaseAddress = server.BaseAddress, Timeout = TimeSpan.FromMinutes(5) };
+        string health;
+        while (true)
+        {
+            using var response = await http.GetAsync(new Uri("/health", UriKind.Relative));
+            health = await response.Content.ReadAsStringAsync();
+            if (response.IsSuccessStatusCode)
+            {
+                break;
+            }
+            if (startup.Elapsed > TimeSpan.FromMinutes(10))
+            {
+                throw new TimeoutException($"/health did not answer 200 within 10 minutes on {name} ({holding}): {health}");
+            }
+            await Task.Delay(50);
+        }
+        startup.Stop();
+        var status = JsonDocument.Parse(health).RootElement.TryGetProperty("status", out var s) ? s.GetString() : "?";
+        // the start's engine_started entry covers (digests) every reading stored since the last covering entry (docs/audit.md "Readings covered")
+        var covering = await server.Services.GetRequiredService<AuditStore>().GetLastContainingAsync($"\"{ReadingsCoverage.Member}\"");
+        var covered = covering is null ? null : ReadingsCoverage.From(covering.PayloadJson);
+        book?.Add(new ResultRow(section, $"{name}, {holding}: app start to /health 200", Seconds(startup.Elapsed), null, null, null,
+            string.Create(CultureInfo.InvariantCulture, $"status \"{status}\" (migrations checked, engine restored, no feed); the start's covering entry ({covering?.Kind ?? "none"}) digested {covered?.Count ?? 0:N0} readings"), command));
+        Progress($"{name}, {holding}: /health 200 after {Seconds(startup.Elapsed)}");
+
+        var source = new StoreEpisodeSource(server.Services);
+        var review = Stopwatch.StartNew();
+        var record = await source.LoadAsync();
+        review.Stop();
+        book?.Add(new ResultRow(section, $"{name}, {holding}: one review load (episode list + one episode)", Millis(review.Elapsed), null, null, null,
+            string.Create(CultureInfo.InvariantCulture, $"StoreEpisodeSource.LoadAsync in the running app: {record.Readings.Count:N0} readings of the episode window"), command));
+        Progress($"{name}, {holding}: review load {Millis(review.Elapsed)}");
+
+        var key = await server.IssuePushKeyAsync();
+        using var request = new HttpRequestMessage(HttpMethod.Get, "/api/state");
+        request.Headers.Add(ApiKeyAuthenticationHandler.Header, key);
+        var stateClock = Stopwatch.StartNew();
+        using var state = await http.SendAsync(request);
+        var body = await state.Content.ReadAsByteArrayAsync();
+        stateClock.Stop();
+        book?.Add(new ResultRow(section, $"{name}, {holding}: GET /api/state", Millis(stateClock.Elapsed), null, null, null,
+            string.Create(CultureInfo.InvariantCulture, $"HTTP {(int)state.StatusCode}, {body.Length:N0} bytes (first request, cold)"), command));
+        Progress($"{name}, {holding}: /api/state {Millis(stateClock.Elapsed)}");
+    }
+
+    /// <summary>A timestamped line on the console, so a long run shows which phase it is in.</summary>
+    private static void Progress(string what) =>
+        Console.WriteLine(string.Create(CultureInfo.InvariantCulture, $"[year {TimeProvider.System.GetUtcNow():HH:mm:ss}] {what}"));
 
     private static IEnumerable<ReceivedReading> Readings(OpsLvp.Core.Profile.AerodromeProfile profile, DateTimeOffset start, int fairDays, List<Reading> night)
     {
@@ -154,77 +195,151 @@ public static class YearHarness
         }
     }
 
+    /// <summary>
+    /// The benchmark file's bulk fill: <see cref="RowsPerInsert"/> rows per prepared INSERT, one transaction per
+    /// <see cref="Chunk"/> rows, and <c>synchronous=OFF</c> with a 256 MiB page cache for this one connection only
+    /// (WAL kept). A crash of the fill would only lose the benchmark's throwaway file. At the end the WAL is
+    /// checkpointed and the app's settings (<c>journal_mode=WAL</c>, <c>synchronous=FULL</c>) read back before the app
+    /// is started, which sets them on every connection it opens anyway (SqlitePragmaInterceptor).
+    /// </summary>
     private static long InsertSqlite(string file, IEnumerable<ReceivedReading> readings)
     {
         using var connection = new SqliteConnection($"Data Source={file};Pooling=false");
         connection.Open();
-        using (var pragma = connection.CreateCommand())
+        Exec(connection, "PRAGMA journal_mode=WAL; PRAGMA synchronous=OFF; PRAGMA cache_size=-262144;");
+        const string columns = "INSERT INTO readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) VALUES ";
+        SqliteCommand Prepare(int count)
         {
-            pragma.CommandText = "PRAGMA journal_mode=WAL; PRAGMA synchronous=FULL;";
-            pragma.ExecuteNonQuery();
+            var command = connection.CreateCommand();
+            command.CommandText = columns + string.Join(", ", Enumerable.Range(0, count).Select(i =>
+                string.Create(CultureInfo.InvariantCulture, $"($t{i}, $r{i}, $s{i}, $n{i}, $k{i}, $v{i}, $st{i}, 1, NULL, NULL)"))) + ";";
+            for (var i = 0; i < count * 7; i++)
+            {
+                command.Parameters.Add(new SqliteParameter { ParameterName = string.Create(CultureInfo.InvariantCulture, $"${new[] { "t", "r", "s", "n", "k", "v", "st" }[i % 7]}{i / 7}") });
+            }
+            command.Prepare();
+            return command;
         }
-        using var insert = connection.CreateCommand();
-        insert.CommandText = "INSERT INTO readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) VALUES ($t, $r, $s, $n, $k, $v, $st, 1, NULL, NULL);";
-        var p = new[] { "$t", "$r", "$s", "$n", "$k", "$v", "$st" }.Select(n => insert.Parameters.Add(new SqliteParameter { ParameterName = n })).ToArray();
-        insert.Prepare();
+        using var many = Prepare(RowsPerInsert);
+        using var one = Prepare(1);
         long rows = 0;
         SqliteTransaction? transaction = null;
+        var pending = new List<ReceivedReading>(RowsPerInsert);
+        void Write(SqliteCommand command, IReadOnlyList<ReceivedReading> batch)
+        {
+            command.Transaction = transaction;
+            for (var j = 0; j < batch.Count; j++)
+            {
+                var r = batch[j];
+                var p = command.Parameters;
+                p[(j * 7) + 0].Value = AuditCanonical.FormatTime(r.Time!.Value);
+                p[(j * 7) + 1].Value = AuditCanonical.FormatTime(r.ReceivedAt);
+                p[(j * 7) + 2].Value = r.Source;
+                p[(j * 7) + 3].Value = r.Sensor;
+                p[(j * 7) + 4].Value = r.Kind;
+                p[(j * 7) + 5].Value = r.Value!.Value;
+                p[(j * 7) + 6].Value = r.Status;
+            }
+            command.ExecuteNonQuery();
+        }
         foreach (var r in readings)
         {
-            if (transaction is null)
+            transaction ??= connection.BeginTransaction();
+            pending.Add(r);
+            if (pending.Count == RowsPerInsert)
             {
-                transaction = connection.BeginTransaction();
-                insert.Transaction = transaction;
+                Write(many, pending);
+                pending.Clear();
             }
-            p[0].Value = AuditCanonical.FormatTime(r.Time!.Value);
-            p[1].Value = AuditCanonical.FormatTime(r.ReceivedAt);
-            p[2].Value = r.Source;
-            p[3].Value = r.Sensor;
-            p[4].Value = r.Kind;
-            p[5].Value = r.Value!.Value;
-            p[6].Value = r.Status;
-            insert.ExecuteNonQuery();
             if (++rows % Chunk == 0)
             {
+                foreach (var rest in pending)
+                {
+                    Write(one, [rest]);
+                }
+                pending.Clear();
                 transaction.Commit();
                 transaction.Dispose();
                 transaction = null;
+                if (rows % (Chunk * 5) == 0)
+                {
+                    Progress(string.Create(CultureInfo.InvariantCulture, $"SQLite: {rows:N0} rows"));
+                }
+            }
+        }
+        if (pending.Count > 0)
+        {
+            transaction ??= connection.BeginTransaction();
+            foreach (var rest in pending)
+            {
+                Write(one, [rest]);
             }
         }
         transaction?.Commit();
         transaction?.Dispose();
-        using (var checkpoint = connection.CreateCommand())
+        Exec(connection, "PRAGMA wal_checkpoint(TRUNCATE); PRAGMA journal_mode=WAL; PRAGMA synchronous=FULL;");
+        using (var check = connection.CreateCommand())
         {
-            checkpoint.CommandText = "PRAGMA wal_checkpoint(TRUNCATE);";
-            checkpoint.ExecuteNonQuery();
+            check.CommandText = "PRAGMA journal_mode;";
+            var mode = Convert.ToString(check.ExecuteScalar(), CultureInfo.InvariantCulture);
+            if (!string.Equals(mode, "wal", StringComparison.OrdinalIgnoreCase))
+            {
+                throw new InvalidOperationException($"the filled SQLite file is in journal_mode '{mode}', not WAL");
+            }
         }
         return rows;
     }
 
+    private static void Exec(SqliteConnection connection, string sql)
+    {
+        using var command = connection.CreateCommand();
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
+    }
+
+    /// <summary>
+    /// Binary COPY in one transaction, with the cluster's <c>max_wal_size</c> raised to 8 GB for the fill only (fewer
+    /// checkpoints while the 23 million rows are written; reset and reloaded afterwards); <c>fsync</c> and
+    /// <c>synchronous_commit</c> stay at their defaults. Then <c>ANALYZE</c>, as an installation's autovacuum would.
+    /// </summary>
     private static async Task<long> CopyPostgresAsync(string connectionString, IEnumerable<ReceivedReading> readings)
     {
         await using var connection = new NpgsqlConnection(connectionString);
         await connection.OpenAsync();
-        long rows = 0;
-        await using (var copy = await connection.BeginBinaryImportAsync(
-            "COPY readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) FROM STDIN (FORMAT BINARY)"))
+        await using (var wal = new NpgsqlCommand("ALTER SYSTEM SET max_wal_size = '8GB'; SELECT pg_reload_conf();", connection))
         {
+            await wal.ExecuteNonQueryAsync();
+        }
+        long rows = 0;
+        try
+        {
+            // synchronous writes: per-field async calls cost more than the copy itself here (nothing else runs on this connection)
+            using var copy = connection.BeginBinaryImport(
+                "COPY readings (time, received_at, source, sensor, kind, value, status, accepted, reject_reason, reject_detail) FROM STDIN (FORMAT BINARY)");
             foreach (var r in readings)
             {
-                await copy.StartRowAsync();
-                await copy.WriteAsync(AuditCanonical.FormatTime(r.Time!.Value), NpgsqlDbType.Text);
-                await copy.WriteAsync(AuditCanonical.FormatTime(r.ReceivedAt), NpgsqlDbType.Text);
-                await copy.WriteAsync(r.Source, NpgsqlDbType.Text);
-                await copy.WriteAsync(r.Sensor, NpgsqlDbType.Text);
-                await copy.WriteAsync(r.Kind, NpgsqlDbType.Text);
-                await copy.WriteAsync(r.Value!.Value, NpgsqlDbType.Double);
-                await copy.WriteAsync(r.Status!, NpgsqlDbType.Text);
-                await copy.WriteAsync(true, NpgsqlDbType.Boolean);
-                await copy.WriteNullAsync();
-                await copy.WriteNullAsync();
-                rows++;
+                copy.StartRow();
+                copy.Write(AuditCanonical.FormatTime(r.Time!.Value), NpgsqlDbType.Text);
+                copy.Write(AuditCanonical.FormatTime(r.ReceivedAt), NpgsqlDbType.Text);
+                copy.Write(r.Source, NpgsqlDbType.Text);
+                copy.Write(r.Sensor, NpgsqlDbType.Text);
+                copy.Write(r.Kind, NpgsqlDbType.Text);
+                copy.Write(r.Value!.Value, NpgsqlDbType.Double);
+                copy.Write(r.Status!, NpgsqlDbType.Text);
+                copy.Write(true, NpgsqlDbType.Boolean);
+                copy.WriteNull();
+                copy.WriteNull();
+                if (++rows % (Chunk * 5) == 0)
+                {
+                    Progress(string.Create(CultureInfo.InvariantCulture, $"PostgreSQL: {rows:N0} rows"));
+                }
             }
-            await copy.CompleteAsync();
+            copy.Complete();
+        }
+        finally
+        {
+            await using var reset = new NpgsqlCommand("ALTER SYSTEM RESET max_wal_size; SELECT pg_reload_conf();", connection);
+            await reset.ExecuteNonQueryAsync();
         }
         await using (var analyze = new NpgsqlCommand("ANALYZE readings", connection))
         {
