@@ -8,12 +8,13 @@ namespace OpsLvp.Web.Cluster;
 /// <summary>
 /// The hub's lifetime manager chosen when the app is built, since <c>Cluster:Redis</c> is known only then: the
 /// <c>Microsoft.AspNetCore.SignalR.StackExchangeRedis</c> backplane with the setting, SignalR's default otherwise.
-/// Every call goes to the one chosen.
+/// Every call goes to the one chosen, except <see cref="SendAllLocalAsync"/>, which reaches this node's own clients only.
 /// </summary>
 public sealed class ClusterHubLifetimeManager<THub> : HubLifetimeManager<THub>, IDisposable
     where THub : Hub
 {
     private readonly HubLifetimeManager<THub> _inner;
+    private readonly HubConnectionStore _local = new();
 
     public ClusterHubLifetimeManager(IServiceProvider services, IOptions<FanoutOptions> fanout)
     {
@@ -29,9 +30,39 @@ public sealed class ClusterHubLifetimeManager<THub> : HubLifetimeManager<THub>, 
             : new DefaultHubLifetimeManager<THub>(services.GetRequiredService<ILogger<DefaultHubLifetimeManager<THub>>>());
     }
 
-    public override Task OnConnectedAsync(HubConnectionContext connection) => _inner.OnConnectedAsync(connection);
+    public override Task OnConnectedAsync(HubConnectionContext connection)
+    {
+        ArgumentNullException.ThrowIfNull(connection);
+        _local.Add(connection);
+        return _inner.OnConnectedAsync(connection);
+    }
 
-    public override Task OnDisconnectedAsync(HubConnectionContext connection) => _inner.OnDisconnectedAsync(connection);
+    public override Task OnDisconnectedAsync(HubConnectionContext connection)
+    {
+        ArgumentNullException.ThrowIfNull(connection);
+        _local.Remove(connection);
+        return _inner.OnDisconnectedAsync(connection);
+    }
+
+    /// <summary>
+    /// Sends to the hub clients connected to THIS node, never through the backplane. Every node shows the leader's
+    /// snapshots itself (<see cref="SnapshotFanout"/>), so each node sends each one to its own clients: sent through the
+    /// backplane by every node, each client would get every state once per node (docs/deployment.md "Fan-out").
+    /// </summary>
+    public Task SendAllLocalAsync(string methodName, object?[] args, CancellationToken cancellationToken = default)
+    {
+        var message = new SerializedHubMessage(new InvocationMessage(methodName, args));
+        var writes = new List<Task>();
+        foreach (var connection in _local)
+        {
+            var write = connection.WriteAsync(message, cancellationToken);
+            if (!write.IsCompletedSuccessfully)
+            {
+                writes.Add(write.AsTask());
+            }
+        }
+        return Task.WhenAll(writes);
+    }
 
     public override Task SendAllAsync(string methodName, object?[] args, CancellationToken cancellationToken = default) =>
         _inner.SendAllAsync(methodName, args, cancellationToken);

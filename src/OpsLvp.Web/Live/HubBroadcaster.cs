@@ -1,9 +1,14 @@
 using Microsoft.AspNetCore.SignalR;
+using OpsLvp.Web.Cluster;
 
 namespace OpsLvp.Web.Live;
 
-/// <summary>Sends every published snapshot to all hub clients (a subscriber of <see cref="ILiveState"/>).</summary>
-public sealed class HubBroadcaster(ILiveState live, IHubContext<LvpHub> hub, ILogger<HubBroadcaster> logger) : IHostedService
+/// <summary>
+/// Sends every snapshot this node shows to the hub clients connected to this node (a subscriber of
+/// <see cref="ILiveState"/>). With several nodes each shows the leader's snapshots itself, so each sends them to its own
+/// clients only (<see cref="ClusterHubLifetimeManager{THub}.SendAllLocalAsync"/>), and a client gets each state once.
+/// </summary>
+public sealed class HubBroadcaster(ILiveState live, IHubContext<LvpHub> hub, HubLifetimeManager<LvpHub> lifetime, ILogger<HubBroadcaster> logger) : IHostedService
 {
     private IDisposable? _subscription;
 
@@ -13,7 +18,14 @@ public sealed class HubBroadcaster(ILiveState live, IHubContext<LvpHub> hub, ILo
         {
             try
             {
-                await hub.Clients.All.SendAsync(LvpHub.StateMethod, snapshot);
+                if (lifetime is ClusterHubLifetimeManager<LvpHub> cluster)
+                {
+                    await cluster.SendAllLocalAsync(LvpHub.StateMethod, [snapshot]);
+                }
+                else
+                {
+                    await hub.Clients.All.SendAsync(LvpHub.StateMethod, snapshot);
+                }
             }
             catch (Exception ex)
             {

@@ -92,6 +92,45 @@ public sealed class FanoutTests
     }
 
     [RedisFact]
+    public async Task EveryHubClient_OnEitherNode_GetsEachStateOnce()
+    {
+        using var redis = await RedisServerProcess.StartAsync();
+        await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        var onA = new System.Collections.Concurrent.ConcurrentQueue<JsonElement>();
+        var onB = new System.Collections.Concurrent.ConcurrentQueue<JsonElement>();
+        await using var hubA = await ConnectAsync(a.App);
+        await using var hubB = await ConnectAsync(b.App);
+        hubA.On<JsonElement>(LvpHub.StateMethod, s => onA.Enqueue(s.Clone()));
+        hubB.On<JsonElement>(LvpHub.StateMethod, s => onB.Enqueue(s.Clone()));
+
+        // Invented values well above every threshold (normal); each is a new state with its own version.
+        double[] values = [1500, 1510, 1520, 1530, 1540];
+        foreach (var value in values)
+        {
+            await LiveClient.PushAsync(a.App, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Tdz, "rvr", value));
+            await Task.Delay(300);
+        }
+        using var cts = new CancellationTokenSource(s_wait);
+        while (!(HasValue(onA, values[^1]) && HasValue(onB, values[^1])))
+        {
+            await Task.Delay(100, cts.Token);
+        }
+        await Task.Delay(TimeSpan.FromSeconds(2)); // a second copy, if one were coming, arrives within this
+
+        foreach (var (node, states) in new[] { ("node-a", onA), ("node-b", onB) })
+        {
+            var twice = states.GroupBy(s => (s.GetProperty("version").GetInt64(), s.GetProperty("recording").GetProperty("recording").GetBoolean()))
+                .Where(g => g.Count() > 1).Select(g => $"version {g.Key.Item1} x{g.Count()}").ToList();
+            Assert.True(twice.Count == 0, $"a client of {node} got a state more than once: {string.Join(", ", twice)} (of {states.Count})");
+        }
+
+        static bool HasValue(IEnumerable<JsonElement> states, double value) =>
+            states.Any(s => s.GetProperty("status").GetProperty("governingRvr").TryGetProperty("value", out var v)
+                && v.ValueKind == JsonValueKind.Number && v.GetDouble() == value);
+    }
+
+    [RedisFact]
     public async Task UnreachableRedis_TheNodeStarts_AndAStandbySaysItIsNotLive()
     {
         // a port nothing listens on: the node must run and say it cannot fan out, not refuse to start
