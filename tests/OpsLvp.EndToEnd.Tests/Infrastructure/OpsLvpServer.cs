@@ -24,9 +24,12 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     private readonly Process _process;
     private readonly ConcurrentQueue<string> _output;
 
-    private OpsLvpServer(Process process, ConcurrentQueue<string> output, Uri baseAddress, string dataFolder, TestAccounts accounts)
+    private readonly bool _ownsAccounts;
+
+    private OpsLvpServer(Process process, ConcurrentQueue<string> output, Uri baseAddress, string dataFolder, TestAccounts accounts, bool ownsAccounts)
     {
         Accounts = accounts;
+        _ownsAccounts = ownsAccounts;
         _process = process;
         _output = output;
         BaseAddress = baseAddress;
@@ -49,13 +52,32 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     /// <summary>Starts the app on <paramref name="profileJson"/> (default <see cref="TestProfile.Json"/>) with the standard accounts seeded.</summary>
     public static async Task<OpsLvpServer> StartAsync(string? profileJson = null, IReadOnlyDictionary<string, string>? settings = null)
     {
-        var dll = WebAppDll();
-        var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-e2e", Guid.NewGuid().ToString("N"));
-        Directory.CreateDirectory(dataFolder);
-        var profile = Path.Combine(dataFolder, "profile.json");
-        await File.WriteAllTextAsync(profile, profileJson ?? TestProfile.Json);
+        var dataFolder = NewDataFolder();
         var accounts = TestAccounts.Open(dataFolder);
         await accounts.SeedStandardAsync();
+        return await StartAsync(dataFolder, accounts, ownsAccounts: true, profileJson, settings);
+    }
+
+    /// <summary>
+    /// Starts one node of a cluster on <paramref name="accounts"/>' database (seeded by the caller, shared with the other
+    /// nodes and not disposed with this one); <paramref name="settings"/> name the provider, connection string and
+    /// <c>Cluster:*</c>. The node's data folder is its own.
+    /// </summary>
+    public static Task<OpsLvpServer> StartNodeAsync(TestAccounts accounts, IReadOnlyDictionary<string, string> settings, string? profileJson = null) =>
+        StartAsync(NewDataFolder(), accounts, ownsAccounts: false, profileJson, settings);
+
+    private static string NewDataFolder()
+    {
+        var dataFolder = Path.Combine(Path.GetTempPath(), "opslvp-e2e", Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(dataFolder);
+        return dataFolder;
+    }
+
+    private static async Task<OpsLvpServer> StartAsync(string dataFolder, TestAccounts accounts, bool ownsAccounts, string? profileJson, IReadOnlyDictionary<string, string>? settings)
+    {
+        var dll = WebAppDll();
+        var profile = Path.Combine(dataFolder, "profile.json");
+        await File.WriteAllTextAsync(profile, profileJson ?? TestProfile.Json);
 
         var start = new ProcessStartInfo("dotnet")
         {
@@ -97,13 +119,16 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         try
         {
             var address = await listening.Task.WaitAsync(s_startTimeout);
-            return new OpsLvpServer(process, output, address, dataFolder, accounts);
+            return new OpsLvpServer(process, output, address, dataFolder, accounts, ownsAccounts);
         }
         catch (Exception ex) when (ex is TimeoutException or InvalidOperationException)
         {
             Stop(process);
             process.Dispose();
-            await accounts.DisposeAsync();
+            if (ownsAccounts)
+            {
+                await accounts.DisposeAsync();
+            }
             TryDelete(dataFolder);
             throw new InvalidOperationException($"OpsLvp.Web did not start ({ex.Message}); its output:{Environment.NewLine}{string.Join(Environment.NewLine, output)}", ex);
         }
@@ -125,6 +150,14 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     /// <summary>POSTs readings stamped <paramref name="time"/> to /api/readings and checks they were all accepted.</summary>
     public async Task PushAsync(DateTimeOffset time, params (string Sensor, string Kind, double Value)[] readings)
     {
+        var (status, text) = await TryPushAsync(time, readings);
+        Assert.True((int)status is >= 200 and < 300, $"POST /api/readings answered {(int)status}: {text}");
+        Assert.Contains($"\"accepted\":{readings.Length}", text.Replace(" ", "", StringComparison.Ordinal), StringComparison.Ordinal);
+    }
+
+    /// <summary>POSTs readings stamped <paramref name="time"/> to /api/readings; returns the answer whatever it is (a standby answers 503).</summary>
+    public async Task<(System.Net.HttpStatusCode Status, string Text)> TryPushAsync(DateTimeOffset time, params (string Sensor, string Kind, double Value)[] readings)
+    {
         var body = new
         {
             readings = readings.Select(r => new
@@ -142,13 +175,14 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         };
         request.Headers.Add("X-Api-Key", ApiKey);
         using var response = await Client.SendAsync(request);
-        var text = await response.Content.ReadAsStringAsync();
-        Assert.True(response.IsSuccessStatusCode, $"POST /api/readings answered {(int)response.StatusCode}: {text}");
-        Assert.Contains($"\"accepted\":{readings.Length}", text.Replace(" ", "", StringComparison.Ordinal), StringComparison.Ordinal);
+        return (response.StatusCode, await response.Content.ReadAsStringAsync());
     }
 
     /// <summary>Takes the server away at once, as a crash or a pulled cable would (the process is killed).</summary>
     public void Kill() => Stop(_process);
+
+    /// <summary>True once the process has ended (killed or exited).</summary>
+    public bool HasExited => _process.HasExited;
 
     public async ValueTask DisposeAsync()
     {
@@ -156,7 +190,10 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         Stop(_process);
         await _process.WaitForExitAsync().WaitAsync(TimeSpan.FromSeconds(10)).ConfigureAwait(false);
         _process.Dispose();
-        await Accounts.DisposeAsync();
+        if (_ownsAccounts)
+        {
+            await Accounts.DisposeAsync();
+        }
         TryDelete(DataFolder);
     }
 

@@ -31,12 +31,23 @@ public sealed class TestAccounts : IAsyncDisposable
 
     private TestAccounts(ServiceProvider services) => _services = services;
 
-    public static TestAccounts Open(string dataFolder)
+    // Pooling off: the test holds no connection once a call is done, so the server and the clean-up see the file free.
+    public static TestAccounts Open(string dataFolder) =>
+        Open(new ConfigurationBuilder().Build(), $"Data Source={Path.Combine(dataFolder, "opslvp.db")};Pooling=False");
+
+    /// <summary>The accounts and display links of a PostgreSQL database (<paramref name="connectionString"/>), as the nodes of a cluster share it.</summary>
+    public static TestAccounts OpenPostgres(string connectionString) =>
+        Open(new ConfigurationBuilder().AddInMemoryCollection(new Dictionary<string, string?>
+        {
+            [OpsLvpDatabase.ProviderSetting] = OpsLvpDatabase.PostgresProvider,
+            [OpsLvpDatabase.PostgresConnectionStringSetting] = new Npgsql.NpgsqlConnectionStringBuilder(connectionString) { Pooling = false }.ConnectionString,
+        }).Build(), null);
+
+    private static TestAccounts Open(IConfiguration configuration, string? defaultConnectionString)
     {
         var services = new ServiceCollection();
         services.AddLogging();
-        // Pooling off: the test holds no connection once a call is done, so the server and the clean-up see the file free.
-        services.AddOpsLvpData(new ConfigurationBuilder().Build(), $"Data Source={Path.Combine(dataFolder, "opslvp.db")};Pooling=False");
+        services.AddOpsLvpData(configuration, defaultConnectionString);
         services.AddIdentityCore<OpsLvpUser>(o =>
             {
                 // As AddAccess: length over composition (docs/access.md).

@@ -20,8 +20,7 @@ public sealed class WallThroughNginxTests
         await using var browser = await BrowserSession.LaunchAsync();
         await using var server = await OpsLvpServer.StartAsync();
         // The file's upstream has two servers; both are this one node here (one database, one display link). The
-        // two-node version, where the wall keeps updating after its node is killed, needs the nodes to share the
-        // database and the engine's leadership (docs/deployment.md "Several nodes: the design").
+        // two-node version, where the wall comes back live after its node is killed, is Cluster/WallFailoverThroughNginxTests.
         using var nginx = await NginxProcess.StartAsync([server.BaseAddress, server.BaseAddress]);
         var page = await browser.NewWallPageAsync();
 

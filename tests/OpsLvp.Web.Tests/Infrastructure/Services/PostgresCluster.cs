@@ -95,7 +95,7 @@ public sealed class PostgresCluster : IDisposable
         }
         catch (System.ComponentModel.Win32Exception)
         {
-            OpsLvpApp.TryDelete(Folder);
+            TryDeleteFolder(Folder);
         }
     }
 
@@ -135,8 +135,23 @@ public sealed class PostgresCluster : IDisposable
         {
             if (!File.Exists(Path.Combine(folder, "data", "postmaster.pid")) && Directory.GetLastWriteTimeUtc(folder) < DateTime.UtcNow.AddMinutes(-10))
             {
-                OpsLvpApp.TryDelete(folder);
+                TryDeleteFolder(folder);
             }
+        }
+    }
+
+    // Its own, not OpsLvpApp's: this file is shared as source with tests/OpsLvp.EndToEnd.Tests, which has no OpsLvpApp.
+    private static void TryDeleteFolder(string folder)
+    {
+        try
+        {
+            Directory.Delete(folder, recursive: true);
+        }
+        catch (IOException)
+        {
+        }
+        catch (UnauthorizedAccessException)
+        {
         }
     }
 
