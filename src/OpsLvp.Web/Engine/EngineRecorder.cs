@@ -150,9 +150,15 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     {
         foreach (var batch in batches)
         {
+            batch.Receipt?.Refuse(reason);
+            if (batch.InboxId is not null)
+            {
+                // a batch from the reading inbox is not refused: it stays queued and is taken again after the gap
+                // (docs/engine.md R74), so counting it at each retry would put refusals on record that never happened
+                continue;
+            }
             _refusedBatches++;
             _refusedReadings += batch.Readings.Count;
-            batch.Receipt?.Refuse(reason);
         }
     }
 

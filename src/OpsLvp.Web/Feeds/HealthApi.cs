@@ -1,5 +1,7 @@
+using System.Data.Common;
 using Microsoft.AspNetCore.Http.HttpResults;
 using Microsoft.Extensions.Options;
+using OpsLvp.Data.Stores;
 using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Live;
@@ -19,20 +21,24 @@ public static class HealthApi
 {
     public static IEndpointRouteBuilder MapHealthApi(this IEndpointRouteBuilder endpoints)
     {
-        endpoints.MapGet("/health", (HttpContext context) => TypedResults.Ok(Build(context.RequestServices)));
-        endpoints.MapGet("/health/ready", GetReady);
+        // cast to Delegate: a handler of HttpContext returning a Task of a result would bind as a RequestDelegate and drop the result
+        endpoints.MapGet("/health", (Delegate)GetAsync);
+        endpoints.MapGet("/health/ready", (Delegate)GetReadyAsync);
         return endpoints;
     }
 
-    private static Results<Ok<HealthResponse>, JsonHttpResult<HealthResponse>> GetReady(HttpContext context)
+    private static async Task<Ok<HealthResponse>> GetAsync(HttpContext context) =>
+        TypedResults.Ok(await BuildAsync(context.RequestServices, context.RequestAborted));
+
+    private static async Task<Results<Ok<HealthResponse>, JsonHttpResult<HealthResponse>>> GetReadyAsync(HttpContext context)
     {
-        var health = Build(context.RequestServices);
+        var health = await BuildAsync(context.RequestServices, context.RequestAborted);
         return health.Status == "ok"
             ? TypedResults.Ok(health)
             : TypedResults.Json(health, statusCode: StatusCodes.Status503ServiceUnavailable);
     }
 
-    private static HealthResponse Build(IServiceProvider services)
+    private static async Task<HealthResponse> BuildAsync(IServiceProvider services, CancellationToken cancellationToken)
     {
         var registry = services.GetRequiredService<FeedHealthRegistry>();
         var demo = services.GetRequiredService<DemoMode>();
@@ -41,7 +47,7 @@ public static class HealthApi
         var feeds = registry.Snapshot();
         var worst = feeds.Count == 0 ? FeedStatus.Ok : feeds.Max(f => f.Status);
         var engineHealth = engine.Health;
-        var node = Node(services);
+        var node = await WithInboxAsync(Node(services), services, cancellationToken);
         var reason = engineHealth.Stopped is { } stopped ? $"the engine is stopped: {stopped}"
             : engineHealth.NotRecordingSince is not null ? $"not recording: {engineHealth.AuditError ?? "storage failing"}"
             : !node.Live ? NotLiveReason(node, services)
@@ -85,6 +91,32 @@ public static class HealthApi
             forwarding?.Refusals ?? 0,
             forwarding?.LastRefusal);
     }
+
+    /// <summary>
+    /// With several nodes, how many pushed batches wait in the reading inbox and since when (a backlog that does not go
+    /// down means no leader takes them). Asked with a short timeout: a database that does not answer leaves the figure
+    /// unknown (null), and <c>/health</c> still answers.
+    /// </summary>
+    private static async Task<NodeHealth> WithInboxAsync(NodeHealth node, IServiceProvider services, CancellationToken cancellationToken)
+    {
+        if (node.Role == "single" || services.GetService<ReadingInboxStore>() is not { } inbox)
+        {
+            return node;
+        }
+        using var timeout = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
+        timeout.CancelAfter(s_inboxQueryTimeout);
+        try
+        {
+            var (batches, oldest) = await inbox.WaitingAsync(timeout.Token);
+            return node with { InboxWaiting = batches, InboxOldestReceivedAt = oldest };
+        }
+        catch (Exception ex) when (ex is OperationCanceledException or DbException or InvalidOperationException)
+        {
+            return node;
+        }
+    }
+
+    private static readonly TimeSpan s_inboxQueryTimeout = TimeSpan.FromSeconds(2);
 
     private static string NotLiveReason(NodeHealth node, IServiceProvider services)
     {

@@ -12,4 +12,7 @@ namespace OpsLvp.Web.Feeds;
 /// <param name="Live">False on a standby that has heard no leader state for <c>Cluster:LeaderSilence</c> (its screens say NOT LIVE, or it has nothing to show yet).</param>
 /// <param name="CommandsRefused">Forwarded commands this node refused while leading since it started: not sealed by this installation, stale, replayed or malformed (docs/engine.md R77).</param>
 /// <param name="LastCommandRefusal">Why the last one was refused, else null.</param>
-public sealed record NodeHealth(string Id, string Role, long? Epoch, string Fanout, DateTimeOffset? LastLeaderStateAt, bool Live, long CommandsRefused, string? LastCommandRefusal);
+/// <param name="InboxWaiting">Several nodes: reading batches pushed to a standby that wait in the reading inbox for the leader (docs/engine.md R73–R74); null on a single node or when the database did not answer.</param>
+/// <param name="InboxOldestReceivedAt">When the oldest of them was received (the receiving node's clock), else null.</param>
+public sealed record NodeHealth(string Id, string Role, long? Epoch, string Fanout, DateTimeOffset? LastLeaderStateAt, bool Live, long CommandsRefused, string? LastCommandRefusal,
+    int? InboxWaiting = null, DateTimeOffset? InboxOldestReceivedAt = null);

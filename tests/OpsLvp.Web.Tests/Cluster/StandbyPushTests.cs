@@ -1,4 +1,5 @@
 using System.Net;
+using System.Net.Http.Json;
 using System.Text;
 using System.Text.Json;
 using System.Threading.Channels;
@@ -149,6 +150,11 @@ public sealed class StandbyPushTests
                 Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-2), LiveTestProfile.Tdz, "rvr", 1100))).Status);
                 Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900))).Status);
                 Assert.Equal(2, await InboxCountAsync(db));
+                // the standby's /health says what waits, and since when (docs/deployment.md "Which node am I")
+                var health = await node.Client.GetFromJsonAsync<System.Text.Json.JsonElement>("/health");
+                var nodePart = health.GetProperty("node");
+                Assert.Equal(2, nodePart.GetProperty("inboxWaiting").GetInt32());
+                Assert.True(nodePart.GetProperty("inboxOldestReceivedAt").GetDateTimeOffset() <= DateTimeOffset.UtcNow);
                 using var readings = new ReadingStore(db.NewFactory());
                 Assert.Empty(await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5)));
                 Assert.Null(host.State);
