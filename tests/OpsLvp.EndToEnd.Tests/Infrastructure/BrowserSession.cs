@@ -60,6 +60,9 @@ public sealed class BrowserSession : IAsyncDisposable
             Locale = "en-GB",
             HasTouch = touch,
         });
+        // A page load waits up to 60 s, not Playwright's 30 s: on CI's two shared cores a server's first render of a
+        // page (JIT, first database reads) has taken longer than 30 s while another suite ran beside it.
+        context.SetDefaultNavigationTimeout(60_000);
         var page = await context.NewPageAsync();
         page.Console += (_, message) =>
         {
