@@ -76,7 +76,7 @@ public sealed class TamperCheck(AuditStore audit, AnchorKey key, AnchorLog log, 
 
     /// <summary>
     /// The entry of an append that carries the readings coverage: the first transition, else the first engine event
-    /// (its payload opens with <c>"event"</c>), else <c>engine_started</c>; null when the append has none of these.
+    /// (its payload opens with <c>"event"</c>), else <c>engine_started</c> or <c>readings_covered</c>; null when the append has none of these.
     /// </summary>
     public static int? CoveringIndex(IReadOnlyList<NewAuditEntry> entries)
     {
@@ -94,7 +94,7 @@ public sealed class TamperCheck(AuditStore audit, AnchorKey key, AnchorLog log, 
             {
                 engineEvent = i;
             }
-            if (started is null && e.Kind == "engine_started")
+            if (started is null && (e.Kind is "engine_started" or OpsLvp.Web.Engine.AuditEvents.ReadingsCovered))
             {
                 started = i;
             }

@@ -19,6 +19,13 @@ public static class AuditEvents
     /// <summary>The one entry a recording gap leaves: its start, end, cause and what was refused meanwhile (docs/reliability.md "Storage faults").</summary>
     public const string RecordingGap = "recording_gap";
 
+    /// <summary>
+    /// Covers the readings stored since the last covering entry when no transition or engine event did for
+    /// <see cref="EngineOptions.ReadingsCoverInterval"/> (docs/audit.md "Readings covered", docs/engine.md R79).
+    /// Its payload is only the <c>readingsCovered</c> member.
+    /// </summary>
+    public const string ReadingsCovered = "readings_covered";
+
     /// <summary>The readings prune started failing: the on-screen alarm was raised (docs/retention.md "When a run fails", docs/engine.md R78).</summary>
     public const string RetentionAlarmRaised = "retention_alarm_raised";
 

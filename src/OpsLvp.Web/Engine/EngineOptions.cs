@@ -21,6 +21,14 @@ public sealed class EngineOptions
     public TimeSpan StateFlushInterval { get; set; } = TimeSpan.FromSeconds(10);
 
     /// <summary>
+    /// Engine-clock time after which the readings stored since the last covering audit entry get a
+    /// <c>readings_covered</c> entry of their own, when no transition or engine event covered them meanwhile
+    /// (docs/audit.md "Readings covered", docs/engine.md R79). Bounds both the readings a restart digests and how long an
+    /// edited readings table can go unnoticed. 1 second to 24 hours.
+    /// </summary>
+    public TimeSpan ReadingsCoverInterval { get; set; } = TimeSpan.FromMinutes(15);
+
+    /// <summary>
     /// Set by an administrator to the audit head sequence named in a "state does not match the audit chain" stop, to
     /// start anyway (from the initial state; the acknowledgement is audited). docs/reliability.md "Tamper evidence".
     /// </summary>

@@ -19,7 +19,10 @@ namespace OpsLvp.Web.Engine;
 /// <see cref="EngineOptions.StateFlushInterval"/>. So a running dwell's start instant is durable before the
 /// evaluation that started it returns; after a kill only up to one flush interval of latest readings is lost.</para>
 /// </summary>
-internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore, TimeSpan stateFlushInterval, ILogger logger)
+/// <para>Readings cover rule (docs/engine.md R79): when readings were stored since the last covering entry and none
+/// covered them for <c>readingsCoverInterval</c> of engine time, the commit adds a <see cref="AuditEvents.ReadingsCovered"/>
+/// entry, so a restart digests at most about one interval of readings and an edited readings table shows within one.</para>
+internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore, TimeSpan stateFlushInterval, TimeSpan readingsCoverInterval, ILogger logger)
 {
     private static readonly TimeSpan s_resumeRetry = TimeSpan.FromSeconds(1);
 
@@ -29,6 +32,8 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     private int _refusedBatches;
     private long _refusedReadings;
     private long _readingsCoveredTo;
+    private DateTimeOffset _lastCoveredAt;
+    private bool _uncoveredStored;
 
     /// <summary>Why storage is failing; null while recording.</summary>
     public string? Error { get; private set; }
@@ -48,10 +53,13 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     /// Starts a run: <paramref name="written"/> is the state already in the database (null: write the first one);
     /// <paramref name="epoch"/> is the leadership epoch every append of the run carries (0: one node, unfenced; docs/engine.md R71).
     /// </summary>
-    public void Begin(EngineState? written, long readingsCoveredTo, long epoch)
+    /// <paramref name="now"/> (engine clock) starts the first readings cover interval.
+    public void Begin(EngineState? written, long readingsCoveredTo, long epoch, DateTimeOffset now)
     {
         _written = written;
         _readingsCoveredTo = readingsCoveredTo;
+        _lastCoveredAt = now;
+        _uncoveredStored = false;
         _epoch = epoch > 0 ? epoch : null;
         Error = null;
         FailingSince = null;
@@ -80,6 +88,7 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
         // batches from the reading inbox leave it in the transaction that stores their readings (docs/engine.md R74)
         var inbox = batches.Where(b => b.Batch.InboxId is not null).Select(b => b.Batch.InboxId!.Value).ToList();
         await readingStore.InsertAsync(rows, inbox.Count > 0 ? new InboxClaim(inbox, _epoch) : null, cancellationToken);
+        _uncoveredStored |= rows.Count > 0;
     }
 
     /// <summary>
@@ -89,6 +98,13 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     /// <exception cref="StaleEpochException">Another node has taken leadership; nothing was written.</exception>
     public async Task<IReadOnlyList<AuditEntry>?> CommitAsync(List<NewAuditEntry> entries, EngineState state, string profileVersion, DateTimeOffset now, DateTimeOffset realNow, CancellationToken cancellationToken)
     {
+        var covering = TamperCheck.CoveringIndex(entries);
+        if (covering is null && _uncoveredStored && now - _lastCoveredAt >= readingsCoverInterval)
+        {
+            // nothing else covered the stored readings for a whole interval (docs/engine.md R79)
+            entries.Add(AuditEvents.HostEntry(AuditEvents.ReadingsCovered, now, new { }));
+            covering = entries.Count - 1;
+        }
         var mustWrite = entries.Count > 0
             || _written is null
             || !Structural(state).Equals(Structural(_written))
@@ -101,11 +117,11 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
         IReadOnlyList<AuditEntry> committed;
         try
         {
-            if (TamperCheck.CoveringIndex(entries) is { } covering)
+            if (covering is { } at)
             {
                 // the readings received since the last covering entry, so an edited readings table shows (docs/audit.md "Readings covered")
                 var coverage = await readingStore.CoverAsync(_readingsCoveredTo, null, cancellationToken);
-                entries[covering] = entries[covering] with { PayloadJson = coverage.AddTo(entries[covering].PayloadJson) };
+                entries[at] = entries[at] with { PayloadJson = coverage.AddTo(entries[at].PayloadJson) };
                 coveredTo = coverage.To;
             }
             committed = await audit.AppendFencedAsync(
@@ -127,6 +143,11 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
         _written = state;
         _lastWriteReal = realNow;
         _readingsCoveredTo = coveredTo;
+        if (covering is not null)
+        {
+            _lastCoveredAt = now;
+            _uncoveredStored = false;
+        }
         return committed;
     }
 

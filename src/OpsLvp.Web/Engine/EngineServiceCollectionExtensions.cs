@@ -27,6 +27,7 @@ public static class EngineServiceCollectionExtensions
             .Validate(o => !string.IsNullOrWhiteSpace(o.ProfilePath), "Engine:ProfilePath must be set.")
             .Validate(o => o.TickInterval > TimeSpan.Zero && o.TickInterval <= TimeSpan.FromSeconds(1), "Engine:TickInterval must be between 00:00:00.001 and 00:00:01.")
             .Validate(o => o.StateFlushInterval > TimeSpan.Zero && o.StateFlushInterval <= TimeSpan.FromMinutes(5), "Engine:StateFlushInterval must be between 00:00:00.001 and 00:05:00.")
+            .Validate(o => o.ReadingsCoverInterval >= TimeSpan.FromSeconds(1) && o.ReadingsCoverInterval <= TimeSpan.FromHours(24), "Engine:ReadingsCoverInterval must be between 00:00:01 and 1.00:00:00 (how long readings may stay without a covering audit entry, docs/audit.md \"Readings covered\").")
             .ValidateOnStart();
         services.AddOptions<LiveOptions>()
             .Bind(configuration.GetSection(LiveOptions.SectionName))

@@ -49,7 +49,7 @@ public sealed class LiveEngineHost(
 
     private readonly SemaphoreSlim _gate = new(1, 1);
     private readonly EngineStartup _startup = new(options, paths, dbFactory, audit, readingStore, tamper, logger);
-    private readonly EngineRecorder _recorder = new(audit, readingStore, options.Value.StateFlushInterval, logger);
+    private readonly EngineRecorder _recorder = new(audit, readingStore, options.Value.StateFlushInterval, options.Value.ReadingsCoverInterval, logger);
     private readonly EnginePublisher _publisher = new(live, feeds, demo);
     private readonly FeedHealthJournal _feedJournal = new(feedsOptions.Value.HealthAuditInterval);
     private readonly CancellationTokenSource _stopping = new();
@@ -170,7 +170,7 @@ public sealed class LiveEngineHost(
         {
             hostEntries = [.. hostEntries, AuditEvents.HostEntry("leadership_taken", now, new { node = leadership.NodeId, epoch })];
         }
-        _recorder.Begin(restore.Written, restore.ReadingsCoveredTo, epoch);
+        _recorder.Begin(restore.Written, restore.ReadingsCoveredTo, epoch, now);
         _runEpoch = epoch;
         _evaluator = new EngineEvaluator(restore.Run!, restore.State!, _recorder, _publisher, feeds, _feedJournal, clock, realClock,
             logger, loggerFactory.CreateLogger(NightLog.Category), retentionAlarm);

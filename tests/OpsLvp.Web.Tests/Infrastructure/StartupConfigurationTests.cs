@@ -39,6 +39,14 @@ public sealed class StartupConfigurationTests
     }
 
     [Fact]
+    public void ReadingsCoverIntervalZero_StopsStart_NamingTheSetting()
+    {
+        var message = StartFailure(new() { ["Engine:ReadingsCoverInterval"] = "00:00:00" });
+
+        Assert.Contains("Engine:ReadingsCoverInterval must be between 00:00:01 and 1.00:00:00", message, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void MissingAssetsFolder_StopsStart_NamingTheSetting()
     {
         var message = StartFailure(new() { ["Assets:Folder"] = "no-such-assets-folder" });
