@@ -38,12 +38,7 @@ public sealed class ClusterSeal(IDataProtectionProvider provider)
             why = null;
             return protector.Unprotect(sealedText);
         }
-        catch (CryptographicException ex)
-        {
-            why = $"not sealed by a node of this installation ({ex.Message})";
-            return null;
-        }
-        catch (FormatException ex)
+        catch (Exception ex) when (ex is CryptographicException or FormatException)
         {
             why = $"not sealed by a node of this installation ({ex.Message})";
             return null;

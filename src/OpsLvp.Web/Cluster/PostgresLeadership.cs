@@ -225,36 +225,16 @@ public sealed class PostgresLeadership : ILeadership, ILeadershipElection, IDisp
         }
     }
 
-    private async Task<NpgsqlConnection> OpenAsync(CancellationToken cancellationToken)
-    {
-        string connectionString;
-        await using (var db = await _factory.CreateDbContextAsync(cancellationToken))
+    // a dedicated session: the advisory lock lives and dies with it
+    private Task<NpgsqlConnection> OpenAsync(CancellationToken cancellationToken) =>
+        DedicatedSession.OpenAsync(_factory, b =>
         {
-            connectionString = db.Database.GetConnectionString()
-                ?? throw new InvalidOperationException("no PostgreSQL connection string is configured");
-        }
-        var builder = new NpgsqlConnectionStringBuilder(connectionString)
-        {
-            // a dedicated session: the advisory lock lives and dies with it
-            Pooling = false,
-            KeepAlive = Math.Max(1, (int)_interval.TotalSeconds),
-            TcpKeepAlive = true,
-            TcpKeepAliveTime = 2,
-            TcpKeepAliveInterval = 1,
-            ApplicationName = ApplicationNamePrefix + NodeId,
-        };
-        var connection = new NpgsqlConnection(builder.ConnectionString);
-        try
-        {
-            await connection.OpenAsync(cancellationToken);
-        }
-        catch
-        {
-            await connection.DisposeAsync();
-            throw;
-        }
-        return connection;
-    }
+            b.KeepAlive = Math.Max(1, (int)_interval.TotalSeconds);
+            b.TcpKeepAlive = true;
+            b.TcpKeepAliveTime = 2;
+            b.TcpKeepAliveInterval = 1;
+            b.ApplicationName = ApplicationNamePrefix + NodeId;
+        }, cancellationToken);
 
     /// <summary>Closes the session (freeing the lock) and, if leading, steps down with <paramref name="reason"/>.</summary>
     private void Lose(string? reason)

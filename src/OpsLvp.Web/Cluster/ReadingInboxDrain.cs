@@ -230,34 +230,14 @@ public sealed class ReadingInboxDrain(
         }
     }
 
-    private async Task<NpgsqlConnection> OpenAsync(CancellationToken cancellationToken)
-    {
-        string connectionString;
-        await using (var db = await dbFactory.CreateDbContextAsync(cancellationToken))
+    // a dedicated session for LISTEN, kept alive; not from the pool
+    private Task<NpgsqlConnection> OpenAsync(CancellationToken cancellationToken) =>
+        DedicatedSession.OpenAsync(dbFactory, b =>
         {
-            connectionString = db.Database.GetConnectionString()
-                ?? throw new InvalidOperationException("no PostgreSQL connection string is configured");
-        }
-        var builder = new NpgsqlConnectionStringBuilder(connectionString)
-        {
-            // a dedicated session for LISTEN, kept alive; not from the pool
-            Pooling = false,
-            KeepAlive = 5,
-            TcpKeepAlive = true,
-            ApplicationName = ApplicationNamePrefix + leadership.NodeId,
-        };
-        var connection = new NpgsqlConnection(builder.ConnectionString);
-        try
-        {
-            await connection.OpenAsync(cancellationToken);
-        }
-        catch
-        {
-            await connection.DisposeAsync();
-            throw;
-        }
-        return connection;
-    }
+            b.KeepAlive = 5;
+            b.TcpKeepAlive = true;
+            b.ApplicationName = ApplicationNamePrefix + leadership.NodeId;
+        }, cancellationToken);
 
     public override void Dispose()
     {

@@ -93,8 +93,7 @@ public static class ReadingsApi
 
         if (engine.Health.Stopped is { } stopped)
         {
-            context.Response.Headers.RetryAfter = "60";
-            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored: the engine is stopped: {stopped}");
+            return RetryLater(context, $"not stored: the engine is stopped: {stopped}", retryAfterSeconds: 60);
         }
         if (engine.IsStandby)
         {
@@ -107,8 +106,7 @@ public static class ReadingsApi
         if (!pipeline.TrySubmit(parsed.ToBatch(source, clock.GetUtcNow()) with { Receipt = receipt }))
         {
             loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} refused: reading pipeline full", source);
-            context.Response.Headers.RetryAfter = "5";
-            return Error(StatusCodes.Status503ServiceUnavailable, "reading pipeline is full; retry later");
+            return RetryLater(context, "reading pipeline is full; retry later");
         }
         if (receipt is not null)
         {
@@ -116,8 +114,7 @@ public static class ReadingsApi
             if (!outcome.Stored)
             {
                 loggers.CreateLogger(typeof(ReadingsApi).FullName!).LogWarning("Push from {Source} not stored: {Reason}", source, outcome.Reason);
-                context.Response.Headers.RetryAfter = "5";
-                return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {outcome.Reason}");
+                return RetryLater(context, $"not stored, retry later: {outcome.Reason}");
             }
         }
 
@@ -141,8 +138,7 @@ public static class ReadingsApi
         if (!inbox.IsAvailable)
         {
             // a standby without an inbox stores nothing itself (docs/engine.md R70): not acknowledged, the feed sends them again
-            context.Response.Headers.RetryAfter = "5";
-            return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {LiveEngineHost.StandbyText}");
+            return RetryLater(context, $"not stored, retry later: {LiveEngineHost.StandbyText}");
         }
         var receivedAt = clock.GetUtcNow();
         var items = Screen(parsed, engine.Profile, receivedAt);
@@ -165,8 +161,7 @@ public static class ReadingsApi
             {
                 var reason = $"the reading inbox could not be written: {EngineRecorder.Describe(ex)}";
                 logger.LogWarning("Push from {Source} to standby {Node} not stored: {Reason}", source, leadership.NodeId, reason);
-                context.Response.Headers.RetryAfter = "5";
-                return Error(StatusCodes.Status503ServiceUnavailable, $"not stored, retry later: {reason}");
+                return RetryLater(context, $"not stored, retry later: {reason}");
             }
         }
         health.RecordSuccess(source, answer.Accepted, answer.Rejected.Count);
@@ -274,4 +269,11 @@ public static class ReadingsApi
     }
 
     private static JsonHttpResult<ApiError> Error(int status, string error) => TypedResults.Json(new ApiError(error), statusCode: status);
+
+    /// <summary>503 with <paramref name="error"/> and <c>Retry-After</c>: nothing was acknowledged, the feed keeps the readings and sends them again.</summary>
+    private static JsonHttpResult<ApiError> RetryLater(HttpContext context, string error, int retryAfterSeconds = 5)
+    {
+        context.Response.Headers.RetryAfter = retryAfterSeconds.ToString(System.Globalization.CultureInfo.InvariantCulture);
+        return Error(StatusCodes.Status503ServiceUnavailable, error);
+    }
 }
