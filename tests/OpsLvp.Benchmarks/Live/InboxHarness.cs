@@ -36,6 +36,9 @@ public static class InboxHarness
 
     private const int PoolSize = 40;
 
+    /// <summary>The paced runs' interval between batches (20 a second).</summary>
+    public static readonly TimeSpan PacedEvery = TimeSpan.FromMilliseconds(50);
+
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
     {
         var batches = options.Quick ? 200 : 2000;
@@ -63,6 +66,11 @@ public static class InboxHarness
             var viaStandby = await MeasureAsync(standby, key, database, batches, readingsPerBatch, firstMarker: 2000);
             Progress($"{batches} batches of {readingsPerBatch} readings to the leader");
             var direct = await MeasureAsync(leader, key, database, batches, readingsPerBatch, firstMarker: 6000);
+            // the hop itself, without a queue: one sender, one batch every PacedEvery (well under either path's rate)
+            var paced = options.Quick ? 50 : 200;
+            Progress($"{paced} batches, one every {PacedEvery.TotalMilliseconds:0} ms, to the standby and to the leader");
+            var pacedStandby = await MeasureAsync(standby, key, database, paced, readingsPerBatch, firstMarker: 9000, senders: 1, pace: PacedEvery);
+            var pacedDirect = await MeasureAsync(leader, key, database, paced, readingsPerBatch, firstMarker: 9500, senders: 1, pace: PacedEvery);
 
             foreach (var (path, m) in new[] { ("to the standby, through the inbox", viaStandby), ("to the leader directly", direct) })
             {
@@ -70,6 +78,16 @@ public static class InboxHarness
                 book.Add(new ResultRow(section, $"{path}: answered 202, readings/s ({m.Batches * readingsPerBatch} readings)", Rate(m.Batches * readingsPerBatch, m.AnsweredSeconds), null, null, null, null, command));
                 book.Add(new ResultRow(section, $"{path}: stored by the leader, batches/s (first send to last batch in the readings table)", Rate(m.Batches, m.StoredSeconds), null, null, null, null, command));
                 book.Add(new ResultRow(section, $"{path}: stored by the leader, readings/s", Rate(m.Batches * readingsPerBatch, m.StoredSeconds), null, null, null, null, command));
+                book.Add(new ResultRow(section, $"{path}: stored by the leader, batches/s between the first and the last batch seen stored", Rate(m.Batches - 1, m.StoringSeconds), null, null, null, null, command));
+                book.Add(new ResultRow(section, $"{path}: send → 202, per batch: {m.Answered}", Ms(m.Answered.P99), null, null, null, null, command));
+                book.Add(new ResultRow(section, $"{path}: send → in the leader's store, per batch: {m.Stored}", Ms(m.Stored.P99), null, null, null, null, command));
+                if (m.AnswerToStored is { } wait)
+                {
+                    book.Add(new ResultRow(section, $"{path}: 202 → in the leader's store, per batch: {wait}", Ms(wait.P99), null, null, null, null, command));
+                }
+            }
+            foreach (var (path, m) in new[] { ("paced, to the standby", pacedStandby), ("paced, to the leader directly", pacedDirect) })
+            {
                 book.Add(new ResultRow(section, $"{path}: send → 202, per batch: {m.Answered}", Ms(m.Answered.P99), null, null, null, null, command));
                 book.Add(new ResultRow(section, $"{path}: send → in the leader's store, per batch: {m.Stored}", Ms(m.Stored.P99), null, null, null, null, command));
                 if (m.AnswerToStored is { } wait)
@@ -78,7 +96,7 @@ public static class InboxHarness
                 }
             }
             book.Note(string.Create(CultureInfo.InvariantCulture,
-                $"inbox: {batches} batches of {readingsPerBatch} readings (the demo profile's 4 RVR-reporting sensors, invented values) per path, {Senders} concurrent senders; leader {leader.Services.GetRequiredService<ILeadership>().NodeId}, standby {standby.Services.GetRequiredService<ILeadership>().NodeId}; Cluster:InboxPollInterval default (2 s; the NOTIFY wakes the leader first); readings table polled every {PollEvery.TotalMilliseconds:0} ms (store times late by up to that); non-2xx answers: standby {viaStandby.Failures}, leader {direct.Failures}; one PostgreSQL cluster on loopback, both nodes and the senders in one process."));
+                $"inbox: {batches} batches of {readingsPerBatch} readings (the demo profile's 4 RVR-reporting sensors, invented values) per path, {Senders} concurrent senders; leader {leader.Services.GetRequiredService<ILeadership>().NodeId}, standby {standby.Services.GetRequiredService<ILeadership>().NodeId}; Cluster:InboxPollInterval default (2 s; the NOTIFY wakes the leader first); readings table polled every {PollEvery.TotalMilliseconds:0} ms (store times late by up to that); paced rows: {paced} batches, one sender, one batch every {PacedEvery.TotalMilliseconds:0} ms; non-2xx answers: standby {viaStandby.Failures + pacedStandby.Failures}, leader {direct.Failures + pacedDirect.Failures}; one PostgreSQL cluster on loopback, both nodes and the senders in one process."));
         }
         finally
         {
@@ -87,11 +105,11 @@ public static class InboxHarness
         }
     }
 
-    private sealed record Measurement(int Batches, double AnsweredSeconds, double StoredSeconds, Latencies Answered, Latencies Stored, Latencies? AnswerToStored, int Failures);
+    private sealed record Measurement(int Batches, double AnsweredSeconds, double StoredSeconds, double StoringSeconds, Latencies Answered, Latencies Stored, Latencies? AnswerToStored, int Failures);
 
-    private static async Task<Measurement> MeasureAsync(BenchServer target, string key, string database, int batches, int readingsPerBatch, int firstMarker)
+    private static async Task<Measurement> MeasureAsync(BenchServer target, string key, string database, int batches, int readingsPerBatch, int firstMarker, int senders = Senders, TimeSpan? pace = null)
     {
-        using var http = new HttpClient(new SocketsHttpHandler { MaxConnectionsPerServer = Senders }) { Timeout = TimeSpan.FromSeconds(60) };
+        using var http = new HttpClient(new SocketsHttpHandler { MaxConnectionsPerServer = senders }) { Timeout = TimeSpan.FromSeconds(60) };
         var clock = Stopwatch.StartNew();
         var sent = new double[batches];
         var answered = new double[batches];
@@ -141,9 +159,13 @@ public static class InboxHarness
                     Interlocked.Increment(ref failures);
                     await Task.Delay(TimeSpan.FromMilliseconds(200));
                 }
+                if (pace is { } every)
+                {
+                    await Task.Delay(every);
+                }
             }
         }
-        await Task.WhenAll(Enumerable.Range(0, Senders).Select(_ => Task.Run(SendAsync)));
+        await Task.WhenAll(Enumerable.Range(0, senders).Select(_ => Task.Run(SendAsync)));
         var lastAnswer = answered.Max();
         var deadline = clock.Elapsed + TimeSpan.FromMinutes(5);
         while (stored.Count < batches)
@@ -163,6 +185,7 @@ public static class InboxHarness
             batches,
             (lastAnswer - start) / 1000,
             (storedAt.Max() - start) / 1000,
+            (storedAt.Max() - storedAt.Min()) / 1000,
             new Latencies(Enumerable.Range(0, batches).Select(i => answered[i] - sent[i]).ToList()),
             new Latencies(toStore),
             target.Services.GetRequiredService<ILeadership>().IsLeader ? null : new Latencies(answerToStore),
