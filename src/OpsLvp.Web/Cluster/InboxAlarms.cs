@@ -11,7 +11,8 @@ namespace OpsLvp.Web.Cluster;
 /// <item><c>inbox-behind</c> while the oldest waiting batch is older than <c>Cluster:InboxAlarmAfter</c>, cleared as
 /// soon as it is not (one alarm, its text follows the count: no flood);</item>
 /// <item><c>inbox-batch-set-aside</c> when a failing batch was set aside, shown for <see cref="SetAsideShownFor"/> after
-/// the last one (its text names the last batch and how many were set aside; each has its audit entry).</item>
+/// the last one (its text names the last batch and how many were set aside; each has its audit entry). A batch set
+/// aside while it shows updates its text and keeps its time, so a screen's chime sounds once, not once a batch.</item>
 /// </list>
 /// In memory on the node that leads, like the clock and retention alarms: a new leader starts without them.
 /// </summary>
@@ -28,6 +29,7 @@ public sealed class InboxAlarms
     private Alarm? _behind;
     private Alarm? _setAside;
     private long _setAsideCount;
+    private DateTimeOffset _lastSetAsideAt;
 
     /// <summary>Batches this node set aside since its start.</summary>
     public long SetAsideCount
@@ -51,7 +53,7 @@ public sealed class InboxAlarms
             {
                 alarms.Add(behind);
             }
-            if (_setAside is { } setAside && now - setAside.RaisedAt < SetAsideShownFor)
+            if (_setAside is { } setAside && now - _lastSetAsideAt < SetAsideShownFor)
             {
                 alarms.Add(setAside);
             }
@@ -91,7 +93,9 @@ public sealed class InboxAlarms
             var more = _setAsideCount > 1 ? string.Create(CultureInfo.InvariantCulture, $" ({_setAsideCount} set aside since this node started)") : "";
             var message = string.Create(CultureInfo.InvariantCulture,
                 $"reading batch {inboxId} received {AuditCanonical.FormatTime(receivedAt)} on {node} ({readings} reading(s)) could not be evaluated and was set aside, not evaluated: {error}{more}; its content is in the audit entry inbox_batch_set_aside");
-            _setAside = new Alarm(SetAsideKey, AlarmKind.InboxBatchSetAside, message, now);
+            var shown = _setAside is not null && now - _lastSetAsideAt < SetAsideShownFor;
+            _setAside = shown ? _setAside! with { Message = message } : new Alarm(SetAsideKey, AlarmKind.InboxBatchSetAside, message, now);
+            _lastSetAsideAt = now;
         }
     }
 }
