@@ -183,8 +183,10 @@ public sealed class ReadingInboxDrain(
         {
             outcome = await engine.EvaluateInboxAsync(batches, cancellationToken);
         }
-        catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
+        catch (Exception ex) when ((ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested) && !IsInfrastructure(ex))
         {
+            // a database or network failure (a restore that could not read, a connection lost) is not the batch's
+            // fault: it goes to the throttled "not drained" warning and counts no attempt
             return await FailedAsync(rows, ex, cancellationToken);
         }
         if (!outcome.Committed)
@@ -227,6 +229,27 @@ public sealed class ReadingInboxDrain(
         }
         var (waiting, _) = await inbox.WaitingAsync(cancellationToken);
         alarms.Behind(Math.Max(waiting, 1), head.ReceivedAt, head.NodeId, now);
+    }
+
+    /// <summary>
+    /// True when <paramref name="ex"/> is the database or the network failing rather than the batch: a
+    /// <see cref="System.Data.Common.DbException"/> (other than the data or integrity errors the evaluation reports as
+    /// <see cref="InboxBatchFaultException"/>), a timeout, or an I/O or socket error, anywhere in it.
+    /// </summary>
+    internal static bool IsInfrastructure(Exception ex)
+    {
+        if (ex is InboxBatchFaultException)
+        {
+            return false;
+        }
+        for (var e = ex; e is not null; e = e.InnerException)
+        {
+            if (e is System.Data.Common.DbException or TimeoutException or IOException or System.Net.Sockets.SocketException)
+            {
+                return true;
+            }
+        }
+        return false;
     }
 
     /// <summary>

@@ -48,4 +48,15 @@ public sealed class InboxAlarmsTests
         alarms.SetAside(43, "node-b", At.AddMinutes(59), 1, "invented", At.AddMinutes(60));
         Assert.Equal(At.AddMinutes(60), Assert.Single(alarms.Current(At.AddMinutes(60))).RaisedAt);
     }
+
+    [Fact]
+    public void DatabaseAndNetworkFailures_AreNotTheBatchsFault_DataAndIntegrityErrorsAndEngineFaultsAre()
+    {
+        // a connection that failed (Npgsql wraps the socket error), a timeout: no attempt is counted against the batch
+        Assert.True(ReadingInboxDrain.IsInfrastructure(new Npgsql.NpgsqlException("invented: connection lost", new System.Net.Sockets.SocketException())));
+        Assert.True(ReadingInboxDrain.IsInfrastructure(new InvalidOperationException("invented", new TimeoutException())));
+        // the database refusing the batch's rows, and any other fault of its evaluation, are
+        Assert.False(ReadingInboxDrain.IsInfrastructure(new OpsLvp.Web.Engine.InboxBatchFaultException("invented", new Npgsql.NpgsqlException("invented"))));
+        Assert.False(ReadingInboxDrain.IsInfrastructure(new InvalidOperationException("invented engine fault")));
+    }
 }
