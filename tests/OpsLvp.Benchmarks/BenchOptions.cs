@@ -3,16 +3,17 @@ namespace OpsLvp.Benchmarks;
 /// <summary>
 /// Command line: <c>[--quick] [--only engine,audit,review,push,circuits,pg-audit,anchors,year] [--days N] [--out FOLDER] [--data-dir FOLDER]</c>.
 /// The <c>year</c> suite (a database filled with <see cref="Days"/> days of readings, issue 16) and <c>push-ha</c> (push
-/// latency through two nodes and Redis, issue 16; needs PostgreSQL and redis-server) run only when named.
+/// latency through two nodes and Redis, issue 16; needs PostgreSQL and redis-server) and <c>inbox</c> (the reading
+/// inbox's throughput through two nodes, issue 16; needs PostgreSQL) run only when named.
 /// </summary>
 public sealed record BenchOptions
 {
-    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits", "pg-audit", "anchors", "year", "push-ha"];
+    public static readonly string[] Suites = ["engine", "audit", "review", "push", "circuits", "pg-audit", "anchors", "year", "push-ha", "inbox"];
 
     /// <summary>Few iterations and small harness counts; the whole run stays under 3 minutes.</summary>
     public bool Quick { get; init; }
 
-    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites.Where(s => s is not "year" and not "push-ha"));
+    public IReadOnlySet<string> Only { get; init; } = new HashSet<string>(Suites.Where(s => s is not "year" and not "push-ha" and not "inbox"));
 
     /// <summary>Days of 15-second readings the <c>year</c> suite fills (365: about 23 million rows).</summary>
     public int Days { get; init; } = 365;

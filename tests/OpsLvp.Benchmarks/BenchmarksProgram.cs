@@ -161,6 +161,18 @@ public static class BenchmarksProgram
             }
         }
 
+        if (options.Runs("inbox"))
+        {
+            try
+            {
+                await OpsLvp.Benchmarks.Live.InboxHarness.RunAsync(options, book, Command("inbox"));
+            }
+            catch (Exception ex) when (ex is TimeoutException or InvalidOperationException or HttpRequestException or System.Data.Common.DbException)
+            {
+                book.Note($"inbox: not measured on this run: {ex.GetType().Name}: {ex.Message.ReplaceLineEndings(" ")}");
+            }
+        }
+
         if (options.Runs("circuits"))
         {
             try

@@ -18,4 +18,8 @@ public enum AlarmKind
     CapabilityDowngrade,
     /// <summary>Raised by the host, not the engine, while pruning old readings (<c>Retention:ReadingsDays</c>) fails (docs/engine.md R78).</summary>
     RetentionFailing,
+    /// <summary>Raised by the leader while reading batches pushed to other nodes wait in the reading inbox longer than <c>Cluster:InboxAlarmAfter</c> (docs/engine.md R81).</summary>
+    InboxBehind,
+    /// <summary>Raised by the leader when it set a failing reading batch of the inbox aside (docs/engine.md R82).</summary>
+    InboxBatchSetAside,
 }

@@ -18,6 +18,8 @@ public static class AlarmWords
         AlarmKind.ClockRegression => "Clock stepped back",
         AlarmKind.CapabilityDowngrade => "Runway capability down",
         AlarmKind.RetentionFailing => "Readings retention failing",
+        AlarmKind.InboxBehind => "Readings from other nodes waiting",
+        AlarmKind.InboxBatchSetAside => "Reading batch set aside",
         _ => kind.ToString(),
     };
 

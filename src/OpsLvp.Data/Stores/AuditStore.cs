@@ -55,9 +55,15 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
     /// lock, that the epoch is the current one in <c>engine_leadership</c> and writes nothing otherwise. Null (and any
     /// epoch on SQLite, which has one node) appends unfenced.
     /// </summary>
+    /// <remarks>
+    /// With <paramref name="removeInbox"/> (PostgreSQL only) the same transaction deletes those <c>reading_inbox</c> rows
+    /// after the epoch check, and writes nothing when any of them is gone: the leader sets a failing batch aside with
+    /// its audit entry in one commit (docs/engine.md R82).
+    /// </remarks>
     /// <exception cref="StaleEpochException">Another node has taken leadership: nothing was written; stop evaluating.</exception>
+    /// <exception cref="InboxClaimLostException">A row of <paramref name="removeInbox"/> is gone: nothing was written.</exception>
     /// <exception cref="AuditCommitException">The database refused or failed the commit: nothing was written; do not apply the action.</exception>
-    public async Task<IReadOnlyList<AuditEntry>> AppendFencedAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state, long? epoch, CancellationToken cancellationToken = default)
+    public async Task<IReadOnlyList<AuditEntry>> AppendFencedAsync(IReadOnlyList<NewAuditEntry> entries, EngineStateWrite? state, long? epoch, CancellationToken cancellationToken = default, IReadOnlyList<long>? removeInbox = null)
     {
         ArgumentNullException.ThrowIfNull(entries);
         var pending = new PendingAuditEntry[entries.Count];
@@ -75,11 +81,15 @@ public sealed class AuditStore(IDbContextFactory<OpsLvpDbContext> factory, IStat
         {
             return [];
         }
+        if (removeInbox is { Count: > 0 } && !_provider.IsPostgres)
+        {
+            throw new InvalidOperationException("the reading inbox is used with PostgreSQL only (several nodes)");
+        }
 
         try
         {
             return _provider.IsPostgres
-                ? await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.AppendAuditAsync(session, pending, state, sealer, epoch, ct), cancellationToken)
+                ? await _postgresWriter.RunAsync((session, ct) => PostgresHotPath.AppendAuditAsync(session, pending, state, sealer, epoch, ct, removeInbox), cancellationToken)
                 : await _writer.RunAsync(session => Append(session, pending, state, sealer), cancellationToken);
         }
         catch (Exception ex) when (ex is DbUpdateException or DbException or InvalidOperationException)

@@ -44,7 +44,8 @@ internal static class PostgresHotPath
     /// <see cref="StaleEpochException"/> (docs/engine.md R71): a takeover increments the epoch under the same lock, so
     /// an old leader's append either committed before it or is refused.
     /// </summary>
-    public static async Task<IReadOnlyList<AuditEntry>> AppendAuditAsync(PostgresWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state, IStateSealer? sealer, long? epoch, CancellationToken cancellationToken)
+    /// <remarks>With <paramref name="removeInbox"/> it also deletes those inbox rows, writing nothing when any is gone (docs/engine.md R82).</remarks>
+    public static async Task<IReadOnlyList<AuditEntry>> AppendAuditAsync(PostgresWriter.Session session, PendingAuditEntry[] entries, EngineStateWrite? state, IStateSealer? sealer, long? epoch, CancellationToken cancellationToken, IReadOnlyList<long>? removeInbox = null)
     {
         await using var transaction = await session.Connection.BeginTransactionAsync(cancellationToken);
         var lockCommand = await session.CommandAsync(LockSql, transaction, cancellationToken);
@@ -57,6 +58,17 @@ internal static class PostgresHotPath
             {
                 await transaction.RollbackAsync(cancellationToken);
                 throw new StaleEpochException(fence, current);
+            }
+        }
+        if (removeInbox is { Count: > 0 })
+        {
+            var delete = await session.CommandAsync(DeleteInboxSql, transaction, cancellationToken, NpgsqlDbType.Array | NpgsqlDbType.Bigint);
+            PostgresWriter.Session.Bind(delete, removeInbox.ToArray());
+            var deleted = await delete.ExecuteNonQueryAsync(cancellationToken);
+            if (deleted != removeInbox.Count)
+            {
+                await transaction.RollbackAsync(cancellationToken);
+                throw new InboxClaimLostException(removeInbox.Count, deleted);
             }
         }
         AuditChainHead? head = null;

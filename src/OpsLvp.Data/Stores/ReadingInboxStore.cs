@@ -20,6 +20,12 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
     private const string EnqueueSql =
         "INSERT INTO reading_inbox (received_at, source, node_id, body, accepted, rejected) VALUES ($1, $2, $3, $4, $5, $6) RETURNING id";
 
+    private const string EnqueueBoundedSql =
+        "INSERT INTO reading_inbox (received_at, source, node_id, body, accepted, rejected) SELECT $1, $2, $3, $4, $5, $6 "
+        + "WHERE (SELECT count(*) FROM reading_inbox) < $7 RETURNING id";
+
+    private const string CountSql = "SELECT count(*) FROM reading_inbox";
+
     private const string NotifySql = "SELECT pg_notify('" + NotifyChannel + "', $1)";
 
     private readonly ProviderProbe _provider = new(factory);
@@ -33,9 +39,20 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
     /// Returns the row's id.
     /// </summary>
     /// <exception cref="InvalidOperationException">The database is not PostgreSQL.</exception>
-    public async Task<long> EnqueueAsync(ReadingInboxRow row, CancellationToken cancellationToken = default)
+    public async Task<long> EnqueueAsync(ReadingInboxRow row, CancellationToken cancellationToken = default) =>
+        (await TryEnqueueAsync(row, int.MaxValue, cancellationToken)).Id!.Value;
+
+    /// <summary>
+    /// As <see cref="EnqueueAsync"/>, unless <paramref name="maxBatches"/> batches or more wait already: then nothing is
+    /// stored and the answer has no id and how many wait (docs/engine.md R80). The count is taken by the insert itself,
+    /// so pushes to several standbys at the same instant can each see room for one more: the inbox may exceed the limit
+    /// by the pushes in flight at that instant, never more.
+    /// </summary>
+    /// <exception cref="InvalidOperationException">The database is not PostgreSQL.</exception>
+    public async Task<(long? Id, int Waiting)> TryEnqueueAsync(ReadingInboxRow row, int maxBatches, CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(row);
+        ArgumentOutOfRangeException.ThrowIfLessThan(maxBatches, 1);
         if (!IsAvailable)
         {
             throw new InvalidOperationException("the reading inbox is used with PostgreSQL only (several nodes)");
@@ -45,7 +62,8 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
         var connection = (NpgsqlConnection)db.Database.GetDbConnection();
         await using var transaction = await connection.BeginTransactionAsync(cancellationToken);
         long id;
-        await using (var insert = new NpgsqlCommand(EnqueueSql, connection, transaction))
+        var bounded = maxBatches < int.MaxValue;
+        await using (var insert = new NpgsqlCommand(bounded ? EnqueueBoundedSql : EnqueueSql, connection, transaction))
         {
             insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = UtcTextConverter.Format(row.ReceivedAt) });
             insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = row.Source });
@@ -53,7 +71,18 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
             insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = row.Body });
             insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Integer, Value = row.Accepted });
             insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Integer, Value = row.Rejected });
-            id = (long)(await insert.ExecuteScalarAsync(cancellationToken))!;
+            if (bounded)
+            {
+                insert.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Bigint, Value = (long)maxBatches });
+            }
+            if (await insert.ExecuteScalarAsync(cancellationToken) is not long inserted)
+            {
+                await transaction.RollbackAsync(cancellationToken);
+                await using var count = new NpgsqlCommand(CountSql, connection);
+                var waiting = (long)(await count.ExecuteScalarAsync(cancellationToken))!;
+                return (null, (int)Math.Min(waiting, int.MaxValue));
+            }
+            id = inserted;
         }
         await using (var notify = new NpgsqlCommand(NotifySql, connection, transaction))
         {
@@ -62,7 +91,7 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
         }
         await transaction.CommitAsync(cancellationToken);
         row.Id = id;
-        return id;
+        return (id, 0);
     }
 
     /// <summary>The first <paramref name="limit"/> waiting rows, oldest (lowest id) first.</summary>

@@ -35,6 +35,12 @@ public static class AuditEvents
     /// <summary>A later prune succeeded: the retention alarm was cleared.</summary>
     public const string RetentionAlarmCleared = "retention_alarm_cleared";
 
+    /// <summary>
+    /// The leader set a reading batch of the inbox aside after its evaluation failed <c>Cluster:InboxSetAsideAfter</c>
+    /// times (docs/engine.md R82): batch id, node, received time, reading count, the error and the body (bounded).
+    /// </summary>
+    public const string InboxBatchSetAside = "inbox_batch_set_aside";
+
     /// <summary>Rejected readings and forecasts are logged, not audited (a feed may repeat them every poll; docs/engine.md R25).</summary>
     public static bool IsAudited(EngineEvent e) => e is not ReadingRejected and not ForecastRejected;
 

@@ -23,7 +23,8 @@ internal sealed class EngineEvaluator(
     TimeProvider realClock,
     ILogger logger,
     ILogger night,
-    OpsLvp.Web.Retention.RetentionAlarm? retentionAlarm = null)
+    OpsLvp.Web.Retention.RetentionAlarm? retentionAlarm = null,
+    OpsLvp.Web.Cluster.InboxAlarms? inboxAlarms = null)
 {
     /// <summary>The engine's time may lead the clock by this much (a commit and a read of the clock race) before it counts as the clock stepping back.</summary>
     private static readonly TimeSpan s_clockTolerance = TimeSpan.FromSeconds(2);
@@ -40,7 +41,12 @@ internal sealed class EngineEvaluator(
     /// <summary>App-clock instant of the last committed evaluation.</summary>
     public DateTimeOffset? LastEvaluationAt { get; private set; }
 
-    public async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    /// <summary>
+    /// One evaluation. <paramref name="removeInbox"/>: reading inbox rows the commit deletes with its audit entries (a
+    /// batch set aside, docs/engine.md R82).
+    /// </summary>
+    /// <exception cref="InboxBatchFaultException">Inbox batches the database refused for their content; nothing was written and recording goes on.</exception>
+    public async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken, IReadOnlyList<long>? removeInbox = null)
     {
         var engine = run.Engine;
         var now = clock.GetUtcNow();
@@ -153,6 +159,13 @@ internal sealed class EngineEvaluator(
                 recorder.Refuse(batches, ex.Message);
                 return new EvaluationOutcome(false, result.Events, [], ex.Message);
             }
+            catch (Exception ex) when (batches.All(b => b.InboxId is not null) && InboxBatchFaultException.IsBatchFault(ex))
+            {
+                // the database refuses these inbox batches for their content (a data or constraint error), not for
+                // its own state: recording goes on, and the drain tries the head batch alone and then sets it aside
+                // (docs/engine.md R82) instead of stopping the recording of everything else
+                throw new InboxBatchFaultException(EngineRecorder.Describe(ex), ex);
+            }
             catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)
             {
                 recorder.StopRecording(now, $"readings not stored: {EngineRecorder.Describe(ex)}", ex);
@@ -172,7 +185,7 @@ internal sealed class EngineEvaluator(
         entries.AddRange(feedChanges.Select(c => c.Entry));
 
         var next = result.State;
-        if (await recorder.CommitAsync(entries, next, engine.Profile.Version, now, realNow, cancellationToken) is not { } committed)
+        if (await recorder.CommitAsync(entries, next, engine.Profile.Version, now, realNow, cancellationToken, removeInbox) is not { } committed)
         {
             recorder.Refuse(batches, recorder.Error!);
             Publish(old, now, realNow, force: true);
@@ -213,6 +226,10 @@ internal sealed class EngineEvaluator(
         if (retentionAlarm?.Current is { } retention)
         {
             hostAlarms.Add(retention);
+        }
+        if (inboxAlarms is not null)
+        {
+            hostAlarms.AddRange(inboxAlarms.Current(now));
         }
         publisher.Publish(run, state, now, realNow, force, hostAlarms, recorder.Recording);
     }

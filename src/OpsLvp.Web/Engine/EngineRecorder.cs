@@ -96,7 +96,8 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
     /// committed (empty when nothing had to be written), or null when the commit failed: recording has stopped then.
     /// </summary>
     /// <exception cref="StaleEpochException">Another node has taken leadership; nothing was written.</exception>
-    public async Task<IReadOnlyList<AuditEntry>?> CommitAsync(List<NewAuditEntry> entries, EngineState state, string profileVersion, DateTimeOffset now, DateTimeOffset realNow, CancellationToken cancellationToken)
+    /// <exception cref="InboxClaimLostException"><paramref name="removeInbox"/> names a row already gone; nothing was written.</exception>
+    public async Task<IReadOnlyList<AuditEntry>?> CommitAsync(List<NewAuditEntry> entries, EngineState state, string profileVersion, DateTimeOffset now, DateTimeOffset realNow, CancellationToken cancellationToken, IReadOnlyList<long>? removeInbox = null)
     {
         var covering = TamperCheck.CoveringIndex(entries);
         if (covering is null && _uncoveredStored && now - _lastCoveredAt >= readingsCoverInterval)
@@ -128,11 +129,17 @@ internal sealed class EngineRecorder(AuditStore audit, ReadingStore readingStore
                 entries,
                 new EngineStateWrite(EngineStateJson.Serialize(state), profileVersion, now),
                 _epoch,
-                cancellationToken);
+                cancellationToken,
+                removeInbox);
         }
         catch (StaleEpochException)
         {
             // not a storage fault: another node leads (docs/engine.md R71); the host steps down
+            throw;
+        }
+        catch (InboxClaimLostException)
+        {
+            // not a storage fault: another node took the inbox row first (docs/engine.md R82)
             throw;
         }
         catch (Exception ex) when (ex is not OperationCanceledException || !cancellationToken.IsCancellationRequested)

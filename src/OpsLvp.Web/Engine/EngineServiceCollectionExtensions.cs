@@ -39,6 +39,9 @@ public static class EngineServiceCollectionExtensions
             .ValidateShape(configuration, ClusterOptions.SectionName)
             .Validate(o => o.LeaderRetryInterval >= TimeSpan.FromMilliseconds(100) && o.LeaderRetryInterval <= TimeSpan.FromSeconds(10), "Cluster:LeaderRetryInterval must be between 00:00:00.1 and 00:00:10.")
             .Validate(o => o.InboxPollInterval >= TimeSpan.FromMilliseconds(100) && o.InboxPollInterval <= TimeSpan.FromMinutes(1), "Cluster:InboxPollInterval must be between 00:00:00.1 and 00:01:00.")
+            .Validate(o => o.InboxMaxBatches is >= 1 and <= 1_000_000, "Cluster:InboxMaxBatches must be between 1 and 1000000 (the most reading batches the inbox holds).")
+            .Validate(o => o.InboxAlarmAfter >= TimeSpan.FromSeconds(1) && o.InboxAlarmAfter <= TimeSpan.FromHours(1), "Cluster:InboxAlarmAfter must be between 00:00:01 and 01:00:00 (how long a batch may wait in the reading inbox before the screens say so).")
+            .Validate(o => o.InboxSetAsideAfter is >= 1 and <= 100, "Cluster:InboxSetAsideAfter must be between 1 and 100 (attempts at a failing inbox batch before it is set aside).")
             .ValidateOnStart();
         // several nodes elect the engine's leader on PostgreSQL; the embedded SQLite file has one node, always leading
         services.AddSingleton<PostgresLeadership>();
@@ -48,6 +51,8 @@ public static class EngineServiceCollectionExtensions
         services.AddSingleton<LiveState>();
         services.AddSingleton<ILiveState>(sp => sp.GetRequiredService<LiveState>());
         services.TryAddSingleton<OpsLvp.Web.Retention.RetentionAlarm>();
+        services.TryAddSingleton<InboxAlarms>();
+        services.TryAddSingleton<InboxLimit>();
         services.AddSingleton<LiveEngineHost>();
         services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
         // after the engine host, which has loaded the profile by the time this starts (PostgreSQL only; idle on SQLite)

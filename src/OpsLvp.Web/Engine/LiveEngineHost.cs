@@ -42,7 +42,8 @@ public sealed class LiveEngineHost(
     ILoggerFactory loggerFactory,
     TamperCheck tamper,
     ILeadership leadership,
-    OpsLvp.Web.Retention.RetentionAlarm retentionAlarm) : BackgroundService
+    OpsLvp.Web.Retention.RetentionAlarm retentionAlarm,
+    InboxAlarms inboxAlarms) : BackgroundService
 {
     /// <summary>The reason a standby gives for readings and commands it does not evaluate.</summary>
     public const string StandbyText = "this node is a standby: the engine runs on the leader node";
@@ -138,6 +139,15 @@ public sealed class LiveEngineHost(
     public Task<EvaluationOutcome> EvaluateInboxAsync(IReadOnlyList<ReadingBatch> batches, CancellationToken cancellationToken = default) =>
         EvaluateAsync(batches, null, [], cancellationToken);
 
+    /// <summary>
+    /// Sets a failing inbox batch aside (docs/engine.md R82): one evaluation whose commit appends <paramref name="entry"/>
+    /// and deletes the inbox row <paramref name="inboxId"/> together, fenced like every engine append; nothing of the
+    /// batch is evaluated. Not committed (not recording, leadership lost): the row stays.
+    /// </summary>
+    /// <exception cref="InboxClaimLostException">The row is gone (another node took it): nothing was written.</exception>
+    public Task<EvaluationOutcome> SetAsideInboxAsync(NewAuditEntry entry, long inboxId, CancellationToken cancellationToken = default) =>
+        EvaluateAsync([], null, [entry], cancellationToken, [inboxId]);
+
     protected override Task ExecuteAsync(CancellationToken stoppingToken)
     {
         _stoppingRegistration = stoppingToken.Register(_stopping.Cancel);
@@ -173,7 +183,7 @@ public sealed class LiveEngineHost(
         _recorder.Begin(restore.Written, restore.ReadingsCoveredTo, epoch, now);
         _runEpoch = epoch;
         _evaluator = new EngineEvaluator(restore.Run!, restore.State!, _recorder, _publisher, feeds, _feedJournal, clock, realClock,
-            logger, loggerFactory.CreateLogger(NightLog.Category), retentionAlarm);
+            logger, loggerFactory.CreateLogger(NightLog.Category), retentionAlarm, inboxAlarms);
         await EvaluateLockedAsync([], null, hostEntries, cancellationToken);
         if (restore.Acknowledged)
         {
@@ -217,7 +227,7 @@ public sealed class LiveEngineHost(
         });
     }
 
-    private async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    private async Task<EvaluationOutcome> EvaluateAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken, IReadOnlyList<long>? removeInbox = null)
     {
         if (_evaluator is null && !(leadership.IsLeader && _profile is not null && _stopped is null))
         {
@@ -232,7 +242,7 @@ public sealed class LiveEngineHost(
                 // arrives in that moment is evaluated by the new leader instead of being refused
                 await TakeOverLockedAsync(cancellationToken);
             }
-            return await EvaluateLockedAsync(batches, command, hostEntries, cancellationToken);
+            return await EvaluateLockedAsync(batches, command, hostEntries, cancellationToken, removeInbox);
         }
         finally
         {
@@ -240,7 +250,7 @@ public sealed class LiveEngineHost(
         }
     }
 
-    private async Task<EvaluationOutcome> EvaluateLockedAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken)
+    private async Task<EvaluationOutcome> EvaluateLockedAsync(IReadOnlyList<ReadingBatch> batches, EngineCommand? command, IReadOnlyList<NewAuditEntry> hostEntries, CancellationToken cancellationToken, IReadOnlyList<long>? removeInbox = null)
     {
         var evaluator = _evaluator;
         if (evaluator is null || !leadership.IsLeader || leadership.Epoch != _runEpoch)
@@ -251,7 +261,7 @@ public sealed class LiveEngineHost(
         }
         try
         {
-            return await evaluator.EvaluateAsync(batches, command, hostEntries, cancellationToken);
+            return await evaluator.EvaluateAsync(batches, command, hostEntries, cancellationToken, removeInbox);
         }
         catch (StaleEpochException ex)
         {

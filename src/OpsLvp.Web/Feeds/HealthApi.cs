@@ -103,6 +103,12 @@ public static class HealthApi
         {
             return node;
         }
+        node = node with
+        {
+            InboxMaxBatches = services.GetService<IOptions<ClusterOptions>>()?.Value.InboxMaxBatches,
+            InboxRefused = services.GetService<InboxLimit>()?.Refused ?? 0,
+            InboxSetAside = services.GetService<InboxAlarms>()?.SetAsideCount ?? 0,
+        };
         using var timeout = CancellationTokenSource.CreateLinkedTokenSource(cancellationToken);
         timeout.CancelAfter(s_inboxQueryTimeout);
         try
@@ -124,8 +130,12 @@ public static class HealthApi
         var why = node.LastLeaderStateAt is null
             ? "this standby has received no state from a leader yet"
             : $"this standby has received no state from the leader for more than {silence.TotalSeconds:0.#} s";
-        return node.Fanout == "unreachable"
+        var reason = node.Fanout == "unreachable"
             ? $"NOT LIVE: {why} (Cluster:Redis not reachable)"
             : $"NOT LIVE: {why}";
+        // what waits for the next leader, so the room knows readings are kept, not lost (docs/engine.md R80)
+        return node.InboxWaiting is int waiting and > 0
+            ? $"{reason}; {waiting} reading batch(es) queued for the leader{(waiting >= node.InboxMaxBatches ? " (the inbox is full: further pushes are refused with 503)" : "")}"
+            : reason;
     }
 }

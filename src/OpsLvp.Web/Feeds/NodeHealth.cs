@@ -14,5 +14,8 @@ namespace OpsLvp.Web.Feeds;
 /// <param name="LastCommandRefusal">Why the last one was refused, else null.</param>
 /// <param name="InboxWaiting">Several nodes: reading batches pushed to a standby that wait in the reading inbox for the leader (docs/engine.md R73–R74); null on a single node or when the database did not answer.</param>
 /// <param name="InboxOldestReceivedAt">When the oldest of them was received (the receiving node's clock), else null.</param>
+/// <param name="InboxMaxBatches">Several nodes: <c>Cluster:InboxMaxBatches</c>, the most batches the inbox holds (docs/engine.md R80); null on a single node.</param>
+/// <param name="InboxRefused">Several nodes: pushes this node refused with 503 since its start because the inbox was full; null on a single node.</param>
+/// <param name="InboxSetAside">Several nodes: inbox batches this node set aside while leading since its start (docs/engine.md R82); null on a single node.</param>
 public sealed record NodeHealth(string Id, string Role, long? Epoch, string Fanout, DateTimeOffset? LastLeaderStateAt, bool Live, long CommandsRefused, string? LastCommandRefusal,
-    int? InboxWaiting = null, DateTimeOffset? InboxOldestReceivedAt = null);
+    int? InboxWaiting = null, DateTimeOffset? InboxOldestReceivedAt = null, int? InboxMaxBatches = null, long? InboxRefused = null, long? InboxSetAside = null);

@@ -27,6 +27,9 @@ public static class ReadingsApi
     /// <summary>How long a push waits for its batch to be stored before the answer is 503 (the feed retries; a duplicate is refused then).</summary>
     public static readonly TimeSpan StoreWait = TimeSpan.FromSeconds(30);
 
+    /// <summary>The <c>Retry-After</c> of a push refused because the reading inbox is full (docs/engine.md R80).</summary>
+    public const int InboxFullRetryAfterSeconds = 10;
+
     /// <summary>How many times <c>Feeds:Push:MaxBodyBytes</c> an over-long body without a length is read and dropped before the 413.</summary>
     public const int DrainFactor = 4;
 
@@ -45,6 +48,8 @@ public static class ReadingsApi
         LiveEngineHost engine,
         ReadingInboxStore inbox,
         ILeadership leadership,
+        IOptions<ClusterOptions> cluster,
+        InboxLimit inboxLimit,
         TimeProvider clock,
         ILoggerFactory loggers)
     {
@@ -97,7 +102,7 @@ public static class ReadingsApi
         }
         if (engine.IsStandby)
         {
-            return await HandOverAsync(context, body, parsed, source, inbox, leadership, engine, health, clock, loggers);
+            return await HandOverAsync(context, body, parsed, source, inbox, leadership, engine, health, cluster.Value.InboxMaxBatches, inboxLimit, clock, loggers);
         }
         // With the engine host off (Engine:Enabled=false: no profile loaded) nothing stores readings: the batch is only
         // queued. Otherwise the answer always waits for the store, also while a node that has just won leadership is still
@@ -132,7 +137,7 @@ public static class ReadingsApi
     /// </summary>
     private static async Task<Results<Accepted<PushResponse>, JsonHttpResult<ApiError>>> HandOverAsync(
         HttpContext context, byte[] body, ReadingParseResult parsed, string source, ReadingInboxStore inbox, ILeadership leadership,
-        LiveEngineHost engine, FeedHealthRegistry health, TimeProvider clock, ILoggerFactory loggers)
+        LiveEngineHost engine, FeedHealthRegistry health, int maxBatches, InboxLimit inboxLimit, TimeProvider clock, ILoggerFactory loggers)
     {
         var logger = loggers.CreateLogger(typeof(ReadingsApi).FullName!);
         if (!inbox.IsAvailable)
@@ -145,9 +150,10 @@ public static class ReadingsApi
         var answer = Answer(source, items);
         if (parsed.Readings.Count > 0 || parsed.Rejections.Count > 0)
         {
+            (long? Id, int Waiting) queued;
             try
             {
-                await inbox.EnqueueAsync(new ReadingInboxRow
+                queued = await inbox.TryEnqueueAsync(new ReadingInboxRow
                 {
                     ReceivedAt = receivedAt,
                     Source = source,
@@ -155,13 +161,23 @@ public static class ReadingsApi
                     Body = Encoding.UTF8.GetString(body),
                     Accepted = answer.Accepted,
                     Rejected = answer.Rejected.Count,
-                }, context.RequestAborted);
+                }, maxBatches, context.RequestAborted);
             }
             catch (Exception ex) when (ex is not OperationCanceledException || !context.RequestAborted.IsCancellationRequested)
             {
                 var reason = $"the reading inbox could not be written: {EngineRecorder.Describe(ex)}";
                 logger.LogWarning("Push from {Source} to standby {Node} not stored: {Reason}", source, leadership.NodeId, reason);
                 return RetryLater(context, $"not stored, retry later: {reason}");
+            }
+            if (queued.Id is null)
+            {
+                // the inbox holds Cluster:InboxMaxBatches (docs/engine.md R80): nothing stored, nothing acknowledged; the
+                // feed keeps the readings and sends them again once the leader has drained some
+                var realClock = context.RequestServices.GetRequiredKeyedService<TimeProvider>(OpsLvp.Web.Time.TimeServiceCollectionExtensions.NetworkClockKey);
+                inboxLimit.Refuse(source, leadership.NodeId, queued.Waiting, maxBatches, realClock.GetUtcNow(), logger);
+                return RetryLater(context,
+                    $"not stored, retry later: the reading inbox is full ({queued.Waiting} batch(es) wait for the leader, Cluster:InboxMaxBatches {maxBatches}); no node has taken them yet",
+                    retryAfterSeconds: InboxFullRetryAfterSeconds);
             }
         }
         health.RecordSuccess(source, answer.Accepted, answer.Rejected.Count);

@@ -46,6 +46,20 @@ public sealed class StartupConfigurationTests
         Assert.Contains("Engine:ReadingsCoverInterval must be between 00:00:01 and 1.00:00:00", message, StringComparison.Ordinal);
     }
 
+    [Theory]
+    [InlineData("Cluster:InboxMaxBatches", "0", "Cluster:InboxMaxBatches must be between 1 and 1000000")]
+    [InlineData("Cluster:InboxMaxBatches", "1000001", "Cluster:InboxMaxBatches must be between 1 and 1000000")]
+    [InlineData("Cluster:InboxAlarmAfter", "00:00:00.5", "Cluster:InboxAlarmAfter must be between 00:00:01 and 01:00:00")]
+    [InlineData("Cluster:InboxAlarmAfter", "02:00:00", "Cluster:InboxAlarmAfter must be between 00:00:01 and 01:00:00")]
+    [InlineData("Cluster:InboxSetAsideAfter", "0", "Cluster:InboxSetAsideAfter must be between 1 and 100")]
+    [InlineData("Cluster:InboxSetAsideAfter", "101", "Cluster:InboxSetAsideAfter must be between 1 and 100")]
+    public void ReadingInboxSettingOutOfRange_StopsStart_NamingTheSetting(string setting, string value, string expected)
+    {
+        var message = StartFailure(new() { [setting] = value });
+
+        Assert.Contains(expected, message, StringComparison.Ordinal);
+    }
+
     [Fact]
     public void MissingAssetsFolder_StopsStart_NamingTheSetting()
     {
