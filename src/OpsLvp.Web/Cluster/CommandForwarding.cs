@@ -59,6 +59,8 @@ public sealed class CommandForwarding(
     // ids this node has taken or refused while leading, with their send time: a sealed message delivered again is refused
     // even if someone with access to Redis has set its key back to pending
     private readonly ConcurrentDictionary<string, DateTimeOffset> _seen = new(StringComparer.Ordinal);
+    // ids of commands whose person this node told "outcome unknown", with what and who: an outcome that still comes is logged (R85)
+    private readonly ConcurrentDictionary<string, (string Command, string Actor, DateTimeOffset At)> _unknown = new(StringComparer.Ordinal);
     private long _refused;
     private volatile string? _lastRefusal;
 
@@ -197,6 +199,15 @@ public sealed class CommandForwarding(
             logger.LogError(ex, "Command {Id}: its outcome could not be read", id);
         }
         logger.LogError("Command {Command} by {Actor} ({Id}) was taken by the engine node but no outcome came back", command.GetType().Name, caller.Name, id);
+        var now = realClock.GetUtcNow();
+        foreach (var (oldId, old) in _unknown)
+        {
+            if (now - old.At > s_keyLifetime)
+            {
+                _unknown.TryRemove(oldId, out _);
+            }
+        }
+        _unknown[id] = (command.GetType().Name, caller.Name, now);
         return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandOutcomeUnknown);
     }
 
@@ -235,10 +246,19 @@ public sealed class CommandForwarding(
         }
         try
         {
-            if (JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options) is { } outcome
-                && _waiting.TryGetValue(outcome.Id, out var waiting))
+            if (JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options) is not { } outcome)
+            {
+                return;
+            }
+            if (_waiting.TryGetValue(outcome.Id, out var waiting))
             {
                 waiting.TrySetResult(outcome);
+            }
+            else if (_unknown.TryRemove(outcome.Id, out var gaveUp))
+            {
+                // too late for the person, who was told to check the audit log: the log says what it will show
+                logger.LogWarning("Command {Command} by {Actor} ({Id}): the outcome from the engine node {Node} came after the person was told it is unknown: {Kind}: {Message} (audit entry {Sequence})",
+                    gaveUp.Command, gaveUp.Actor, outcome.Id, outcome.Node, outcome.Kind, outcome.Message, outcome.AuditSequence?.ToString(System.Globalization.CultureInfo.InvariantCulture) ?? "none");
             }
         }
         catch (JsonException ex)

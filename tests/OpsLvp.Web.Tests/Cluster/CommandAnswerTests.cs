@@ -100,6 +100,68 @@ public sealed class CommandAnswerTests
         Assert.True(genuine.Applied, genuine.Message);
     }
 
+    [RedisFact]
+    public async Task AnAnswerAfterTheStandbysTimeout_IsShownWhileItWaits_AndLoggedWhenItCameTooLate()
+    {
+        using var redis = await RedisServerProcess.StartAsync();
+        // no node leads: the test takes the commands as a slow leader would (claims the key, answers late), sealing with
+        // the installation's key ring; 8 s timeouts leave the test's own steps seconds of slack on a loaded machine
+        var timeout = TimeSpan.FromSeconds(8);
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false, settings: new Dictionary<string, string?> { ["Cluster:CommandTimeout"] = "00:00:08" });
+        using var log = new CapturingLoggerProvider();
+        b.App.Services.GetRequiredService<ILoggerFactory>().AddProvider(log);
+        await using var slowLeader = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
+        var requests = await slowLeader.GetSubscriber().SubscribeAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.CommandsChannel));
+        var seal = b.App.Services.GetRequiredService<ClusterSeal>();
+        var commands = b.App.Services.GetRequiredService<ILvpCommandService>();
+
+        // 1. taken at once, answered after the standby's first timeout: it waits one more timeout and shows that answer
+        var first = commands.ExecuteAsync(s_dutyManager, new SetForecast("", true, "TAF shows fog (invented)"));
+        var id = await ClaimNextAsync(slowLeader, requests, seal);
+        await Task.Delay(timeout + TimeSpan.FromSeconds(1)); // lets the first timeout pass; not a wait for a result
+        Assert.False(first.IsCompleted);
+        await AnswerAsync(slowLeader, seal, new ForwardedOutcome(id, "node-slow", CommandOutcomeKind.Applied, "deterioration forecast set", 41));
+        var shown = await first;
+        Assert.Equal(CommandOutcomeKind.Applied, shown.Kind);
+        Assert.Equal("deterioration forecast set", shown.Message);
+        Assert.Equal(41, shown.AuditSequence);
+
+        // 2. taken, answered only after both timeouts: "outcome unknown"; the answer, when it comes, is in the standby's log
+        var second = commands.ExecuteAsync(s_dutyManager, new ReleaseForecast("", "TAF amended (invented)"));
+        var id2 = await ClaimNextAsync(slowLeader, requests, seal);
+        var unknown = await second;
+        Assert.Equal(CommandOutcomeKind.Failed, unknown.Kind);
+        Assert.Equal(OpsLvp.Core.Presentation.NodeWords.CommandOutcomeUnknown, unknown.Message);
+        await AnswerAsync(slowLeader, seal, new ForwardedOutcome(id2, "node-slow", CommandOutcomeKind.Applied, "manual forecast setting released", 42));
+        await Eventually.TrueAsync(
+            () => log.Lines.Any(l => l.Level == LogLevel.Warning && l.Message.Contains(id2, StringComparison.Ordinal)
+                && l.Message.Contains("manual forecast setting released", StringComparison.Ordinal) && l.Message.Contains("audit entry 42", StringComparison.Ordinal)),
+            "the late outcome in the standby's log", TimeSpan.FromSeconds(30));
+        // the leader's entry is the one record: the standby writes none
+        Assert.DoesNotContain(await LiveClient.EntriesAsync(b.App), e => e.Actor == s_dutyManager.Name);
+    }
+
+    /// <summary>Takes the next forwarded command as a leader does (pending to claimed); its id.</summary>
+    private static async Task<string> ClaimNextAsync(ConnectionMultiplexer leader, ChannelMessageQueue requests, ClusterSeal seal)
+    {
+        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(60));
+        var message = (string)(await requests.ReadAsync(cts.Token)).Message!;
+        var id = JsonSerializer.Deserialize<ForwardedCommand>(seal.OpenCommand(message, out _)!, LiveJson.Options)!.Id;
+        var claimed = (int)await leader.GetDatabase().ScriptEvaluateAsync(
+            "if redis.call('GET', KEYS[1]) == 'pending' then redis.call('SET', KEYS[1], ARGV[1], 'KEEPTTL') return 1 else return 0 end",
+            [new RedisKey("opslvp:command:" + id)], ["claimed:node-slow"]);
+        Assert.Equal(1, claimed);
+        return id;
+    }
+
+    /// <summary>Stores and publishes a sealed outcome as the leader does.</summary>
+    private static async Task AnswerAsync(ConnectionMultiplexer leader, ClusterSeal seal, ForwardedOutcome outcome)
+    {
+        var json = seal.SealOutcome(JsonSerializer.Serialize(outcome, LiveJson.Options));
+        await leader.GetDatabase().StringSetAsync("opslvp:command:" + outcome.Id, "done:" + json, keepTtl: true);
+        await leader.GetSubscriber().PublishAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.OutcomesChannel), json);
+    }
+
     /// <summary>The system clock set off by a fixed amount: a host whose time synchronisation failed. Timers run as usual.</summary>
     private sealed class OffsetClock(TimeSpan offset) : TimeProvider
     {
