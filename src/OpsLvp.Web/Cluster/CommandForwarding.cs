@@ -24,6 +24,10 @@ namespace OpsLvp.Web.Cluster;
 /// command a node of this installation sealed, sent within <see cref="FanoutOptions.CommandTimeout"/> plus
 /// <see cref="MaxClockSkew"/> of its own clock, and whose id it has not seen yet; anything else is refused, logged with
 /// its reason and counted (<see cref="Refusals"/>, shown by <c>/health</c>), and the channel keeps running.</para>
+/// <para>What the person on the sending node is told (R85): a genuine, new command refused only for its send time (the
+/// nodes' clocks differ) and any failure while the leader carries out a command it took are answered, sealed, with the
+/// reason, instead of being left to the timeout; replays and messages that do not open are never answered. An outcome
+/// that arrives after the person was told it is unknown is logged on the sending node.</para>
 /// </summary>
 public sealed class CommandForwarding(
     RedisLink redis,
