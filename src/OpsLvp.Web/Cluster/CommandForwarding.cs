@@ -332,6 +332,7 @@ public sealed class CommandForwarding(
         }
         catch (JsonException ex)
         {
+            logger.LogWarning("Forwarded command {Id} ({Type}) from {Node} by {Actor} refused: its fields are not valid ({Error})", request.Id, request.Type, request.FromNode, request.Caller, ex.Message);
             return new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: the command's fields are not valid ({ex.Message})");
         }
         catch (Exception ex)
