@@ -18,4 +18,8 @@ public static class NodeWords
     /// <summary>Told when the engine node took the command but its outcome did not come back.</summary>
     public const string CommandOutcomeUnknown =
         "outcome unknown: the engine node took the command but its answer did not arrive; check the audit log before repeating it";
+
+    /// <summary>Told when the engine node took the command and failed while carrying it out: it may or may not be on record.</summary>
+    public static string CommandFailedOnEngineNode(string node, string reason) =>
+        $"outcome unknown: the engine node {node} failed while carrying out the command ({reason}); check the audit log before repeating it";
 }

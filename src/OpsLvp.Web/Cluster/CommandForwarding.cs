@@ -24,6 +24,10 @@ namespace OpsLvp.Web.Cluster;
 /// command a node of this installation sealed, sent within <see cref="FanoutOptions.CommandTimeout"/> plus
 /// <see cref="MaxClockSkew"/> of its own clock, and whose id it has not seen yet; anything else is refused, logged with
 /// its reason and counted (<see cref="Refusals"/>, shown by <c>/health</c>), and the channel keeps running.</para>
+/// <para>What the person on the sending node is told (R85): a genuine, new command refused only for its send time (the
+/// nodes' clocks differ) and any failure while the leader carries out a command it took are answered, sealed, with the
+/// reason, instead of being left to the timeout; replays and messages that do not open are never answered. An outcome
+/// that arrives after the person was told it is unknown is logged on the sending node.</para>
 /// </summary>
 public sealed class CommandForwarding(
     RedisLink redis,
@@ -59,6 +63,8 @@ public sealed class CommandForwarding(
     // ids this node has taken or refused while leading, with their send time: a sealed message delivered again is refused
     // even if someone with access to Redis has set its key back to pending
     private readonly ConcurrentDictionary<string, DateTimeOffset> _seen = new(StringComparer.Ordinal);
+    // ids of commands whose person this node told "outcome unknown", with what and who: an outcome that still comes is logged (R85)
+    private readonly ConcurrentDictionary<string, (string Command, string Actor, DateTimeOffset At)> _unknown = new(StringComparer.Ordinal);
     private long _refused;
     private volatile string? _lastRefusal;
 
@@ -197,6 +203,15 @@ public sealed class CommandForwarding(
             logger.LogError(ex, "Command {Id}: its outcome could not be read", id);
         }
         logger.LogError("Command {Command} by {Actor} ({Id}) was taken by the engine node but no outcome came back", command.GetType().Name, caller.Name, id);
+        var now = realClock.GetUtcNow();
+        foreach (var (oldId, old) in _unknown)
+        {
+            if (now - old.At > s_keyLifetime)
+            {
+                _unknown.TryRemove(oldId, out _);
+            }
+        }
+        _unknown[id] = (command.GetType().Name, caller.Name, now);
         return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandOutcomeUnknown);
     }
 
@@ -235,10 +250,19 @@ public sealed class CommandForwarding(
         }
         try
         {
-            if (JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options) is { } outcome
-                && _waiting.TryGetValue(outcome.Id, out var waiting))
+            if (JsonSerializer.Deserialize<ForwardedOutcome>(json, LiveJson.Options) is not { } outcome)
+            {
+                return;
+            }
+            if (_waiting.TryGetValue(outcome.Id, out var waiting))
             {
                 waiting.TrySetResult(outcome);
+            }
+            else if (_unknown.TryRemove(outcome.Id, out var gaveUp))
+            {
+                // too late for the person, who was told to check the audit log: the log says what it will show
+                logger.LogWarning("Command {Command} by {Actor} ({Id}): the outcome from the engine node {Node} came after the person was told it is unknown: {Kind}: {Message} (audit entry {Sequence})",
+                    gaveUp.Command, gaveUp.Actor, outcome.Id, outcome.Node, outcome.Kind, outcome.Message, outcome.AuditSequence?.ToString(System.Globalization.CultureInfo.InvariantCulture) ?? "none");
             }
         }
         catch (JsonException ex)
@@ -253,47 +277,114 @@ public sealed class CommandForwarding(
         {
             return;
         }
-        if (Admit(value) is not { } request)
-        {
-            return;
-        }
-        var db = connection.GetDatabase();
-        var key = redis.Key("command:" + request.Id);
+        ForwardedCommand? request = null;
         try
         {
+            request = Admit(value, out var refusal);
+            if (request is null)
+            {
+                if (refusal is { } answer)
+                {
+                    await AnswerRefusalAsync(connection, answer.Command, answer.Message);
+                }
+                return;
+            }
+            var db = connection.GetDatabase();
+            var key = redis.Key("command:" + request.Id);
             if ((int)await db.ScriptEvaluateAsync(FromPendingScript, [key], [ClaimedPrefix + leadership.NodeId]) != 1)
             {
                 logger.LogInformation("Forwarded command {Id} from {Node} not carried out: withdrawn or taken already", request.Id, request.FromNode);
                 return;
             }
-            CommandOutcome outcome;
-            try
-            {
-                outcome = request.ToCommand() is { } command
-                    ? await local.ExecuteAsync(request.ToCaller(), command, stoppingToken)
-                    : new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: unknown command {request.Type}");
-            }
-            catch (JsonException ex)
-            {
-                outcome = new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: the command's fields are not valid ({ex.Message})");
-            }
-            var answer = new ForwardedOutcome(request.Id, leadership.NodeId, outcome.Kind, outcome.Message, outcome.AuditSequence);
-            var json = seal.SealOutcome(JsonSerializer.Serialize(answer, LiveJson.Options));
+            var outcome = await ExecuteClaimedAsync(request, stoppingToken);
+            var json = SealAnswer(request, outcome);
             await db.ScriptEvaluateAsync("redis.call('SET', KEYS[1], ARGV[1], 'KEEPTTL') return 1", [key], [DonePrefix + json]);
             await connection.GetSubscriber().PublishAsync(redis.Channel(OutcomesChannel), json);
         }
+        catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+        {
+            logger.LogWarning("Forwarded command {Id} ({Type}) from {Node}: this node stopped while carrying it out", request?.Id, request?.Type, request?.FromNode);
+        }
         catch (Exception ex) when (ex is RedisException or TimeoutException)
         {
-            logger.LogError(ex, "Forwarded command {Id} from {Node}: Cluster:Redis failed while carrying it out", request.Id, request.FromNode);
+            logger.LogError(ex, "Forwarded command {Id} ({Type}) from {Node}: Cluster:Redis failed while carrying it out", request?.Id, request?.Type, request?.FromNode);
+        }
+        catch (Exception ex)
+        {
+            // sealing or storing the answer failed: the sender waits for the outcome stored in the key, then says it is unknown
+            logger.LogError(ex, "Forwarded command {Id} ({Type}) from {Node}: its outcome could not be sent", request?.Id, request?.Type, request?.FromNode);
         }
     }
 
     /// <summary>
-    /// The command in <paramref name="value"/> if this leader may carry it out: sealed by a node of this installation
-    /// (R76), sent recently by its own clock and not seen before (R77). Otherwise null, with the refusal logged and counted.
+    /// Carries out a claimed command. Any failure is answered, never left to the sender's timeout: a command that could not
+    /// be read here is "not applied" (it never reached the engine); one whose evaluation threw may or may not have been
+    /// recorded, so the person is told to check the audit log (docs/engine.md R85).
     /// </summary>
-    internal ForwardedCommand? Admit(RedisValue value)
+    private async Task<CommandOutcome> ExecuteClaimedAsync(ForwardedCommand request, CancellationToken stoppingToken)
     {
+        CommandCaller caller;
+        EngineCommand? command;
+        try
+        {
+            caller = request.ToCaller();
+            command = request.ToCommand();
+        }
+        catch (JsonException ex)
+        {
+            logger.LogWarning("Forwarded command {Id} ({Type}) from {Node} by {Actor} refused: its fields are not valid ({Error})", request.Id, request.Type, request.FromNode, request.Caller, ex.Message);
+            return new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: the command's fields are not valid ({ex.Message})");
+        }
+        catch (Exception ex)
+        {
+            logger.LogError(ex, "Forwarded command {Id} ({Type}) from {Node} by {Actor} could not be read on this engine node; not applied", request.Id, request.Type, request.FromNode, request.Caller);
+            return new CommandOutcome(CommandOutcomeKind.Failed, $"not applied: the engine node {leadership.NodeId} could not read the command ({Describe(ex)})");
+        }
+        if (command is null)
+        {
+            return new CommandOutcome(CommandOutcomeKind.Refused, $"not applied: unknown command {request.Type}");
+        }
+        try
+        {
+            return await local.ExecuteAsync(caller, command, stoppingToken);
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException || !stoppingToken.IsCancellationRequested)
+        {
+            logger.LogError(ex, "Forwarded command {Id} ({Type}) from {Node} by {Actor} failed on this engine node", request.Id, request.Type, request.FromNode, request.Caller);
+            return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandFailedOnEngineNode(leadership.NodeId, Describe(ex)));
+        }
+    }
+
+    private static string Describe(Exception ex) => $"{ex.GetType().Name}: {ex.Message.ReplaceLineEndings(" ")}";
+
+    private string SealAnswer(ForwardedCommand request, CommandOutcome outcome) =>
+        seal.SealOutcome(JsonSerializer.Serialize(new ForwardedOutcome(request.Id, leadership.NodeId, outcome.Kind, outcome.Message, outcome.AuditSequence), LiveJson.Options));
+
+    /// <summary>
+    /// Answers a genuine command refused for its send time (R85): stored in its key only while that is still
+    /// <c>pending</c> (the sender still waits), then published. A key already withdrawn, expired or carried out gets no answer.
+    /// </summary>
+    private async Task AnswerRefusalAsync(IConnectionMultiplexer connection, ForwardedCommand request, string message)
+    {
+        var json = SealAnswer(request, new CommandOutcome(CommandOutcomeKind.Refused, message));
+        var key = redis.Key("command:" + request.Id);
+        if ((int)await connection.GetDatabase().ScriptEvaluateAsync(FromPendingScript, [key], [DonePrefix + json]) != 1)
+        {
+            logger.LogInformation("Refused forwarded command {Id} from {Node} not answered: nobody waits for it any more", request.Id, request.FromNode);
+            return;
+        }
+        await connection.GetSubscriber().PublishAsync(redis.Channel(OutcomesChannel), json);
+    }
+
+    /// <summary>
+    /// The command in <paramref name="value"/> if this leader may carry it out: sealed by a node of this installation
+    /// (R76), sent recently by its own clock and not seen before (R77). Otherwise null, with the refusal logged and counted;
+    /// <paramref name="answer"/> is then the refusal to send back when the command is genuine, new and refused only for its
+    /// send time (R85): the nodes' clocks differ, which the person on the sending node must be told. Nothing else is answered.
+    /// </summary>
+    internal ForwardedCommand? Admit(RedisValue value, out (ForwardedCommand Command, string Message)? answer)
+    {
+        answer = null;
         if (value.IsNullOrEmpty)
         {
             return Refuse("an empty message");
@@ -317,24 +408,31 @@ public sealed class CommandForwarding(
         }
         var now = realClock.GetUtcNow();
         var oldest = now - _options.CommandTimeout - MaxClockSkew;
-        foreach (var (seenId, sentAt) in _seen)
+        foreach (var (seenId, since) in _seen)
         {
-            if (sentAt < oldest)
+            if (since < oldest)
             {
                 _seen.TryRemove(seenId, out _);
             }
         }
-        if (request.SentAt < oldest)
-        {
-            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} was sent at {request.SentAt:O}, {(now - request.SentAt).TotalSeconds:0.#} s ago: too old to be carried out (a delayed or replayed message)");
-        }
-        if (request.SentAt > now + MaxClockSkew)
-        {
-            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} claims to be sent at {request.SentAt:O}, ahead of this node's clock {now:O}");
-        }
-        if (!_seen.TryAdd(request.Id, request.SentAt))
+        var tooOld = request.SentAt < oldest;
+        var ahead = request.SentAt > now + MaxClockSkew;
+        // one answer per id: a refused one is remembered from now (its own time is off), a taken one by its send time
+        if (!_seen.TryAdd(request.Id, tooOld || ahead ? now : request.SentAt))
         {
             return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} was delivered before: a replay");
+        }
+        if (tooOld)
+        {
+            var age = (now - request.SentAt).TotalSeconds;
+            answer = (request, $"not applied: the engine node {leadership.NodeId} received this command {age:0} s after {request.FromNode} sent it by {request.FromNode}'s clock, more than the {(_options.CommandTimeout + MaxClockSkew).TotalSeconds:0} s allowed: the clocks of {request.FromNode} and {leadership.NodeId} differ (check their time synchronisation) or the message was held up on the way");
+            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} was sent at {request.SentAt:O}, {age:0.#} s ago: too old to be carried out (a delayed or replayed message, or {request.FromNode}'s clock is behind)");
+        }
+        if (ahead)
+        {
+            var by = (request.SentAt - now).TotalSeconds;
+            answer = (request, $"not applied: the clock of {request.FromNode} is {by:0} s ahead of the engine node {leadership.NodeId}'s (at most {MaxClockSkew.TotalSeconds:0} s is allowed); check their time synchronisation");
+            return Refuse($"command {request.Id} from {request.FromNode} by {request.Caller} claims to be sent at {request.SentAt:O}, ahead of this node's clock {now:O}");
         }
         return request;
     }

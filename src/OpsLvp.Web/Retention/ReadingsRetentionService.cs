@@ -4,15 +4,19 @@ using OpsLvp.Data.Retention;
 using OpsLvp.Data.Stores;
 using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
+using OpsLvp.Web.Time;
 
 namespace OpsLvp.Web.Retention;
 
 /// <summary>
-/// Runs <see cref="ReadingsPruner"/> every <see cref="RetentionOptions.Interval"/> (real time) on the node that leads
-/// (docs/retention.md). The cutoff is in the app's clock (demo time in demo mode), like the readings' receipt times.
-/// A failed run deletes nothing (or only what its committed audit entry names) and is logged as an error with its
-/// reason; it also raises the on-screen <see cref="RetentionAlarm"/> (with an audit entry), which the next successful
-/// run clears (docs/engine.md R78). The next run tries again.
+/// Runs <see cref="ReadingsPruner"/> every <see cref="RetentionOptions.Interval"/> (real time, the network clock) on the
+/// node that leads (docs/retention.md). The cutoff is in the app's clock (demo time in demo mode), like the readings'
+/// receipt times. A failed run deletes nothing (or only what its committed audit entry names) and is logged as an error
+/// with its reason; it also raises the on-screen <see cref="RetentionAlarm"/> (with an audit entry), which the next
+/// successful run clears (docs/engine.md R78). The next run tries again.
+/// <para>Leadership (docs/engine.md R86): a node that wins leadership runs at once instead of at the end of its current
+/// interval, so a prune that still fails is an alarm again right after a failover; a node that loses leadership takes its
+/// alarm down (logged; not audited, as a node that does not lead writes nothing) and leaves it to the new leader's run.</para>
 /// </summary>
 public sealed class ReadingsRetentionService(
     ReadingsPruner pruner,
@@ -22,8 +26,11 @@ public sealed class ReadingsRetentionService(
     ILeadership leadership,
     RetentionAlarm alarm,
     TimeProvider time,
+    [FromKeyedServices(TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
     ILogger<ReadingsRetentionService> logger) : BackgroundService
 {
+    private TaskCompletionSource _wake = new(TaskCreationOptions.RunContinuationsAsynchronously);
+
     /// <summary>The outcome of the last run, or null before the first.</summary>
     public PruneOutcome? LastOutcome { get; private set; }
 
@@ -35,27 +42,59 @@ public sealed class ReadingsRetentionService(
             return;
         }
         logger.LogInformation("Readings retention: readings older than {Days} day(s) are exported to {Folder} and pruned every {Interval}", o.ReadingsDays, folder.Path, o.Interval);
-        while (!stoppingToken.IsCancellationRequested)
+        leadership.LeadershipChanged += OnLeadershipChanged;
+        try
         {
-            try
+            while (!stoppingToken.IsCancellationRequested)
             {
-                if (leadership.IsLeader)
+                var wake = Volatile.Read(ref _wake);
+                if (wake.Task.IsCompleted)
                 {
-                    await RunOnceAsync(stoppingToken);
+                    // this wake is being served by the run below; a later one wakes the next sleep
+                    Interlocked.CompareExchange(ref _wake, new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously), wake);
                 }
-                await Task.Delay(o.Interval, stoppingToken);
-            }
-            catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
-            {
-                return;
-            }
-            catch (Exception ex)
-            {
-                logger.LogError(ex, "Readings retention run failed; nothing of it was deleted unless its audit entry was committed");
-                await RaiseAsync($"readings not pruned: the run failed: {ex.Message.ReplaceLineEndings(" ")}", stoppingToken);
-                await Task.Delay(o.Interval, stoppingToken).ContinueWith(_ => { }, TaskScheduler.Default);
+                try
+                {
+                    if (leadership.IsLeader)
+                    {
+                        await RunOnceAsync(stoppingToken);
+                    }
+                }
+                catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
+                {
+                    return;
+                }
+                catch (Exception ex)
+                {
+                    logger.LogError(ex, "Readings retention run failed; nothing of it was deleted unless its audit entry was committed");
+                    await RaiseAsync($"readings not pruned: the run failed: {ex.Message.ReplaceLineEndings(" ")}", stoppingToken);
+                }
+                await SleepAsync(o.Interval, stoppingToken);
             }
         }
+        finally
+        {
+            leadership.LeadershipChanged -= OnLeadershipChanged;
+        }
+    }
+
+    private void OnLeadershipChanged(bool leader)
+    {
+        if (!leader && alarm.Clear() is { } was)
+        {
+            logger.LogWarning("Readings retention alarm taken down on this node: it no longer leads (raised at {RaisedAt}: {Message}); the leader's next run raises it again if pruning still fails", was.RaisedAt, was.Message);
+        }
+        // a new leader prunes now; a node that stepped down wakes only to find it does not lead
+        Volatile.Read(ref _wake).TrySetResult();
+    }
+
+    /// <summary>Waits <paramref name="interval"/> on the real clock, or until leadership changes.</summary>
+    private async Task SleepAsync(TimeSpan interval, CancellationToken stoppingToken)
+    {
+        using var cancel = CancellationTokenSource.CreateLinkedTokenSource(stoppingToken);
+        var delay = Task.Delay(interval, realClock, cancel.Token);
+        await Task.WhenAny(delay, Volatile.Read(ref _wake).Task);
+        await cancel.CancelAsync(); // the timer of a delay cut short by a wake
     }
 
     /// <summary>One pruning run now (also used by tests).</summary>
@@ -98,6 +137,12 @@ public sealed class ReadingsRetentionService(
 
     private async Task RaiseAsync(string failure, CancellationToken cancellationToken)
     {
+        if (!leadership.IsLeader)
+        {
+            // leadership was lost during the run: the new leader's own run raises the alarm if pruning still fails
+            logger.LogWarning("Readings retention alarm not raised on this node: it no longer leads ({Failure})", failure);
+            return;
+        }
         var now = time.GetUtcNow();
         if (!alarm.Raise(failure, now))
         {

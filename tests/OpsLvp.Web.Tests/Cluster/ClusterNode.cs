@@ -28,8 +28,11 @@ public sealed class ClusterNode : IAsyncDisposable
 
     public SwitchableLeadership Leadership { get; }
 
-    /// <summary>Starts node <paramref name="name"/> on <paramref name="redis"/> (a configuration string), leading or not, with the live test profile (invented).</summary>
-    public static ClusterNode Start(string name, string redis, bool leader, long epoch = 1, IDictionary<string, string?>? settings = null, bool ownKeyRing = false)
+    /// <summary>
+    /// Starts node <paramref name="name"/> on <paramref name="redis"/> (a configuration string), leading or not, with the
+    /// live test profile (invented); <paramref name="services"/> may add to its services (e.g. a clock set wrong).
+    /// </summary>
+    public static ClusterNode Start(string name, string redis, bool leader, long epoch = 1, IDictionary<string, string?>? settings = null, bool ownKeyRing = false, Action<IServiceCollection>? services = null)
     {
         var keyRing = ownKeyRing ? null : KeyRingFolder(redis);
         var folder = OpsLvpApp.NewDataFolder();
@@ -52,6 +55,7 @@ public sealed class ClusterNode : IAsyncDisposable
                 {
                     s.AddDataProtection().PersistKeysToFileSystem(new DirectoryInfo(keyRing));
                 }
+                services?.Invoke(s);
             });
             return new ClusterNode(app, leadership);
         }

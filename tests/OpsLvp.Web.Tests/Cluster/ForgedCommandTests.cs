@@ -126,7 +126,11 @@ public sealed class ForgedCommandTests
 
         await Eventually.TrueAsync(() => forwarding.Refusals >= 1, "the old command refused", TimeSpan.FromSeconds(30));
         Assert.Contains("too old", forwarding.LastRefusal, StringComparison.Ordinal);
-        Assert.Equal("pending", (string?)await attacker.GetDatabase().StringGetAsync(key));
+        // never claimed; its key found pending, it gets the one sealed answer a genuine command refused for its time gets
+        // (docs/engine.md R85), which the attacker cannot read
+        var stored = (string?)await attacker.GetDatabase().StringGetAsync(key);
+        Assert.StartsWith("done:", stored, StringComparison.Ordinal);
+        Assert.Equal(CommandOutcomeKind.Refused, JsonSerializer.Deserialize<ForwardedOutcome>(a.App.Services.GetRequiredService<ClusterSeal>().OpenOutcome(stored!["done:".Length..], out _)!, LiveJson.Options)!.Kind);
         Assert.DoesNotContain(await LiveClient.EntriesAsync(a.App), e => e.Actor == s_dutyManager.Name);
     }
 
