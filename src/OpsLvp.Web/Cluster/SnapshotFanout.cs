@@ -1,6 +1,4 @@
-using System.Diagnostics;
 using System.Text.Json;
-using System.Threading.Channels;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Presentation;
 using OpsLvp.Web.Live;
@@ -10,10 +8,14 @@ namespace OpsLvp.Web.Cluster;
 
 /// <summary>
 /// Snapshot fan-out over Redis (docs/deployment.md "Fan-out and commands between nodes"). While this node leads it
-/// publishes every snapshot its engine makes current on channel <c>&lt;prefix&gt;:snapshots</c>, newest first (one
-/// waiting at most). While it does not lead it applies the snapshots it receives to its <see cref="LiveState"/> (so
-/// pages, <c>/api/state</c> and hub clients show the leader's state), and once it has heard nothing for
-/// <see cref="FanoutOptions.LeaderSilence"/> it marks the state shown NOT LIVE on every screen.
+/// publishes every snapshot its engine makes current on channel <c>&lt;prefix&gt;:snapshots</c>: on the publishing
+/// thread, before the node's own hub clients are sent it, when no publish is in flight; otherwise the newest waits
+/// (one at most) and goes out when the one in flight is done. While it does not lead it applies the snapshots it
+/// receives to its <see cref="LiveState"/> (so pages, <c>/api/state</c> and hub clients show the leader's state)
+/// straight from StackExchange.Redis's handler, not through an ordered queue: messages may be handled out of order,
+/// which is harmless because <see cref="LiveState.ApplyRemote"/> drops any snapshot older (epoch, then version) than
+/// the one shown. Once it has heard nothing for <see cref="FanoutOptions.LeaderSilence"/> on the real clock it marks
+/// the state shown NOT LIVE on every screen.
 /// </summary>
 public sealed class SnapshotFanout(
     RedisLink redis,
@@ -27,11 +29,16 @@ public sealed class SnapshotFanout(
     public const string ChannelName = "snapshots";
 
     private readonly FanoutOptions _options = options.Value;
-    private readonly Channel<(LiveSnapshot Snapshot, long Epoch)> _outbox =
-        Channel.CreateBounded<(LiveSnapshot, long)>(new BoundedChannelOptions(1) { FullMode = BoundedChannelFullMode.DropOldest, SingleReader = true });
 
-    private long _lastHeard = Stopwatch.GetTimestamp();
+    // The send side: the snapshot waiting to be published (newest only) and whether a publish is in flight.
+    private readonly Lock _sendLock = new();
+    private (LiveSnapshot Snapshot, long Epoch)? _pending;
+    private bool _sending;
+    private ISubscriber? _subscriber;
+    private RedisChannel _channel;
+
     private long _lastReceivedTicks; // real UTC ticks of the last state received from a leader; 0 = none yet
+    private long _quietSinceTicks = realClock.GetUtcNow().UtcTicks; // real UTC ticks from which silence counts: start, or last time this node led
     private bool _markedNotLive;
 
     /// <summary>Real UTC time the last state from a leader arrived; null before the first (<c>/health</c>).</summary>
@@ -40,7 +47,71 @@ public sealed class SnapshotFanout(
     /// <summary>Whether a state from a leader arrived within <see cref="FanoutOptions.LeaderSilence"/> (a standby's screens are live).</summary>
     public bool HearsLeader => redis.Enabled && LastReceivedAt is { } at && realClock.GetUtcNow() - at < _options.LeaderSilence;
 
-    private void OnPublishedOwn(LiveSnapshot snapshot, long epoch) => _outbox.Writer.TryWrite((snapshot, epoch));
+    /// <summary>
+    /// Called by <see cref="LiveState.PublishedOwn"/> on the publisher's thread: publishes at once unless a publish is
+    /// in flight, in which case the snapshot waits (replacing any older one waiting) for it to finish.
+    /// </summary>
+    private void OnPublishedOwn(LiveSnapshot snapshot, long epoch)
+    {
+        lock (_sendLock)
+        {
+            _pending = (snapshot, epoch);
+            if (_sending)
+            {
+                return;
+            }
+            _sending = true;
+        }
+        SendPending();
+    }
+
+    /// <summary>Publishes the waiting snapshots one after the other; returns when none waits or a publish is still in flight.</summary>
+    private void SendPending()
+    {
+        while (true)
+        {
+            (LiveSnapshot Snapshot, long Epoch) next;
+            lock (_sendLock)
+            {
+                if (_pending is not { } pending)
+                {
+                    _sending = false;
+                    return;
+                }
+                next = pending;
+                _pending = null;
+            }
+            var publish = PublishAsync(next.Snapshot, next.Epoch);
+            if (!publish.IsCompleted)
+            {
+                // the continuation sends whatever arrived meanwhile; PublishAsync never faults
+                _ = publish.ContinueWith(static (_, state) => ((SnapshotFanout)state!).SendPending(), this, CancellationToken.None,
+                    TaskContinuationOptions.None, TaskScheduler.Default);
+                return;
+            }
+        }
+    }
+
+    private async Task PublishAsync(LiveSnapshot snapshot, long epoch)
+    {
+        if (!leadership.IsLeader || Volatile.Read(ref _subscriber) is not { } subscriber)
+        {
+            return;
+        }
+        try
+        {
+            var body = JsonSerializer.SerializeToUtf8Bytes(new SnapshotMessage(leadership.NodeId, epoch, snapshot), LiveJson.Options);
+            await subscriber.PublishAsync(_channel, body);
+        }
+        catch (Exception ex) when (ex is RedisException or TimeoutException or ObjectDisposedException)
+        {
+            logger.LogWarning(ex, "Snapshot {Version} not fanned out: Cluster:Redis not reachable", snapshot.Version);
+        }
+        catch (Exception ex) when (ex is JsonException or NotSupportedException)
+        {
+            logger.LogError(ex, "Snapshot {Version} not fanned out: it could not be written as JSON", snapshot.Version);
+        }
+    }
 
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
@@ -67,28 +138,33 @@ public sealed class SnapshotFanout(
         }
         var subscriber = connection.GetSubscriber();
         var channel = redis.Channel(ChannelName);
-        ChannelMessageQueue? queue = null;
+        _channel = channel;
+        Volatile.Write(ref _subscriber, subscriber);
+        Action<RedisChannel, RedisValue> handler = (_, value) => Receive(value);
+        var subscribed = false;
         live.PublishedOwn += OnPublishedOwn;
         try
         {
-            queue = await subscriber.SubscribeAsync(channel);
-            queue.OnMessage(message => Receive(message.Message));
-            await Task.WhenAll(SendAsync(subscriber, channel, stoppingToken), watch);
+            // a handler called by StackExchange.Redis for each message (no ordered queue): see the class summary
+            await subscriber.SubscribeAsync(channel, handler);
+            subscribed = true;
+            await watch;
         }
         catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
         {
         }
         catch (Exception ex) when (ex is RedisException or TimeoutException)
         {
-            logger.LogError(ex, "Cluster:Redis: the snapshot channel could not be subscribed; this node cannot fan out states");
+            logger.LogError(ex, "Cluster:Redis: the snapshot channel could not be subscribed; this node cannot show a leader's states");
             await IgnoreCancellation(watch);
         }
         finally
         {
             live.PublishedOwn -= OnPublishedOwn;
-            if (queue is not null)
+            Volatile.Write(ref _subscriber, null);
+            if (subscribed)
             {
-                await queue.UnsubscribeAsync();
+                await subscriber.UnsubscribeAsync(channel, handler);
             }
         }
     }
@@ -101,26 +177,6 @@ public sealed class SnapshotFanout(
         }
         catch (OperationCanceledException)
         {
-        }
-    }
-
-    private async Task SendAsync(ISubscriber subscriber, RedisChannel channel, CancellationToken stoppingToken)
-    {
-        await foreach (var (snapshot, epoch) in _outbox.Reader.ReadAllAsync(stoppingToken))
-        {
-            if (!leadership.IsLeader)
-            {
-                continue;
-            }
-            try
-            {
-                var body = JsonSerializer.SerializeToUtf8Bytes(new SnapshotMessage(leadership.NodeId, epoch, snapshot), LiveJson.Options);
-                await subscriber.PublishAsync(channel, body);
-            }
-            catch (Exception ex) when (ex is RedisException or TimeoutException or ObjectDisposedException)
-            {
-                logger.LogWarning(ex, "Snapshot {Version} not fanned out: Cluster:Redis not reachable", snapshot.Version);
-            }
         }
     }
 
@@ -148,7 +204,6 @@ public sealed class SnapshotFanout(
         {
             return; // our own, sent while we led
         }
-        Interlocked.Exchange(ref _lastHeard, Stopwatch.GetTimestamp());
         Interlocked.Exchange(ref _lastReceivedTicks, realClock.GetUtcNow().UtcTicks);
         _markedNotLive = false;
         live.ApplyRemote(message.Snapshot, message.Epoch);
@@ -156,16 +211,19 @@ public sealed class SnapshotFanout(
 
     private async Task WatchAsync(CancellationToken stoppingToken)
     {
-        using var timer = new PeriodicTimer(TimeSpan.FromMilliseconds(Math.Clamp(_options.LeaderSilence.TotalMilliseconds / 10, 50, 1000)));
+        using var timer = new PeriodicTimer(TimeSpan.FromMilliseconds(Math.Clamp(_options.LeaderSilence.TotalMilliseconds / 10, 50, 1000)), realClock);
         while (await timer.WaitForNextTickAsync(stoppingToken))
         {
+            var now = realClock.GetUtcNow().UtcTicks;
             if (leadership.IsLeader)
             {
-                Interlocked.Exchange(ref _lastHeard, Stopwatch.GetTimestamp());
+                Interlocked.Exchange(ref _quietSinceTicks, now);
                 _markedNotLive = false;
                 continue;
             }
-            if (_markedNotLive || Stopwatch.GetElapsedTime(Interlocked.Read(ref _lastHeard)) < _options.LeaderSilence)
+            // silence on the one real clock: since the last state heard, or since this node started or last led
+            var heard = Math.Max(Interlocked.Read(ref _lastReceivedTicks), Interlocked.Read(ref _quietSinceTicks));
+            if (_markedNotLive || TimeSpan.FromTicks(now - heard) < _options.LeaderSilence)
             {
                 continue;
             }

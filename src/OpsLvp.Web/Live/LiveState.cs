@@ -22,7 +22,10 @@ public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? 
     private long _currentEpoch = long.MinValue;
     private LiveSnapshot? _ownLatest;
 
-    /// <summary>Raised (on the publisher's thread, keep it short) with each own snapshot made current while leading, and the epoch.</summary>
+    /// <summary>
+    /// Raised (on the publisher's thread, keep it short) with each own snapshot made current while leading, and the
+    /// epoch, before the snapshot is handed to this node's subscribers, so the fan-out to the other nodes starts first.
+    /// </summary>
     public event Action<LiveSnapshot, long>? PublishedOwn;
 
     /// <summary>The latest snapshot this node's own engine published, shown or not (a standby's fallback for the not-live marker).</summary>
@@ -75,9 +78,16 @@ public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? 
         {
             return;
         }
-        if (Offer(snapshot, epoch, force: false))
+        if (MakeCurrent(snapshot, epoch, force: false) is { } targets)
         {
-            PublishedOwn?.Invoke(snapshot, epoch);
+            try
+            {
+                PublishedOwn?.Invoke(snapshot, epoch);
+            }
+            finally
+            {
+                Deliver(targets, snapshot);
+            }
         }
     }
 
@@ -119,23 +129,36 @@ public sealed class LiveState(ILogger<LiveState> logger, IOptions<LiveOptions>? 
 
     private bool Offer(LiveSnapshot snapshot, long epoch, bool force)
     {
-        Subscription[] targets;
+        if (MakeCurrent(snapshot, epoch, force) is not { } targets)
+        {
+            return false;
+        }
+        Deliver(targets, snapshot);
+        return true;
+    }
+
+    /// <summary>Makes <paramref name="snapshot"/> current unless an equal or newer one is; the subscribers to hand it to, or null.</summary>
+    private Subscription[]? MakeCurrent(LiveSnapshot snapshot, long epoch, bool force)
+    {
         lock (_lock)
         {
             if (_current is not null && !force
                 && (epoch < _currentEpoch || (epoch == _currentEpoch && snapshot.Version <= _current.Version)))
             {
-                return false;
+                return null;
             }
             _current = snapshot;
             _currentEpoch = Math.Max(epoch, _currentEpoch);
-            targets = [.. _subscriptions];
+            return [.. _subscriptions];
         }
+    }
+
+    private void Deliver(Subscription[] targets, LiveSnapshot snapshot)
+    {
         foreach (var target in targets)
         {
             _ = target.DeliverAsync(snapshot, logger);
         }
-        return true;
     }
 
     private void Remove(Subscription subscription)

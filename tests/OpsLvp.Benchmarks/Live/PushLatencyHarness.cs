@@ -101,19 +101,41 @@ public static class PushLatencyHarness
     internal static async Task<(IReadOnlyDictionary<string, Latencies> ByGroup, int PayloadChars, double DeliveriesPerRound)> MeasureGroupsAsync(
         IReadOnlyList<(string Group, Uri Hub)> placement, string? key, int rounds, Func<string?> marker, Func<Task> post)
     {
-        var clients = new List<(string Group, Client Client)>(placement.Count);
+        var measured = await MeasureInterleavedAsync([new Setup("only", placement, key, marker, post)], rounds);
+        return (measured[0].ByGroup, measured[0].PayloadChars, measured[0].DeliveriesPerRound);
+    }
+
+    /// <summary>
+    /// A configuration measured by <see cref="MeasureInterleavedAsync"/>: its clients (group name and hub of each),
+    /// the API key they connect with (null: none), the text the awaited <c>state</c> must contain and the post that
+    /// makes it.
+    /// </summary>
+    internal sealed record Setup(string Name, IReadOnlyList<(string Group, Uri Hub)> Placement, string? Key, Func<string?> Marker, Func<Task> Post);
+
+    /// <summary>What <see cref="MeasureInterleavedAsync"/> measured for one <see cref="Setup"/>.</summary>
+    internal sealed record Measured(IReadOnlyDictionary<string, Latencies> ByGroup, int PayloadChars, double DeliveriesPerRound);
+
+    /// <summary>
+    /// Connects the clients of every setup at once, then runs <paramref name="rounds"/> rounds in which each setup
+    /// posts once and waits for all its clients, 150 ms apart, the order of the setups rotated by one each round:
+    /// load that drifts during the run hits every setup alike. Per setup: latencies per group, largest payload and
+    /// <c>state</c> messages of the awaited version per client per round.
+    /// </summary>
+    internal static async Task<IReadOnlyList<Measured>> MeasureInterleavedAsync(IReadOnlyList<Setup> setups, int rounds)
+    {
+        var clients = setups.Select(_ => new List<(string Group, Client Client)>()).ToList();
         try
         {
             using var throttle = new SemaphoreSlim(50);
-            var connecting = placement.Select(async p =>
+            var connecting = setups.SelectMany((setup, i) => setup.Placement.Select(p => (Index: i, p.Group, p.Hub, setup.Key))).Select(async p =>
             {
                 await throttle.WaitAsync();
                 try
                 {
-                    var client = new Client(p.Hub, key);
+                    var client = new Client(p.Hub, p.Key);
                     lock (clients)
                     {
-                        clients.Add((p.Group, client));
+                        clients[p.Index].Add((p.Group, client));
                     }
                     await client.StartAsync();
                 }
@@ -123,44 +145,57 @@ public static class PushLatencyHarness
                 }
             });
             await Task.WhenAll(connecting);
-            // One unmeasured round warms up both paths.
-            var samples = placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(placement.Count * rounds));
-            long deliveries = 0;
+            var samples = setups.Select(s => s.Placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(s.Placement.Count * rounds))).ToList();
+            var deliveries = new long[setups.Count];
+            var measuredBefore = new bool[setups.Count];
+            // One unmeasured round (-1) warms up every path.
             for (var round = -1; round < rounds; round++)
             {
-                await Task.Delay(150);
-                if (round > 0)
+                for (var k = 0; k < setups.Count; k++)
                 {
-                    deliveries += clients.Sum(c => c.Client.Deliveries);
-                }
-                var expected = marker();
-                foreach (var (_, c) in clients)
-                {
-                    c.Arm(expected);
-                }
-                var t0 = Stopwatch.GetTimestamp();
-                await post();
-                var all = Task.WhenAll(clients.Select(c => c.Client.Received));
-                if (await Task.WhenAny(all, Task.Delay(RoundTimeout)) != all)
-                {
-                    throw new TimeoutException($"not every client received 'state' within {RoundTimeout.TotalSeconds} s ({clients.Count(c => c.Client.Received.IsCompleted)}/{clients.Count})");
-                }
-                if (round >= 0)
-                {
-                    foreach (var (group, c) in clients)
+                    var i = (k + Math.Max(round, 0)) % setups.Count;
+                    var setup = setups[i];
+                    var group = clients[i];
+                    await Task.Delay(150);
+                    if (measuredBefore[i])
                     {
-                        samples[group].Add(Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds);
+                        deliveries[i] += group.Sum(c => c.Client.Deliveries);
+                    }
+                    var expected = setup.Marker();
+                    foreach (var (_, c) in group)
+                    {
+                        c.Arm(expected);
+                    }
+                    var t0 = Stopwatch.GetTimestamp();
+                    await setup.Post();
+                    var all = Task.WhenAll(group.Select(c => c.Client.Received));
+                    if (await Task.WhenAny(all, Task.Delay(RoundTimeout)) != all)
+                    {
+                        throw new TimeoutException($"{setup.Name}: not every client received 'state' within {RoundTimeout.TotalSeconds} s ({group.Count(c => c.Client.Received.IsCompleted)}/{group.Count})");
+                    }
+                    if (round >= 0)
+                    {
+                        measuredBefore[i] = true;
+                        foreach (var (name, c) in group)
+                        {
+                            samples[i][name].Add(Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds);
+                        }
                     }
                 }
             }
             await Task.Delay(150);
-            deliveries += clients.Sum(c => c.Client.Deliveries);
-            return (samples.ToDictionary(g => g.Key, g => new Latencies(g.Value)), clients.Max(c => c.Client.LastPayloadChars),
-                rounds == 0 || clients.Count == 0 ? 0 : deliveries / (double)(rounds * clients.Count));
+            for (var i = 0; i < setups.Count; i++)
+            {
+                deliveries[i] += clients[i].Sum(c => c.Client.Deliveries);
+            }
+            return [.. setups.Select((_, i) => new Measured(
+                samples[i].ToDictionary(g => g.Key, g => new Latencies(g.Value)),
+                clients[i].Count == 0 ? 0 : clients[i].Max(c => c.Client.LastPayloadChars),
+                rounds == 0 || clients[i].Count == 0 ? 0 : deliveries[i] / (double)(rounds * clients[i].Count)))];
         }
         finally
         {
-            await Task.WhenAll(clients.Select(c => c.Client.DisposeAsync().AsTask()));
+            await Task.WhenAll(clients.SelectMany(g => g).Select(c => c.Client.DisposeAsync().AsTask()));
         }
     }
 

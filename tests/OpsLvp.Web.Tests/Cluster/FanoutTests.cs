@@ -131,6 +131,66 @@ public sealed class FanoutTests
     }
 
     [RedisFact]
+    public async Task OnTheStandby_ASnapshotOlderThanTheOneShown_ArrivingLate_IsDropped()
+    {
+        // The standby handles snapshot messages as StackExchange.Redis hands them over, not through an ordered queue,
+        // so a late older one must not replace a newer one (LiveState.ApplyRemote compares epoch, then version).
+        using var redis = await RedisServerProcess.StartAsync();
+        await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true, epoch: 2);
+        // no rate limit worth the name on B's subscribers, so every snapshot made current reaches its hub client
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false, settings: new Dictionary<string, string?> { ["Live:MaxStatesPerSecond"] = "1000" });
+        var live = b.App.Services.GetRequiredService<LiveState>();
+        var versions = new System.Collections.Concurrent.ConcurrentQueue<long>();
+        await using var hub = await ConnectAsync(b.App);
+        hub.On<JsonElement>(LvpHub.StateMethod, s => versions.Enqueue(s.GetProperty("version").GetInt64()));
+
+        // a real snapshot of the leader's engine (invented reading), as the template of the messages below
+        await LiveClient.PushAsync(a.App, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Tdz, "rvr", 1500));
+        await WaitUntilAsync(() => live.Current is not null, "the leader's first state on the standby");
+        var template = live.Current!;
+        var baseVersion = template.Version + 1_000_000; // far above anything the idle leader publishes meanwhile
+
+        // published as by another leading node straight onto the channel the nodes use
+        await using var publisher = await StackExchange.Redis.ConnectionMultiplexer.ConnectAsync(redis.Configuration);
+        var channel = StackExchange.Redis.RedisChannel.Literal("opslvp:" + OpsLvp.Web.Cluster.SnapshotFanout.ChannelName);
+        async Task PublishAsync(long epoch, long version) =>
+            await publisher.GetSubscriber().PublishAsync(channel, JsonSerializer.SerializeToUtf8Bytes(
+                new OpsLvp.Web.Cluster.SnapshotMessage("node-x", epoch, template with { Version = version }), LiveJson.Options));
+
+        await PublishAsync(2, baseVersion + 100);
+        await WaitUntilAsync(() => live.Current?.Version == baseVersion + 100, "the newer snapshot on the standby");
+        await PublishAsync(2, baseVersion + 50);  // same epoch, older version: late
+        await Task.Delay(300);
+        await PublishAsync(1, baseVersion + 200); // older epoch (a former leader), higher version: late
+        await Task.Delay(300);
+        await PublishAsync(2, baseVersion + 101); // newer: shown
+        await WaitUntilAsync(() => live.Current?.Version == baseVersion + 101 && versions.Contains(baseVersion + 101), "the newest snapshot on the standby and its hub");
+        await Task.Delay(TimeSpan.FromSeconds(1)); // a late one, were it shown, reaches the hub client within this
+
+        Assert.Equal(baseVersion + 101, live.Current!.Version);
+        Assert.Equal(2, live.CurrentEpoch);
+        Assert.DoesNotContain(baseVersion + 50, versions);
+        Assert.DoesNotContain(baseVersion + 200, versions);
+        Assert.Contains(baseVersion + 100, versions);
+    }
+
+    private static async Task WaitUntilAsync(Func<bool> condition, string what)
+    {
+        using var cts = new CancellationTokenSource(s_wait);
+        while (!condition())
+        {
+            try
+            {
+                await Task.Delay(50, cts.Token);
+            }
+            catch (OperationCanceledException)
+            {
+                throw new TimeoutException($"waited {s_wait.TotalSeconds} s for {what}");
+            }
+        }
+    }
+
+    [RedisFact]
     public async Task UnreachableRedis_TheNodeStarts_AndAStandbySaysItIsNotLive()
     {
         // a port nothing listens on: the node must run and say it cannot fan out, not refuse to start
