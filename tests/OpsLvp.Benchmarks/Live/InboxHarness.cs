@@ -7,7 +7,6 @@ using Microsoft.Extensions.DependencyInjection;
 using Npgsql;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Benchmarks.Services;
-using OpsLvp.Data;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
@@ -35,6 +34,8 @@ public static class InboxHarness
     private static readonly string[] s_sensors = ["rvr-07r-end", "rvr-16-tdz", "rvr-16-mid", "rvr-16-end"];
 
     private const int PoolSize = 40;
+
+    private const string Suite = "inbox";
 
     /// <summary>The paced runs' interval between batches (20 a second).</summary>
     public static readonly TimeSpan PacedEvery = TimeSpan.FromMilliseconds(50);
@@ -230,33 +231,15 @@ public static class InboxHarness
         }
     }
 
-    private static Dictionary<string, string?> Settings(string connectionString, string shared, string node) => new()
-    {
-        [OpsLvpDatabase.ProviderSetting] = OpsLvpDatabase.PostgresProvider,
-        [OpsLvpDatabase.PostgresConnectionStringSetting] = connectionString,
-        ["Cluster:NodeId"] = node,
-        // one installation, one anchor key (docs/audit.md "Anchors"); each node its own anchor log
-        ["Anchors:KeyPath"] = Path.Combine(shared, "anchor-key.pem"),
-        ["Anchors:LogPath"] = Path.Combine(shared, node + "-anchors.jsonl"),
-    };
-
-    private static async Task WaitAsync(Func<bool> condition, string what)
-    {
-        var clock = Stopwatch.StartNew();
-        while (!condition())
-        {
-            if (clock.Elapsed > TimeSpan.FromMinutes(2))
-            {
-                throw new TimeoutException($"inbox: waited 2 minutes for {what}");
-            }
-            await Task.Delay(100);
-        }
-    }
-
-    private static void Progress(string what) =>
-        Console.WriteLine(string.Create(CultureInfo.InvariantCulture, $"[inbox {TimeProvider.System.GetUtcNow():HH:mm:ss}] {what}"));
-
     private static string Rate(int count, double seconds) => string.Create(CultureInfo.InvariantCulture, $"{count / seconds:0} /s");
 
-    private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
+    private static string Ms(double ms) => HarnessSupport.Ms(ms);
+
+    private static Task WaitAsync(Func<bool> condition, string what) => HarnessSupport.WaitAsync(Suite, condition, what);
+
+    private static void Progress(string what) => HarnessSupport.Progress(Suite, what);
+
+    /// <summary>A node of the pair: no Redis (the inbox does not use it), one anchor key for both.</summary>
+    private static Dictionary<string, string?> Settings(string connectionString, string shared, string node) =>
+        HarnessSupport.PostgresNode(connectionString, shared, node, "anchor-key.pem");
 }
