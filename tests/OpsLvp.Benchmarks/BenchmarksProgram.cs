@@ -12,6 +12,10 @@ public static class BenchmarksProgram
 {
     public static async Task<int> Main(string[] args)
     {
+        if (args.SequenceEqual(OpsLvp.Benchmarks.Live.ProbeProcess.RoleArguments))
+        {
+            return await OpsLvp.Benchmarks.Live.ProbeProcess.RunChildAsync();
+        }
         BenchOptions options;
         try
         {
@@ -153,7 +157,7 @@ public static class BenchmarksProgram
         {
             try
             {
-                await OpsLvp.Benchmarks.Live.PushHaHarness.RunAsync(options, book, Command("push-ha"));
+                await OpsLvp.Benchmarks.Live.PushHaHarness.RunAsync(options, book, Command("push-ha") + options.PushHaArguments());
             }
             catch (Exception ex) when (ex is TimeoutException or InvalidOperationException or HttpRequestException or System.Data.Common.DbException)
             {

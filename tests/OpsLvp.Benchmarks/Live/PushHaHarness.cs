@@ -1,4 +1,3 @@
-using System.Diagnostics;
 using System.Globalization;
 using System.Net.Http.Json;
 using Microsoft.Data.Sqlite;
@@ -6,7 +5,6 @@ using Microsoft.Extensions.DependencyInjection;
 using Npgsql;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Benchmarks.Services;
-using OpsLvp.Data;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
@@ -37,6 +35,8 @@ public static class PushHaHarness
 
     private const string RateSetting = "Live:MaxStatesPerSecond";
 
+    private const string Suite = "push-ha";
+
     /// <summary>
     /// Npgsql pool size per connection string. Five nodes share this process (three connection strings) and the
     /// throwaway cluster allows 100 connections; at Npgsql's default of 100 per pool, 500 hub connections
@@ -52,8 +52,10 @@ public static class PushHaHarness
 
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
     {
-        int[] counts = options.Quick ? [1, 20, 100] : [1, 20, 100, 500];
-        var rounds = options.Quick ? 5 : 60;
+        int[] defaultCounts = options.Quick ? [1, 20, 100] : [1, 20, 100, 500];
+        var counts = options.ClientCounts ?? defaultCounts;
+        var rounds = options.Rounds ?? (options.Quick ? 5 : 60);
+        var host = options.ClientsInProcess ? ClientHost.InProcess : ClientHost.OwnProcess;
         const string section = "Live push latency through two nodes and Redis (reading posted to the leader → state received, per client)";
         if (BenchPostgres.FindBin() is null || BenchRedis.Find() is null)
         {
@@ -112,7 +114,7 @@ public static class PushHaHarness
             string? Marker() => string.Create(CultureInfo.InvariantCulture, $":{PushLatencyHarness.NextValue(value)}");
             static List<(string, Uri)> On(int n, params (string Group, BenchServer Server)[] nodes) =>
                 Enumerable.Range(0, n).Select(i => (nodes[i % nodes.Length].Group, new Uri(nodes[i % nodes.Length].Server.BaseAddress, "/hubs/lvp"))).ToList();
-            var bareHubs = Enumerable.Range(0, counts[^1]).Select(_ => ("bare", new Uri(bare.BaseAddress, "/hubs/bare"))).ToList();
+            var bareHubs = Enumerable.Range(0, counts.Max()).Select(_ => ("bare", new Uri(bare.BaseAddress, "/hubs/bare"))).ToList();
 
             // one unmeasured round on SQLite gives the state's size, the bare hub's payload
             var payloadChars = (await PushLatencyHarness.MeasureGroupsAsync(On(1, ("sqlite", sqlite)), sqliteKey, 1, Marker, PostTo(sqlite, sqliteKey))).PayloadChars;
@@ -136,7 +138,7 @@ public static class PushHaHarness
                 {
                     setups.Add(new("split", On(n, ("leader", splitLeader), ("standby", splitStandby)), splitKey, Marker, PostTo(splitLeader, splitKey)));
                 }
-                var measured = await PushLatencyHarness.MeasureInterleavedAsync(setups, rounds);
+                var measured = await PushLatencyHarness.MeasureInterleavedAsync(setups, rounds, host);
                 var (bareRun, one, pg, allOnStandby) = (measured[0], measured[1], measured[2], measured[3]);
                 var split = n >= 2 ? measured[4] : null;
                 payloadChars = Math.Max(payloadChars, measured.Skip(1).Max(m => m.PayloadChars));
@@ -166,7 +168,7 @@ public static class PushHaHarness
                     $"{n} clients: one node SQLite {one.DeliveriesPerRound:0.00}, PostgreSQL {pg.DeliveriesPerRound:0.00}, all on standby {allOnStandby.DeliveriesPerRound:0.00}{(split is null ? "" : $", split {split.DeliveriesPerRound:0.00}")}"));
             }
             book.Note(string.Create(CultureInfo.InvariantCulture,
-                $"push-ha: {rounds} rounds per client count and configuration, the configurations in turn (order rotated each round), 150 ms apart, all connected at once; state payload up to {payloadChars} characters; all on the standby: leader {leaderName}, standby {standbyName}; split: leader {splitLeaderName}, standby {splitStandbyName} (second pair, Redis prefix opslvp-split); Live:MaxStatesPerSecond={Rate} on every node; Npgsql pool {PoolSize} per database; one PostgreSQL cluster (max_connections 100) and one redis-server on loopback, all nodes and clients in one process."));
+                $"push-ha: {rounds} rounds per client count and configuration, the configurations in turn (order rotated each round), 150 ms apart, all connected at once; state payload up to {payloadChars} characters; all on the standby: leader {leaderName}, standby {standbyName}; split: leader {splitLeaderName}, standby {splitStandbyName} (second pair, Redis prefix opslvp-split); Live:MaxStatesPerSecond={Rate} on every node; Npgsql pool {PoolSize} per database; one PostgreSQL cluster (max_connections 100) and one redis-server on loopback, all nodes in one process, {(host == ClientHost.OwnProcess ? "the hub clients in a second process (latency from one clock: Stopwatch timestamps, CLOCK_MONOTONIC, checked at its start)" : "the hub clients in the same process")}."));
             book.Note("push-ha: state messages of the awaited snapshot version received per client per round (1.00 = each snapshot once): " + string.Join("; ", duplicates) + ".");
         }
         finally
@@ -177,45 +179,14 @@ public static class PushHaHarness
         }
     }
 
-    /// <summary>A node on PostgreSQL <paramref name="connectionString"/>; with <paramref name="redis"/>, in the cluster (shared anchor key, own anchor log).</summary>
-    private static Dictionary<string, string?> PostgresSettings(string connectionString, string shared, string node, string? redis, string? redisPrefix = null)
-    {
-        var settings = new Dictionary<string, string?>
-        {
-            [OpsLvpDatabase.ProviderSetting] = OpsLvpDatabase.PostgresProvider,
-            [OpsLvpDatabase.PostgresConnectionStringSetting] = connectionString,
-            ["Cluster:NodeId"] = node,
-            [RateSetting] = Rate,
-            // one installation, one anchor key (docs/audit.md "Anchors"); each node its own anchor log
-            ["Anchors:KeyPath"] = Path.Combine(shared, redis is null ? node + "-anchor-key.pem" : (redisPrefix ?? "opslvp") + "-anchor-key.pem"),
-            ["Anchors:LogPath"] = Path.Combine(shared, node + "-anchors.jsonl"),
-        };
-        if (redis is not null)
-        {
-            settings["Cluster:Redis"] = redis;
-        }
-        if (redisPrefix is not null)
-        {
-            settings["Cluster:RedisPrefix"] = redisPrefix;
-        }
-        return settings;
-    }
+    /// <summary>A node on PostgreSQL <paramref name="connectionString"/>; with <paramref name="redis"/>, in the cluster (one anchor key per Redis prefix, each node its own anchor log).</summary>
+    private static Dictionary<string, string?> PostgresSettings(string connectionString, string shared, string node, string? redis, string? redisPrefix = null) =>
+        HarnessSupport.PostgresNode(connectionString, shared, node, redis is null ? node + "-anchor-key.pem" : (redisPrefix ?? "opslvp") + "-anchor-key.pem",
+            redis, redisPrefix, new Dictionary<string, string?> { [RateSetting] = Rate });
 
-    private static async Task WaitAsync(Func<bool> condition, string what)
-    {
-        var clock = Stopwatch.StartNew();
-        while (!condition())
-        {
-            if (clock.Elapsed > TimeSpan.FromMinutes(2))
-            {
-                throw new TimeoutException($"push-ha: waited 2 minutes for {what}");
-            }
-            await Task.Delay(100);
-        }
-    }
+    private static Task WaitAsync(Func<bool> condition, string what) => HarnessSupport.WaitAsync(Suite, condition, what);
 
-    private static void Progress(string what) =>
-        Console.WriteLine(string.Create(CultureInfo.InvariantCulture, $"[push-ha {TimeProvider.System.GetUtcNow():HH:mm:ss}] {what}"));
+    private static void Progress(string what) => HarnessSupport.Progress(Suite, what);
 
-    private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
+    private static string Ms(double ms) => HarnessSupport.Ms(ms);
 }

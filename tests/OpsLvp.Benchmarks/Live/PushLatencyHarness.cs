@@ -2,7 +2,6 @@ using System.Diagnostics;
 using System.Globalization;
 using System.Net.Http.Json;
 using System.Text.Json;
-using Microsoft.AspNetCore.SignalR.Client;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Data;
 using OpsLvp.Data.Stores;
@@ -119,84 +118,64 @@ public static class PushLatencyHarness
     /// Connects the clients of every setup at once, then runs <paramref name="rounds"/> rounds in which each setup
     /// posts once and waits for all its clients, 150 ms apart, the order of the setups rotated by one each round:
     /// load that drifts during the run hits every setup alike. Per setup: latencies per group, largest payload and
-    /// <c>state</c> messages of the awaited version per client per round.
+    /// <c>state</c> messages of the awaited version per client per round. The clients run where <paramref name="host"/>
+    /// says; the posts are made from this process either way.
     /// </summary>
-    internal static async Task<IReadOnlyList<Measured>> MeasureInterleavedAsync(IReadOnlyList<Setup> setups, int rounds)
+    internal static async Task<IReadOnlyList<Measured>> MeasureInterleavedAsync(IReadOnlyList<Setup> setups, int rounds, ClientHost host = ClientHost.InProcess)
     {
-        var clients = setups.Select(_ => new List<(string Group, Client Client)>()).ToList();
-        try
+        await using IProbes probes = host == ClientHost.OwnProcess ? await ProbeProcess.StartAsync() : new LocalProbes();
+        await probes.ConnectAsync([.. setups.Select(s => new ProbeSetup(s.Key, [.. s.Placement.Select(p => p.Hub)]))]);
+        var samples = setups.Select(s => s.Placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(s.Placement.Count * rounds))).ToList();
+        var deliveries = new long[setups.Count];
+        var measuredBefore = new bool[setups.Count];
+        // One unmeasured round (-1) warms up every path.
+        for (var round = -1; round < rounds; round++)
         {
-            using var throttle = new SemaphoreSlim(50);
-            var connecting = setups.SelectMany((setup, i) => setup.Placement.Select(p => (Index: i, p.Group, p.Hub, setup.Key))).Select(async p =>
+            for (var k = 0; k < setups.Count; k++)
             {
-                await throttle.WaitAsync();
+                var i = (k + Math.Max(round, 0)) % setups.Count;
+                var setup = setups[i];
+                await Task.Delay(150);
+                var previous = await probes.ArmAsync(i, setup.Marker());
+                if (measuredBefore[i])
+                {
+                    deliveries[i] += previous;
+                }
+                // the clients' receipt timestamps are Stopwatch timestamps too, from their process if it is another (ProbeProcess: one clock)
+                var t0 = Stopwatch.GetTimestamp();
+                await setup.Post();
+                long[] received;
                 try
                 {
-                    var client = new Client(p.Hub, p.Key);
-                    lock (clients)
-                    {
-                        clients[p.Index].Add((p.Group, client));
-                    }
-                    await client.StartAsync();
+                    received = await probes.WaitAsync(i, RoundTimeout);
                 }
-                finally
+                catch (TimeoutException ex)
                 {
-                    throttle.Release();
+                    throw new TimeoutException($"{setup.Name}: {ex.Message}", ex);
                 }
-            });
-            await Task.WhenAll(connecting);
-            var samples = setups.Select(s => s.Placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(s.Placement.Count * rounds))).ToList();
-            var deliveries = new long[setups.Count];
-            var measuredBefore = new bool[setups.Count];
-            // One unmeasured round (-1) warms up every path.
-            for (var round = -1; round < rounds; round++)
-            {
-                for (var k = 0; k < setups.Count; k++)
+                if (round >= 0)
                 {
-                    var i = (k + Math.Max(round, 0)) % setups.Count;
-                    var setup = setups[i];
-                    var group = clients[i];
-                    await Task.Delay(150);
-                    if (measuredBefore[i])
+                    measuredBefore[i] = true;
+                    for (var j = 0; j < received.Length; j++)
                     {
-                        deliveries[i] += group.Sum(c => c.Client.Deliveries);
-                    }
-                    var expected = setup.Marker();
-                    foreach (var (_, c) in group)
-                    {
-                        c.Arm(expected);
-                    }
-                    var t0 = Stopwatch.GetTimestamp();
-                    await setup.Post();
-                    var all = Task.WhenAll(group.Select(c => c.Client.Received));
-                    if (await Task.WhenAny(all, Task.Delay(RoundTimeout)) != all)
-                    {
-                        throw new TimeoutException($"{setup.Name}: not every client received 'state' within {RoundTimeout.TotalSeconds} s ({group.Count(c => c.Client.Received.IsCompleted)}/{group.Count})");
-                    }
-                    if (round >= 0)
-                    {
-                        measuredBefore[i] = true;
-                        foreach (var (name, c) in group)
-                        {
-                            samples[i][name].Add(Stopwatch.GetElapsedTime(t0, c.Received.Result).TotalMilliseconds);
-                        }
+                        samples[i][setup.Placement[j].Group].Add(Stopwatch.GetElapsedTime(t0, received[j]).TotalMilliseconds);
                     }
                 }
             }
-            await Task.Delay(150);
-            for (var i = 0; i < setups.Count; i++)
-            {
-                deliveries[i] += clients[i].Sum(c => c.Client.Deliveries);
-            }
-            return [.. setups.Select((_, i) => new Measured(
-                samples[i].ToDictionary(g => g.Key, g => new Latencies(g.Value)),
-                clients[i].Count == 0 ? 0 : clients[i].Max(c => c.Client.LastPayloadChars),
-                rounds == 0 || clients[i].Count == 0 ? 0 : deliveries[i] / (double)(rounds * clients[i].Count)))];
         }
-        finally
+        await Task.Delay(150);
+        var measured = new List<Measured>(setups.Count);
+        for (var i = 0; i < setups.Count; i++)
         {
-            await Task.WhenAll(clients.SelectMany(g => g).Select(c => c.Client.DisposeAsync().AsTask()));
+            var (last, payloadChars) = await probes.CountAsync(i);
+            deliveries[i] += last;
+            var clients = setups[i].Placement.Count;
+            measured.Add(new Measured(
+                samples[i].ToDictionary(g => g.Key, g => new Latencies(g.Value)),
+                payloadChars,
+                rounds == 0 || clients == 0 ? 0 : deliveries[i] / (double)(rounds * clients)));
         }
+        return measured;
     }
 
     /// <summary>The median of <paramref name="appends"/> audit commits on a fresh SQLite file (FULL), the "one audit commit" of the push target.</summary>
@@ -236,64 +215,4 @@ public static class PushLatencyHarness
     internal static int NextValue(int value) => value >= 1890 ? 1500 : value + 10;
 
     private static string Ms(double ms) => string.Create(CultureInfo.InvariantCulture, $"{ms:0.00} ms");
-
-    /// <summary>One SignalR client that records when the first <c>state</c> after <see cref="Arm"/> carrying the marker arrives.</summary>
-    private sealed class Client : IAsyncDisposable
-    {
-        private readonly HubConnection _connection;
-        private TaskCompletionSource<long> _received = NewSource();
-        private volatile string? _marker;
-        private long _awaitedVersion = -2;
-        private long _deliveries;
-
-        public Client(Uri hub, string? key)
-        {
-            _connection = new HubConnectionBuilder().WithUrl(hub, o =>
-            {
-                if (key is not null)
-                {
-                    o.Headers[ApiKeyAuthenticationHandler.Header] = key;
-                }
-            }).Build();
-            _connection.On<JsonElement>("state", payload =>
-            {
-                var now = Stopwatch.GetTimestamp();
-                var text = payload.GetRawText();
-                LastPayloadChars = text.Length;
-                var version = payload.ValueKind == JsonValueKind.Object && payload.TryGetProperty("version", out var v) && v.TryGetInt64(out var number) ? number : -1;
-                if (_marker is not { } marker || text.Contains(marker, StringComparison.Ordinal))
-                {
-                    if (Volatile.Read(ref _received).TrySetResult(now))
-                    {
-                        Interlocked.Exchange(ref _awaitedVersion, version);
-                    }
-                }
-                if (version >= 0 && version == Interlocked.Read(ref _awaitedVersion))
-                {
-                    Interlocked.Increment(ref _deliveries);
-                }
-            });
-        }
-
-        public int LastPayloadChars { get; private set; }
-
-        public Task<long> Received => Volatile.Read(ref _received).Task;
-
-        public Task StartAsync() => _connection.StartAsync();
-
-        /// <summary>How many <c>state</c> messages of the awaited snapshot's version arrived since <see cref="Arm"/>.</summary>
-        public long Deliveries => Interlocked.Read(ref _deliveries);
-
-        public void Arm(string? marker)
-        {
-            _marker = marker;
-            Interlocked.Exchange(ref _awaitedVersion, -2);
-            Interlocked.Exchange(ref _deliveries, 0);
-            Volatile.Write(ref _received, NewSource());
-        }
-
-        public ValueTask DisposeAsync() => _connection.DisposeAsync();
-
-        private static TaskCompletionSource<long> NewSource() => new(TaskCreationOptions.RunContinuationsAsynchronously);
-    }
 }
