@@ -20,9 +20,10 @@ namespace OpsLvp.Benchmarks.Live;
 /// posted to the leader) with every client on the standby, and (a second pair of nodes, its own database and Redis
 /// prefix) with the clients split half and half between leader and standby. All configurations stay connected and
 /// are measured round by round in rotation (<see cref="PushLatencyHarness.MeasureInterleavedAsync"/>), so load that
-/// drifts during the run hits them alike. Everything in this process on loopback: a throwaway PostgreSQL cluster
-/// (<see cref="BenchPostgres"/>), a throwaway redis-server (<see cref="BenchRedis"/>), the nodes on in-process Kestrel
-/// (<see cref="BenchServer"/>).
+/// drifts during the run hits them alike. On loopback: a throwaway PostgreSQL cluster (<see cref="BenchPostgres"/>), a
+/// throwaway redis-server (<see cref="BenchRedis"/>), the nodes on in-process Kestrel (<see cref="BenchServer"/>), and
+/// the measuring hub clients in a process of their own (<see cref="ProbeProcess"/>; in this one with
+/// <c>--clients-in-process</c>).
 /// </summary>
 public static class PushHaHarness
 {
@@ -119,6 +120,7 @@ public static class PushHaHarness
             // one unmeasured round on SQLite gives the state's size, the bare hub's payload
             var payloadChars = (await PushLatencyHarness.MeasureGroupsAsync(On(1, ("sqlite", sqlite)), sqliteKey, 1, Marker, PostTo(sqlite, sqliteKey))).PayloadChars;
             var duplicates = new List<string>();
+            var answers = new List<string>();
             foreach (var n in counts)
             {
                 Progress($"{n} clients");
@@ -164,11 +166,15 @@ public static class PushHaHarness
                     Row($"two nodes, split: the {n / 2 + n % 2} on the leader ({splitLeaderName})", split.ByGroup["leader"], pgP99, "PostgreSQL one-node p99", true);
                     Row($"two nodes, split: the {n / 2} on the standby ({splitStandbyName})", split.ByGroup["standby"], pgP99, "PostgreSQL one-node p99", true);
                 }
+                static string Answer(Latencies l) => string.Create(CultureInfo.InvariantCulture, $"{l.P50:0.00} / {l.P99:0.00}");
+                answers.Add(string.Create(CultureInfo.InvariantCulture,
+                    $"{n} clients: bare {Answer(bareRun.Answered)}, one node SQLite {Answer(one.Answered)}, PostgreSQL {Answer(pg.Answered)}, two nodes (all on standby) {Answer(allOnStandby.Answered)}{(split is null ? "" : $", split {Answer(split.Answered)}")}"));
                 duplicates.Add(string.Create(CultureInfo.InvariantCulture,
                     $"{n} clients: one node SQLite {one.DeliveriesPerRound:0.00}, PostgreSQL {pg.DeliveriesPerRound:0.00}, all on standby {allOnStandby.DeliveriesPerRound:0.00}{(split is null ? "" : $", split {split.DeliveriesPerRound:0.00}")}"));
             }
             book.Note(string.Create(CultureInfo.InvariantCulture,
                 $"push-ha: {rounds} rounds per client count and configuration, the configurations in turn (order rotated each round), 150 ms apart, all connected at once; state payload up to {payloadChars} characters; all on the standby: leader {leaderName}, standby {standbyName}; split: leader {splitLeaderName}, standby {splitStandbyName} (second pair, Redis prefix opslvp-split); Live:MaxStatesPerSecond={Rate} on every node; Npgsql pool {PoolSize} per database; one PostgreSQL cluster (max_connections 100) and one redis-server on loopback, all nodes in one process, {(host == ClientHost.OwnProcess ? "the hub clients in a second process (latency from one clock: Stopwatch timestamps, CLOCK_MONOTONIC, checked at its start)" : "the hub clients in the same process")}."));
+            book.Note("push-ha: the POST's own time, sent → answered, p50 / p99 ms (a reading's 202 comes after its evaluation is committed and published, docs/feeds.md; the bare hub's after its broadcast is issued): " + string.Join("; ", answers) + ".");
             book.Note("push-ha: state messages of the awaited snapshot version received per client per round (1.00 = each snapshot once): " + string.Join("; ", duplicates) + ".");
         }
         finally

@@ -112,7 +112,9 @@ public static class PushLatencyHarness
     internal sealed record Setup(string Name, IReadOnlyList<(string Group, Uri Hub)> Placement, string? Key, Func<string?> Marker, Func<Task> Post);
 
     /// <summary>What <see cref="MeasureInterleavedAsync"/> measured for one <see cref="Setup"/>.</summary>
-    internal sealed record Measured(IReadOnlyDictionary<string, Latencies> ByGroup, int PayloadChars, double DeliveriesPerRound);
+    /// <param name="Answered">Per round, the post's own time (sent → answered): for a reading, its 202, which comes after the
+    /// evaluation is committed and published (docs/feeds.md), so the rest of a client's latency is the delivery.</param>
+    internal sealed record Measured(IReadOnlyDictionary<string, Latencies> ByGroup, int PayloadChars, double DeliveriesPerRound, Latencies Answered);
 
     /// <summary>
     /// Connects the clients of every setup at once, then runs <paramref name="rounds"/> rounds in which each setup
@@ -126,6 +128,7 @@ public static class PushLatencyHarness
         await using IProbes probes = host == ClientHost.OwnProcess ? await ProbeProcess.StartAsync() : new LocalProbes();
         await probes.ConnectAsync([.. setups.Select(s => new ProbeSetup(s.Key, [.. s.Placement.Select(p => p.Hub)]))]);
         var samples = setups.Select(s => s.Placement.Select(p => p.Group).Distinct().ToDictionary(g => g, _ => new List<double>(s.Placement.Count * rounds))).ToList();
+        var answered = setups.Select(_ => new List<double>(rounds)).ToList();
         var deliveries = new long[setups.Count];
         var measuredBefore = new bool[setups.Count];
         // One unmeasured round (-1) warms up every path.
@@ -144,6 +147,7 @@ public static class PushLatencyHarness
                 // the clients' receipt timestamps are Stopwatch timestamps too, from their process if it is another (ProbeProcess: one clock)
                 var t0 = Stopwatch.GetTimestamp();
                 await setup.Post();
+                var answeredAt = Stopwatch.GetTimestamp();
                 long[] received;
                 try
                 {
@@ -156,6 +160,7 @@ public static class PushLatencyHarness
                 if (round >= 0)
                 {
                     measuredBefore[i] = true;
+                    answered[i].Add(Stopwatch.GetElapsedTime(t0, answeredAt).TotalMilliseconds);
                     for (var j = 0; j < received.Length; j++)
                     {
                         samples[i][setup.Placement[j].Group].Add(Stopwatch.GetElapsedTime(t0, received[j]).TotalMilliseconds);
@@ -173,7 +178,8 @@ public static class PushLatencyHarness
             measured.Add(new Measured(
                 samples[i].ToDictionary(g => g.Key, g => new Latencies(g.Value)),
                 payloadChars,
-                rounds == 0 || clients == 0 ? 0 : deliveries[i] / (double)(rounds * clients)));
+                rounds == 0 || clients == 0 ? 0 : deliveries[i] / (double)(rounds * clients),
+                new Latencies(answered[i])));
         }
         return measured;
     }
