@@ -76,7 +76,15 @@ internal sealed class ProbeProcess : IProbes
         {
             info.ArgumentList.Add(argument);
         }
-        var process = Process.Start(info) ?? throw new InvalidOperationException($"push-ha: the client process ({path}) did not start");
+        Process process;
+        try
+        {
+            process = Process.Start(info) ?? throw new InvalidOperationException($"push-ha: the client process ({path}) did not start");
+        }
+        catch (System.ComponentModel.Win32Exception ex)
+        {
+            throw new InvalidOperationException($"push-ha: the client process ({path}) did not start: {ex.Message}", ex);
+        }
         var probes = new ProbeProcess(process);
         try
         {
@@ -155,8 +163,15 @@ internal sealed class ProbeProcess : IProbes
     private static async Task<string[]> AskAsync(ProbeProcess probes, string request, TimeSpan limit)
     {
         var verb = request.Split('\t', 2)[0];
-        await probes._process.StandardInput.WriteLineAsync(request);
-        await probes._process.StandardInput.FlushAsync();
+        try
+        {
+            await probes._process.StandardInput.WriteLineAsync(request);
+            await probes._process.StandardInput.FlushAsync();
+        }
+        catch (IOException ex)
+        {
+            throw new InvalidOperationException($"push-ha: the client process could not be asked '{verb}' (ended? {ex.Message}); its standard error is above", ex);
+        }
         string? line;
         try
         {
