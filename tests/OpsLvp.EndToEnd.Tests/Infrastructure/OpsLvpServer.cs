@@ -59,6 +59,18 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
     }
 
     /// <summary>
+    /// Starts the app as <see cref="StartAsync(string?, IReadOnlyDictionary{string, string}?)"/> does, on
+    /// <paramref name="dataFolder"/> (an existing, empty folder the caller prepared, e.g. a small filesystem for a storage
+    /// fault); its contents are deleted with the server, the folder itself is the caller's.
+    /// </summary>
+    public static async Task<OpsLvpServer> StartOnFolderAsync(string dataFolder, string? profileJson = null, IReadOnlyDictionary<string, string>? settings = null)
+    {
+        var accounts = TestAccounts.Open(dataFolder);
+        await accounts.SeedStandardAsync();
+        return await StartAsync(dataFolder, accounts, ownsAccounts: true, profileJson, settings);
+    }
+
+    /// <summary>
     /// Starts one node of a cluster on <paramref name="accounts"/>' database (seeded by the caller, shared with the other
     /// nodes and not disposed with this one); <paramref name="settings"/> name the provider, connection string and
     /// <c>Cluster:*</c>. The node's data folder is its own.

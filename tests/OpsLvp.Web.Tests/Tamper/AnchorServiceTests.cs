@@ -1,5 +1,6 @@
 using System.Net;
 using System.Security.Cryptography;
+using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
 using OpsLvp.Core.Audit.Anchors;
 using OpsLvp.Web.Anchors;
@@ -110,6 +111,67 @@ public sealed class AnchorServiceTests
         {
             OpsLvpApp.TryDelete(folder);
         }
+    }
+
+    [Fact]
+    public async Task EveryAnchor_IsAlsoWrittenToTheServerLog()
+    {
+        // the real server process: its console output is the server log (docs/deployment.md "The server log")
+        var folder = OpsLvpApp.NewDataFolder();
+        var anchors = folder + "-anchors";
+        try
+        {
+            Directory.CreateDirectory(folder);
+            var profile = OpsLvp.FaultCases.FaultProfile.Write(folder);
+            using var server = await OpsLvp.FaultCases.ServerProcess.StartAsync(folder, profile, new Dictionary<string, string>
+            {
+                ["Anchors__Interval"] = "00:00:01",
+                // the shipped default level (appsettings.json), which the process runner lowers to Warning
+                ["Logging__LogLevel__Default"] = "Information",
+            });
+            var log = Path.Combine(anchors, "anchors.jsonl");
+            await Eventually.TrueAsync(() => File.Exists(log) && File.ReadAllLines(log).Length >= 2, "two interval anchors", TimeSpan.FromSeconds(60));
+
+            var written = File.ReadAllLines(log).Take(2).ToList();
+            await Eventually.TrueAsync(() => written.All(line => server.LastLines.Any(l => l.Contains(line, StringComparison.Ordinal))),
+                "the anchor lines in the server log", TimeSpan.FromSeconds(30));
+            var logged = server.LastLines.Where(l => l.Contains("Audit anchor (interval): ", StringComparison.Ordinal)).ToList();
+            Assert.NotEmpty(logged);
+            Assert.Contains(logged, l => l.EndsWith(written[0], StringComparison.Ordinal));
+        }
+        finally
+        {
+            OpsLvpApp.TryDelete(folder);
+        }
+    }
+
+    [Theory]
+    [InlineData("00:05:01")]
+    [InlineData("01:00:00")]
+    public void IntervalOverFiveMinutes_StopsTheStart_NamingTheSetting(string interval)
+    {
+        var folder = OpsLvpApp.NewDataFolder();
+        try
+        {
+            var ex = Assert.ThrowsAny<Exception>(() => OpsLvpApp.Start(new Dictionary<string, string?> { ["Anchors:Interval"] = interval }, folder));
+            var validation = ex as OptionsValidationException ?? ex.InnerException as OptionsValidationException
+                ?? (ex as AggregateException)?.InnerExceptions.OfType<OptionsValidationException>().FirstOrDefault();
+            Assert.NotNull(validation);
+            Assert.Contains("Anchors:Interval must be between 00:00:00.001 and 00:05:00.", validation.Message, StringComparison.Ordinal);
+        }
+        finally
+        {
+            OpsLvpApp.TryDelete(folder);
+        }
+    }
+
+    [Fact]
+    public async Task IntervalOfFiveMinutes_Starts()
+    {
+        // the boundary the issue names (every ≤ 5 minutes) is allowed
+        await using var app = OpsLvpApp.Start(new Dictionary<string, string?> { ["Anchors:Interval"] = "00:05:00" });
+        await app.GetHealthAsync();
+        Assert.Equal(TimeSpan.FromMinutes(5), app.Services.GetRequiredService<IOptions<AnchorOptions>>().Value.Interval);
     }
 
     private const string AnchorPath = AnchorServiceCollectionExtensions.AnchorPath;
