@@ -6,6 +6,9 @@ namespace OpsLvp.Core.Engine;
 /// </summary>
 public static class StatusNotes
 {
+    /// <summary>Start of the note shown beside the phase while the server is not recording.</summary>
+    public const string NotRecordingNote = "phase as last recorded before";
+
     /// <summary>
     /// The notes for <paramref name="status"/>, most important first. Open safeguards are named by
     /// <paramref name="itemText"/> (the profile's item texts) when given and it knows the item, else by their ids.
@@ -14,6 +17,12 @@ public static class StatusNotes
     {
         ArgumentNullException.ThrowIfNull(status);
         var notes = new List<string>();
+        // While storage fails no reading is evaluated (docs/reliability.md "Storage faults"): the phase on screen is the
+        // last recorded one and may no longer match the weather, so say so beside it on every screen.
+        if (status.Alarms.FirstOrDefault(a => a.Kind == AlarmKind.AuditStorageFailing) is { } notRecording)
+        {
+            notes.Add($"{NotRecordingNote} {Fmt.Time(notRecording.RaisedAt)}: not updated until recording resumes");
+        }
         if (status.ConditionsMetSafeguardsIncomplete)
         {
             notes.Add($"{LvpEngine.SafeguardsIncompleteHeadline}: {string.Join(itemText is null ? ", " : "; ", status.SafeguardsOutstanding.Select(id => itemText?.Invoke(id) ?? id))} open");

@@ -217,7 +217,7 @@ internal sealed class EngineEvaluator(
         var hostAlarms = new List<Alarm>(2);
         if (recorder.Error is not null)
         {
-            hostAlarms.Add(new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {recorder.Error}; readings are refused and actions are not applied", recorder.FailingSince ?? now));
+            hostAlarms.Add(new Alarm(SnapshotBuilder.AuditFailingKey, AlarmKind.AuditStorageFailing, $"not recording: {recorder.Error?.TrimEnd('.', ' ')}; readings are refused and actions are not applied", recorder.FailingSince ?? now));
         }
         if (_clockAlarm is { } clockAlarm && now - clockAlarm.RaisedAt < s_clockAlarmShownFor)
         {

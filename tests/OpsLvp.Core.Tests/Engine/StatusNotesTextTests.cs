@@ -23,3 +23,28 @@ public class StatusNotesTextTests
             StatusNotes.For(status, id => id == "P1" ? texts["P1"] : null));
     }
 }
+
+/// <summary>docs/reliability.md "Storage faults": while nothing is recorded the phase beside the note is the last recorded one.</summary>
+public class NotRecordingNoteTests
+{
+    [Fact]
+    public void StorageFailing_PutsTheLastRecordedNoteFirst_AndOnlyThen()
+    {
+        var profile = TestProfiles.Safeguarded();
+        var d = new EngineDriver(profile);
+        d.WeatherFromTo(0, 120, 500);
+        var status = d.Engine.Describe(d.State, EngineDriver.At(120));
+        Assert.DoesNotContain(StatusNotes.For(status), n => n.StartsWith(StatusNotes.NotRecordingNote, StringComparison.Ordinal));
+
+        var failing = status with
+        {
+            Alarms = [.. status.Alarms, new Alarm("audit-failing", AlarmKind.AuditStorageFailing, "not recording: disk full", EngineDriver.At(100))],
+        };
+        var notes = StatusNotes.For(failing);
+
+        Assert.Equal(2, notes.Count);
+        Assert.StartsWith(StatusNotes.NotRecordingNote + " ", notes[0], StringComparison.Ordinal);
+        Assert.EndsWith(": not updated until recording resumes", notes[0], StringComparison.Ordinal);
+        Assert.StartsWith("LVP conditions met", notes[1], StringComparison.Ordinal);
+    }
+}
