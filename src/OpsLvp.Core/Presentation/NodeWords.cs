@@ -6,10 +6,19 @@ public static class NodeWords
     /// <summary>Banner headline on a node that does not lead and has not heard from the leader.</summary>
     public const string NotLiveHeadline = "NOT LIVE";
 
-    /// <summary>The banner's detail on such a node, with why when known (e.g. the fan-out is not connected).</summary>
-    public static string NotLiveReason(string? why) =>
+    /// <summary>
+    /// The banner's detail on such a node, with why when known (e.g. the fan-out is not connected) and how many reading
+    /// batches pushed to this node wait in the reading inbox for a leader (kept, not lost; docs/engine.md R73, R80).
+    /// </summary>
+    public static string NotLiveReason(string? why, int queuedBatches = 0) =>
         "No state from the engine node since then; values shown are the last received, not live, and actions may not be applied."
-        + (why is null ? "" : " " + why);
+        + (why is null ? "" : " " + why)
+        + queuedBatches switch
+        {
+            <= 0 => "",
+            1 => " 1 reading batch is queued for the leader.",
+            _ => $" {queuedBatches} reading batches are queued for the leader.",
+        };
 
     /// <summary>Told to the person when no engine node took a command in time; the command is withdrawn for good.</summary>
     public static string CommandNotApplied(TimeSpan timeout) =>

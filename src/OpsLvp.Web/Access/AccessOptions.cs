@@ -35,8 +35,21 @@ public sealed class AccessOptions
     /// </summary>
     public int SignInAttemptsPerAccount { get; set; } = 5;
 
-    /// <summary>Window of <see cref="SignInAttemptsPerAccount"/>; default 15 min.</summary>
+    /// <summary>Window of <see cref="SignInAttemptsPerAccount"/> and <see cref="SignInAttemptsPerAccountAllAddresses"/>; default 15 min.</summary>
     public TimeSpan SignInAccountWindow { get; set; } = TimeSpan.FromMinutes(15);
+
+    /// <summary>
+    /// Sign-in attempts for one account from all client addresses together per <see cref="SignInAccountWindow"/>; more
+    /// are refused like the per-address ones, except from an address the account signed in from within
+    /// <see cref="SignInKnownAddressFor"/>. Default 30, at least <see cref="SignInAttemptsPerAccount"/> (docs/access.md).
+    /// </summary>
+    public int SignInAttemptsPerAccountAllAddresses { get; set; } = 30;
+
+    /// <summary>
+    /// How long an address an account signed in from stays exempt from <see cref="SignInAttemptsPerAccountAllAddresses"/>
+    /// for that account (kept in memory); default 30 days; zero turns the exemption off.
+    /// </summary>
+    public TimeSpan SignInKnownAddressFor { get; set; } = TimeSpan.FromDays(30);
 
     /// <summary>Display (kiosk) cookie lifetime, sliding; default 30 days. Revocation still ends it at once.</summary>
     public TimeSpan DisplayLifetime { get; set; } = TimeSpan.FromDays(30);

@@ -52,6 +52,10 @@ public static class AccessServiceCollectionExtensions
                 "Access:SignInAttemptsPerAccount must be between 1 and 1000.")
             .Validate(o => o.SignInAccountWindow >= TimeSpan.FromSeconds(1) && o.SignInAccountWindow <= TimeSpan.FromDays(1),
                 "Access:SignInAccountWindow must be between 00:00:01 and 1.00:00:00.")
+            .Validate(o => o.SignInAttemptsPerAccountAllAddresses >= o.SignInAttemptsPerAccount && o.SignInAttemptsPerAccountAllAddresses <= 100_000,
+                "Access:SignInAttemptsPerAccountAllAddresses must be at least Access:SignInAttemptsPerAccount and at most 100000.")
+            .Validate(o => o.SignInKnownAddressFor >= TimeSpan.Zero && o.SignInKnownAddressFor <= TimeSpan.FromDays(365),
+                "Access:SignInKnownAddressFor must be between 00:00:00 and 365.00:00:00.")
             .Validate(o => o.DisplayLifetime >= TimeSpan.FromHours(1) && o.DisplayLifetime <= TimeSpan.FromDays(400),
                 "Access:DisplayLifetime must be between 01:00:00 and 400.00:00:00.")
             .Validate(o => string.IsNullOrEmpty(o.SetupSecret) || o.SetupSecret.Trim().Length >= 16,

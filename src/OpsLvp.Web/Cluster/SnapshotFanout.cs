@@ -23,7 +23,8 @@ public sealed class SnapshotFanout(
     ILeadership leadership,
     IOptions<FanoutOptions> options,
     [FromKeyedServices(OpsLvp.Web.Time.TimeServiceCollectionExtensions.NetworkClockKey)] TimeProvider realClock,
-    ILogger<SnapshotFanout> logger) : BackgroundService
+    ILogger<SnapshotFanout> logger,
+    OpsLvp.Data.Stores.ReadingInboxStore? inbox = null) : BackgroundService
 {
     /// <summary>Channel name under the prefix.</summary>
     public const string ChannelName = "snapshots";
@@ -40,6 +41,16 @@ public sealed class SnapshotFanout(
     private long _lastReceivedTicks; // real UTC ticks of the last state received from a leader; 0 = none yet
     private long _quietSinceTicks = realClock.GetUtcNow().UtcTicks; // real UTC ticks from which silence counts: start, or last time this node led
     private bool _markedNotLive;
+
+    // While marked NOT LIVE: the snapshot marked, why, the inbox count shown and when it was last asked (real ticks).
+    private LiveSnapshot? _notLiveBase;
+    private LiveSnapshot? _notLiveShown;
+    private string? _notLiveWhy;
+    private int _queuedShown;
+    private long _queuedAskedTicks;
+
+    /// <summary>How often a NOT LIVE node asks the reading inbox how many batches wait, to keep its banner's count current.</summary>
+    internal static readonly TimeSpan QueuedRefresh = TimeSpan.FromSeconds(2);
 
     /// <summary>Real UTC time the last state from a leader arrived; null before the first (<c>/health</c>).</summary>
     public DateTimeOffset? LastReceivedAt => Interlocked.Read(ref _lastReceivedTicks) is var t and > 0 ? new DateTimeOffset(t, TimeSpan.Zero) : null;
@@ -223,7 +234,12 @@ public sealed class SnapshotFanout(
             }
             // silence on the one real clock: since the last state heard, or since this node started or last led
             var heard = Math.Max(Interlocked.Read(ref _lastReceivedTicks), Interlocked.Read(ref _quietSinceTicks));
-            if (_markedNotLive || TimeSpan.FromTicks(now - heard) < _options.LeaderSilence)
+            if (_markedNotLive)
+            {
+                await FollowQueuedAsync(now, stoppingToken);
+                continue;
+            }
+            if (TimeSpan.FromTicks(now - heard) < _options.LeaderSilence)
             {
                 continue;
             }
@@ -231,11 +247,67 @@ public sealed class SnapshotFanout(
             {
                 continue; // nothing to show yet; /api/state answers 503 and pages wait
             }
-            var why = redis.IsConnected ? null : "The fan-out (Cluster:Redis) is not connected.";
-            var marked = last with { Recording = new RecordingView(false, last.At, NodeWords.NotLiveReason(why), NodeWords.NotLiveHeadline) };
-            live.MarkNotLive(marked, live.CurrentEpoch);
+            _notLiveBase = last;
+            _notLiveWhy = redis.IsConnected ? null : "The fan-out (Cluster:Redis) is not connected.";
+            _queuedShown = await QueuedAsync(stoppingToken) ?? 0;
+            _queuedAskedTicks = now;
+            MarkNotLive();
             _markedNotLive = true;
             logger.LogWarning("No state from the engine node for {Silence}: screens on this node say NOT LIVE", _options.LeaderSilence);
+        }
+    }
+
+    private void MarkNotLive()
+    {
+        var last = _notLiveBase!;
+        var marked = last with
+        {
+            Recording = new RecordingView(false, last.At, NodeWords.NotLiveReason(_notLiveWhy, _queuedShown), NodeWords.NotLiveHeadline),
+        };
+        _notLiveShown = marked;
+        live.MarkNotLive(marked, live.CurrentEpoch);
+    }
+
+    /// <summary>
+    /// While NOT LIVE, asks the reading inbox every <see cref="QueuedRefresh"/> how many batches wait and, when the
+    /// count changed and the marked state is still the one shown (no leader state arrived meanwhile), marks it again
+    /// with the new count.
+    /// </summary>
+    private async Task FollowQueuedAsync(long now, CancellationToken stoppingToken)
+    {
+        if (TimeSpan.FromTicks(now - _queuedAskedTicks) < QueuedRefresh)
+        {
+            return;
+        }
+        _queuedAskedTicks = now;
+        if (await QueuedAsync(stoppingToken) is not { } queued || queued == _queuedShown)
+        {
+            return;
+        }
+        if (_markedNotLive && ReferenceEquals(live.Current, _notLiveShown))
+        {
+            _queuedShown = queued;
+            MarkNotLive();
+        }
+    }
+
+    /// <summary>Reading batches waiting in the inbox; null when there is no inbox or the database did not answer in time.</summary>
+    private async Task<int?> QueuedAsync(CancellationToken stoppingToken)
+    {
+        if (inbox is null)
+        {
+            return null;
+        }
+        using var timeout = CancellationTokenSource.CreateLinkedTokenSource(stoppingToken);
+        timeout.CancelAfter(TimeSpan.FromSeconds(2));
+        try
+        {
+            return (await inbox.WaitingAsync(timeout.Token)).Batches;
+        }
+        catch (Exception ex) when (ex is not OperationCanceledException || !stoppingToken.IsCancellationRequested)
+        {
+            logger.LogDebug(ex, "Reading inbox count not available for the NOT LIVE banner");
+            return null;
         }
     }
 }

@@ -112,6 +112,7 @@ public sealed partial class OpsLvpServer : IAsyncDisposable
         // Every browser test signs in from 127.0.0.1, many as the same account: the throttles are tested in OpsLvp.Web.Tests.
         start.Environment["Access__SignInPerAddressPerMinute"] = "1000";
         start.Environment["Access__SignInAttemptsPerAccount"] = "1000";
+        start.Environment["Access__SignInAttemptsPerAccountAllAddresses"] = "1000";
         start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
         foreach (var (key, value) in settings ?? new Dictionary<string, string>())
         {

@@ -21,7 +21,8 @@ public static class AccessApp
     public const string SetupSecret = "invented-setup-secret-0123456789";
 
     /// <summary>A real (non-demo) app with a 2 s revalidation interval and a known setup secret.</summary>
-    public static OpsLvpApp Start(IDictionary<string, string?>? extra = null)
+    public static OpsLvpApp Start(IDictionary<string, string?>? extra = null, string? dataFolder = null, Action<IServiceCollection>? services = null,
+        string environment = "Development")
     {
         var settings = new Dictionary<string, string?>
         {
@@ -30,12 +31,13 @@ public static class AccessApp
             // Every test client signs in from 127.0.0.1; the throttle tests set their own limits.
             ["Access:SignInPerAddressPerMinute"] = "1000",
             ["Access:SignInAttemptsPerAccount"] = "1000",
+            ["Access:SignInAttemptsPerAccountAllAddresses"] = "1000",
         };
         foreach (var (key, value) in extra ?? new Dictionary<string, string?>())
         {
             settings[key] = value;
         }
-        return OpsLvpApp.Start(settings);
+        return OpsLvpApp.Start(settings, dataFolder, services, environment);
     }
 
     public static async Task<string> CreateUserAsync(this OpsLvpApp app, string userName, string role, params string[] teams)

@@ -22,6 +22,7 @@ public sealed class DataProtectionKeyTests
             ["Access:SetupSecret"] = AccessApp.SetupSecret,
             ["Access:SignInPerAddressPerMinute"] = "1000",
             ["Access:SignInAttemptsPerAccount"] = "1000",
+            ["Access:SignInAttemptsPerAccountAllAddresses"] = "1000",
         };
         try
         {

@@ -1,3 +1,6 @@
+using Microsoft.AspNetCore.Builder;
+using Microsoft.AspNetCore.Hosting;
+using Microsoft.AspNetCore.Http;
 using Microsoft.AspNetCore.SignalR;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
@@ -104,5 +107,46 @@ public sealed class HardeningTests
 
         Assert.NotEqual(System.Net.HttpStatusCode.Unauthorized, response.StatusCode);
         Assert.True(response.Headers.CacheControl?.NoStore, $"{path} answered {(int)response.StatusCode} without Cache-Control: no-store");
+    }
+
+    /// <remarks>
+    /// The app has no request that fails on purpose, so the test adds one fault behind the whole production pipeline: a
+    /// request that no endpoint takes reaches a middleware that throws, and the exception travels back up through the
+    /// production exception handler (<c>UseExceptionHandler("/Error")</c>, active outside Development), which re-executes
+    /// the error page with status 500. Headers and caching are checked on what the client receives.
+    /// </remarks>
+    [Fact]
+    public async Task AnUnhandledException_Answers500_WithTheSecurityHeaders_AndNoStore()
+    {
+        await using var app = AccessApp.Start(services: s => s.AddTransient<IStartupFilter, ThrowBehindThePipeline>(), environment: "Production");
+
+        using var response = await app.Client.GetAsync(new Uri(ThrowBehindThePipeline.Path, UriKind.Relative));
+        var html = await response.Content.ReadAsStringAsync();
+
+        Assert.Equal(System.Net.HttpStatusCode.InternalServerError, response.StatusCode);
+        Assert.Contains("An error occurred while processing your request.", html, StringComparison.Ordinal);
+        Assert.DoesNotContain(ThrowBehindThePipeline.Message, html, StringComparison.Ordinal);
+        Assert.Equal(SecurityHeaders.ContentSecurityPolicy, response.Headers.GetValues("Content-Security-Policy").Single());
+        Assert.Equal("nosniff", response.Headers.GetValues("X-Content-Type-Options").Single());
+        Assert.Equal("DENY", response.Headers.GetValues("X-Frame-Options").Single());
+        Assert.Equal("no-referrer", response.Headers.GetValues("Referrer-Policy").Single());
+        Assert.Equal("same-origin", response.Headers.GetValues("Cross-Origin-Opener-Policy").Single());
+        Assert.True(response.Headers.Contains("Permissions-Policy"));
+        Assert.True(response.Headers.CacheControl?.NoStore, $"the 500 answered Cache-Control: {response.Headers.CacheControl}");
+    }
+
+    /// <summary>Appends, after the app's own pipeline, a middleware that throws for <see cref="Path"/>.</summary>
+    private sealed class ThrowBehindThePipeline : IStartupFilter
+    {
+        public const string Path = "/test-fault/throw";
+
+        public const string Message = "invented fault for the 500 test";
+
+        public Action<IApplicationBuilder> Configure(Action<IApplicationBuilder> next) => app =>
+        {
+            next(app);
+            app.Use((HttpContext context, RequestDelegate rest) =>
+                context.Request.Path == Path ? throw new InvalidOperationException(Message) : rest(context));
+        };
     }
 }

@@ -11,6 +11,12 @@ public sealed class SignInThrottleTests
 {
     private static async Task<string> PageTextAsync(HttpResponseMessage response) => WebUtility.HtmlDecode(await response.Content.ReadAsStringAsync());
 
+    private static async Task<string> SignInTextAsync(AccessClient client, string userName, string password)
+    {
+        using var response = await client.SignInAsync(userName, password);
+        return await PageTextAsync(response);
+    }
+
     [Fact]
     public async Task PostsBeyondThePerAddressLimit_Get429()
     {
@@ -45,6 +51,54 @@ public sealed class SignInThrottleTests
 
         // The duty manager at another address (127.0.0.2 is loopback on Linux) still signs in at once.
         using var dutyManager = AccessClient.For(app, localAddress: IPAddress.Parse("127.0.0.2"));
+        using var signedIn = await dutyManager.SignInAsync("dm.target", AccessApp.Password);
+        Assert.Equal(HttpStatusCode.Redirect, signedIn.StatusCode);
+        Assert.True(dutyManager.HasCookie(AccessSchemes.SessionCookieName));
+    }
+
+    /// <summary>
+    /// A guesser spread over many client addresses (127.0.0.0/8 is loopback on Linux) meets the per-account limit across
+    /// all addresses, which is higher than the per-address one; the answer is the same throttle message as from one
+    /// address. The duty manager at an address the account signed in from before is not held by it.
+    /// </summary>
+    [Fact]
+    public async Task AGuesserOnManyAddresses_MeetsTheAccountWideLimit_ButTheDutyManagersKnownAddressDoesNot()
+    {
+        await using var app = AccessApp.Start(new Dictionary<string, string?>
+        {
+            ["Access:SignInAttemptsPerAccount"] = "2",
+            ["Access:SignInAttemptsPerAccountAllAddresses"] = "5",
+        });
+        await app.CreateUserAsync("dm.target", Roles.DutyManager);
+        using (var earlier = AccessClient.For(app, localAddress: IPAddress.Parse("127.0.0.30")))
+        {
+            using var first = await earlier.SignInAsync("dm.target", AccessApp.Password);
+            Assert.Equal(HttpStatusCode.Redirect, first.StatusCode);
+        }
+
+        var wrong = 0;
+        var throttled = 0;
+        for (var host = 2; host <= 7; host++)
+        {
+            using var guesser = AccessClient.For(app, localAddress: IPAddress.Parse($"127.0.0.{host}"));
+            for (var i = 0; i < 2; i++)
+            {
+                var text = await SignInTextAsync(guesser, "dm.target", $"guess-{host}-{i}-padding");
+                wrong += text.Contains(SignInPage.WrongCredentials, StringComparison.Ordinal) ? 1 : 0;
+                throttled += text.Contains(SignInPage.Throttled, StringComparison.Ordinal) ? 1 : 0;
+            }
+        }
+        // 5 of the account's attempts (the first sign-in took one) reached the password check, 1 + 4 wrong; the rest were throttled.
+        Assert.Equal(4, wrong);
+        Assert.Equal(12 - 4, throttled);
+
+        // The right password from an address that never tried is throttled too: nothing tells a guesser it was right.
+        using var fresh = AccessClient.For(app, localAddress: IPAddress.Parse("127.0.0.20"));
+        Assert.Contains(SignInPage.Throttled, await SignInTextAsync(fresh, "dm.target", AccessApp.Password), StringComparison.Ordinal);
+        Assert.False(fresh.HasCookie(AccessSchemes.SessionCookieName));
+
+        // The duty manager's own workstation, where the account signed in before, still signs in at once.
+        using var dutyManager = AccessClient.For(app, localAddress: IPAddress.Parse("127.0.0.30"));
         using var signedIn = await dutyManager.SignInAsync("dm.target", AccessApp.Password);
         Assert.Equal(HttpStatusCode.Redirect, signedIn.StatusCode);
         Assert.True(dutyManager.HasCookie(AccessSchemes.SessionCookieName));

@@ -91,6 +91,53 @@ public sealed class FanoutTests
         Assert.Equal("preparation", LiveClient.Phase(again));
     }
 
+    /// <remarks>
+    /// The standby's screens say how many reading batches wait in its reading inbox for a leader, and follow the count
+    /// while they stay NOT LIVE. The nodes here run on SQLite (no standby takes pushes there), so the batches are written
+    /// into the standby's real reading inbox table (its <see cref="OpsLvp.Data.Stores.ReadingInboxStore"/> writes only on
+    /// PostgreSQL), as a push to a standby on PostgreSQL leaves them (docs/engine.md R73). Invented readings.
+    /// </remarks>
+    [RedisFact]
+    public async Task NotLive_NamesTheReadingBatchesQueuedInTheInbox_AndFollowsTheCount()
+    {
+        using var redis = await RedisServerProcess.StartAsync();
+        await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true, epoch: 3);
+        await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        await LiveClient.PushAsync(a.App, LiveClient.Item(DateTimeOffset.UtcNow, LiveTestProfile.Tdz, "rvr", 900));
+        await LiveClient.WaitForPhaseAsync(b.App, "preparation", s_wait);
+        await AddToInboxAsync(b.App, InboxRow(0), InboxRow(1));
+
+        a.Leadership.Set(false);
+        var marked = await WaitForAsync(b.App, s => !s.GetProperty("recording").GetProperty("recording").GetBoolean()
+            && (s.GetProperty("recording").GetProperty("reason").GetString() ?? "").Contains("batch", StringComparison.Ordinal));
+        Assert.Equal(OpsLvp.Core.Presentation.NodeWords.NotLiveHeadline, marked.GetProperty("recording").GetProperty("headline").GetString());
+        Assert.Contains("2 reading batches are queued for the leader", marked.GetProperty("recording").GetProperty("reason").GetString(), StringComparison.Ordinal);
+
+        await AddToInboxAsync(b.App, InboxRow(2));
+        var followed = await WaitForAsync(b.App, s => (s.GetProperty("recording").GetProperty("reason").GetString() ?? "")
+            .Contains("3 reading batches are queued for the leader", StringComparison.Ordinal));
+        Assert.False(followed.GetProperty("recording").GetProperty("recording").GetBoolean());
+        Assert.Equal("NOT LIVE", followed.GetProperty("recording").GetProperty("headline").GetString());
+    }
+
+    private static async Task AddToInboxAsync(OpsLvpApp app, params OpsLvp.Data.Entities.ReadingInboxRow[] rows)
+    {
+        var factory = app.Services.GetRequiredService<Microsoft.EntityFrameworkCore.IDbContextFactory<OpsLvp.Data.OpsLvpDbContext>>();
+        await using var db = await factory.CreateDbContextAsync();
+        db.ReadingInbox.AddRange(rows);
+        await db.SaveChangesAsync();
+    }
+
+    private static OpsLvp.Data.Entities.ReadingInboxRow InboxRow(int i) => new()
+    {
+        ReceivedAt = DateTimeOffset.UtcNow,
+        Source = "push:invented",
+        NodeId = "node-b",
+        Body = "{ \"readings\": [" + LiveClient.Item(DateTimeOffset.UtcNow.AddSeconds(-i), LiveTestProfile.Tdz, "rvr", 1500) + "] }",
+        Accepted = 1,
+        Rejected = 0,
+    };
+
     [RedisFact]
     public async Task EveryHubClient_OnEitherNode_GetsEachStateOnce()
     {

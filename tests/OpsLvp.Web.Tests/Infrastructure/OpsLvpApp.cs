@@ -49,9 +49,11 @@ public sealed class OpsLvpApp : IAsyncDisposable
 
     /// <summary>
     /// Starts the app; with <paramref name="dataFolder"/> it uses (and keeps) that folder, e.g. to restart on the same database;
-    /// <paramref name="services"/> changes the app's services after its own registrations (e.g. a test leadership).
+    /// <paramref name="services"/> changes the app's services after its own registrations (e.g. a test leadership);
+    /// <paramref name="environment"/> is the hosting environment ("Production" for the production error handling).
     /// </summary>
-    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null, string? dataFolder = null, Action<IServiceCollection>? services = null)
+    public static OpsLvpApp Start(IDictionary<string, string?>? settings = null, string? dataFolder = null, Action<IServiceCollection>? services = null,
+        string environment = "Development")
     {
         var owns = dataFolder is null;
         dataFolder ??= NewDataFolder();
@@ -67,7 +69,7 @@ public sealed class OpsLvpApp : IAsyncDisposable
             all[key] = value;
         }
 
-        var factory = new Factory(all, services);
+        var factory = new Factory(all, services, environment);
         factory.UseKestrel(options => options.Listen(IPAddress.Loopback, 0));
         try
         {
@@ -158,11 +160,11 @@ public sealed class OpsLvpApp : IAsyncDisposable
         }
     }
 
-    private sealed class Factory(IDictionary<string, string?> settings, Action<IServiceCollection>? services) : WebApplicationFactory<Program>
+    private sealed class Factory(IDictionary<string, string?> settings, Action<IServiceCollection>? services, string environment) : WebApplicationFactory<Program>
     {
         protected override void ConfigureWebHost(IWebHostBuilder builder)
         {
-            builder.UseEnvironment("Development");
+            builder.UseEnvironment(environment);
             builder.ConfigureAppConfiguration(config => config.AddInMemoryCollection(settings));
             if (services is not null)
             {

@@ -113,6 +113,7 @@ public sealed class ProviderAppTests
         settings["Access:SetupSecret"] = AccessApp.SetupSecret;
         settings["Access:SignInPerAddressPerMinute"] = "1000";
         settings["Access:SignInAttemptsPerAccount"] = "1000";
+        settings["Access:SignInAttemptsPerAccountAllAddresses"] = "1000";
         // one installation, one anchor key (docs/audit.md "Anchors"): the engine state row is sealed with it, and a node
         // with another key would rightly refuse the state; the key and log sit outside both data folders
         var anchors = Directory.CreateDirectory(OpsLvpApp.NewDataFolder()).FullName;

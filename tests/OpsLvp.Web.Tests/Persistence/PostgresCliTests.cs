@@ -70,6 +70,7 @@ public sealed class PostgresCliTests
         settings["Access:SetupSecret"] = AccessApp.SetupSecret;
         settings["Access:SignInPerAddressPerMinute"] = "1000";
         settings["Access:SignInAttemptsPerAccount"] = "1000";
+        settings["Access:SignInAttemptsPerAccountAllAddresses"] = "1000";
         try
         {
             // an installation on SQLite: a phase, an account with a session, an API key, readings, a chain
