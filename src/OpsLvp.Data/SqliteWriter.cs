@@ -10,12 +10,22 @@ namespace OpsLvp.Data;
 /// on it) and checked for WAL and a synchronous level above OFF. Uses are serialised by a lock; after any failure
 /// the connection is thrown away and the next use opens a fresh one. EF keeps the model, migrations and reads:
 /// a fresh context, connection open and pragmas on every write cost about a millisecond each time in the server.
+/// <para>Before each use the database's folder is checked to be writable (<see cref="EnsureFolderWritable"/>): a
+/// connection kept open writes through its descriptors even after the folder turned read-only (e.g. a read-only
+/// mount over it), so without the check the server would go on acknowledging into files it could not open again at its
+/// next start, and whether a push was stored would depend on which connection took it (docs/reliability.md
+/// "Read-only data folder").</para>
 /// </summary>
 internal sealed class SqliteWriter(IDbContextFactory<OpsLvpDbContext> factory, string purpose) : IDisposable
 {
     private readonly SemaphoreSlim _lock = new(1, 1);
     private Session? _session;
     private bool _disposed;
+    private string? _probePath;
+    private bool _probeKnown;
+
+    /// <summary>The file <see cref="EnsureFolderWritable"/> opens for writing: beside the database file.</summary>
+    public const string ProbeSuffix = "-writable";
 
     /// <summary>Runs <paramref name="work"/> on the open connection, alone.</summary>
     /// <exception cref="InvalidOperationException">The connection is not SQLite, or not in WAL mode, or synchronous is OFF.</exception>
@@ -26,6 +36,8 @@ internal sealed class SqliteWriter(IDbContextFactory<OpsLvpDbContext> factory, s
         {
             ObjectDisposedException.ThrowIf(_disposed, this);
             cancellationToken.ThrowIfCancellationRequested();
+            // before the session: a connection opened while the folder is read-only would stay read-only
+            EnsureFolderWritable();
             var session = _session ??= await Session.OpenAsync(factory, purpose, cancellationToken);
             try
             {
@@ -42,6 +54,38 @@ internal sealed class SqliteWriter(IDbContextFactory<OpsLvpDbContext> factory, s
         finally
         {
             _lock.Release();
+        }
+    }
+
+    /// <summary>
+    /// Opens <c>&lt;database&gt;-writable</c> for writing (created empty the first time, never written) and closes it: a
+    /// new open, so it fails as soon as the folder cannot be written, while the kept connection's descriptors still could.
+    /// Nothing for an in-memory database. Costs one open and close (microseconds) next to a commit's fsync.
+    /// </summary>
+    /// <exception cref="IOException">The folder cannot be written; the message names it and the system's reason.</exception>
+    private void EnsureFolderWritable()
+    {
+        if (!_probeKnown)
+        {
+            using var context = factory.CreateDbContext();
+            var builder = new SqliteConnectionStringBuilder(context.Database.GetConnectionString());
+            _probePath = builder.Mode == SqliteOpenMode.Memory || string.IsNullOrEmpty(builder.DataSource) || builder.DataSource.StartsWith(':')
+                ? null
+                : Path.GetFullPath(builder.DataSource) + ProbeSuffix;
+            _probeKnown = true;
+        }
+        if (_probePath is null)
+        {
+            return;
+        }
+        try
+        {
+            using var probe = File.OpenHandle(_probePath, FileMode.OpenOrCreate, FileAccess.Write, FileShare.ReadWrite);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            // no inner exception: the host names a failure by its innermost message, and this one must say what failed
+            throw new IOException($"the data folder {Path.GetDirectoryName(_probePath)} cannot be written ({purpose}): {ex.GetType().Name}: {ex.Message}");
         }
     }
 

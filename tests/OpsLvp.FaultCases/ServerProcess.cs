@@ -115,6 +115,32 @@ public sealed class ServerProcess : IDisposable
         }
     }
 
+    /// <summary>
+    /// An orderly stop: SIGTERM (the host shuts down, writing its shutdown anchor), then waits up to 60 s for the exit;
+    /// SIGKILL if it has not ended by then. Returns the exit description.
+    /// </summary>
+    public async Task<string> StopAsync()
+    {
+        if (!_process.HasExited)
+        {
+            using (var term = Process.Start(new ProcessStartInfo("kill") { ArgumentList = { "-TERM", _process.Id.ToString(System.Globalization.CultureInfo.InvariantCulture) }, UseShellExecute = false })!)
+            {
+                await term.WaitForExitAsync();
+            }
+            using var wait = new CancellationTokenSource(TimeSpan.FromSeconds(60));
+            try
+            {
+                await _process.WaitForExitAsync(wait.Token);
+            }
+            catch (OperationCanceledException)
+            {
+                Kill();
+                return "did not stop within 60 s of SIGTERM: killed";
+            }
+        }
+        return ExitDescription!;
+    }
+
     /// <summary>SIGKILL, and waits until the process is gone.</summary>
     public void Kill()
     {

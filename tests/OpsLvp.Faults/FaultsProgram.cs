@@ -7,7 +7,9 @@ namespace OpsLvp.Faults;
 /// <summary>
 /// <c>dotnet run -c Release --project tests/OpsLvp.Faults -- --kills 200 --bodies 1000000 --disk-full --read-only</c>:
 /// kill -9 cycles under load, generated hostile ingest bodies, disk-full and read-only cycles on a small tmpfs (root
-/// only; skipped with the reason otherwise); <c>--fs-shutdown</c> adds ext4-on-loop shutdown cycles (root and loop devices). Prints tried / held / broke per case, writes the table as markdown
+/// only; skipped with the reason otherwise); <c>--fs-shutdown</c> adds ext4-on-loop shutdown cycles (root and loop devices);
+/// <c>--tamper</c> runs every tamper case of <see cref="TamperCases"/> on a folder the server recorded (<c>--tamper-rounds N</c>,
+/// default 1). Prints tried / held / broke per case, writes the table as markdown
 /// (<c>--out</c>, default <c>fault-run.md</c>); <c>--ha-kills N --pg CONNECTION_STRING</c> kills the leader of two nodes on an empty
 /// PostgreSQL database N times (docs/reliability.md "Failover") and exits 1 when anything broke. Options: <c>--seed N</c>,
 /// <c>--parallel N</c> (hostile senders, default 4), <c>--cycles N</c> (storage cycles each, default 3).
@@ -24,12 +26,13 @@ public static class FaultsProgram
         var diskFull = args.Contains("--disk-full");
         var readOnly = args.Contains("--read-only");
         var shutdown = args.Contains("--fs-shutdown");
+        var tamper = args.Contains("--tamper") ? Int(args, "--tamper-rounds", 1) : 0;
         var output = Value(args, "--out") ?? "fault-run.md";
         var haKills = Int(args, "--ha-kills", 0);
         var pg = Value(args, "--pg");
-        if (kills == 0 && bodies == 0 && !diskFull && !readOnly && !shutdown && haKills == 0)
+        if (kills == 0 && bodies == 0 && !diskFull && !readOnly && !shutdown && haKills == 0 && tamper == 0)
         {
-            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--fs-shutdown] [--ha-kills N --pg CONNECTION_STRING] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
+            Console.Error.WriteLine("usage: --kills N --bodies N [--disk-full] [--read-only] [--fs-shutdown] [--tamper [--tamper-rounds N]] [--ha-kills N --pg CONNECTION_STRING] [--cycles N] [--seed N] [--parallel N] [--out FILE]");
             return 2;
         }
         if (haKills > 0 && string.IsNullOrWhiteSpace(pg))
@@ -71,6 +74,11 @@ public static class FaultsProgram
             {
                 Log($"filesystem shutdown cycles: {cycles}");
                 await ShutdownRun.RunAsync(cycles, Path.Combine(root, "shutdown"), tally, Log);
+            }
+            if (tamper > 0)
+            {
+                Log($"tamper cases: {TamperCases.All.Count}, {tamper} round(s)");
+                await TamperRun.RunAsync(tamper, Path.Combine(root, "tamper"), tally, Log);
             }
         }
         finally

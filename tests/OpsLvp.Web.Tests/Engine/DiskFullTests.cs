@@ -1,11 +1,6 @@
 using System.Net;
-using System.Net.Http.Json;
-using System.Text;
 using System.Text.Json;
-using Microsoft.Extensions.DependencyInjection;
-using OpsLvp.Data.Stores;
 using OpsLvp.FaultCases;
-using OpsLvp.Web.Feeds;
 using OpsLvp.Web.Tests.Infrastructure;
 using OpsLvp.Web.Tests.Live;
 
@@ -26,7 +21,7 @@ public sealed class DiskFullTests
         var profile = LiveTestProfile.Write(fs.Root);
         await using var app = OpsLvpApp.Start(LiveTestProfile.Settings(profile), fs.Root);
         await LiveClient.ReaderKeyAsync(app); // issued (an audit entry) while there is room
-        var pusher = new Pusher(app, DateTimeOffset.FromUnixTimeMilliseconds(DateTimeOffset.UtcNow.AddSeconds(-90).ToUnixTimeMilliseconds())); // whole ms, as stored
+        var pusher = new BatchPusher(app, DateTimeOffset.UtcNow.AddSeconds(-90), BatchSize);
 
         for (var i = 0; i < 3; i++)
         {
@@ -63,17 +58,7 @@ public sealed class DiskFullTests
         Assert.Equal(HttpStatusCode.ServiceUnavailable, (await pusher.PushBatchAsync()).Status);
 
         fs.Free();
-        var deadline = DateTime.UtcNow.AddSeconds(60);
-        while (true)
-        {
-            var (status, _) = await pusher.PushBatchAsync();
-            if (status == HttpStatusCode.Accepted)
-            {
-                break;
-            }
-            Assert.True(DateTime.UtcNow < deadline, "recording did not resume within 60 s of space returning");
-            await Task.Delay(200);
-        }
+        await pusher.PushUntilAcceptedAsync("space returning");
         Assert.Equal("ok", (await app.GetHealthAsync()).GetProperty("status").GetString());
         // the published state follows the host's flag with the next publish (coalesced, docs/feeds.md): give it room
         var stateDeadline = DateTime.UtcNow.AddSeconds(30);
@@ -84,11 +69,7 @@ public sealed class DiskFullTests
         }
 
         // every acknowledged reading is in the readings table
-        var stored = (await app.Services.GetRequiredService<ReadingStore>().GetReceivedAsync(DateTimeOffset.UnixEpoch, DateTimeOffset.UtcNow.AddDays(1)))
-            .Where(r => r.Sensor == LiveTestProfile.Tdz && r.Time is not null)
-            .Select(r => r.Time!.Value)
-            .ToHashSet();
-        var lost = pusher.Acknowledged.Where(a => !stored.Contains(a)).ToList();
+        var lost = await pusher.LostAsync();
         Assert.True(lost.Count == 0, $"{lost.Count} of {pusher.Acknowledged.Count} acknowledged readings were not stored");
 
         // the gap is one entry naming its start and end, and nothing else is dated inside it
@@ -101,38 +82,5 @@ public sealed class DiskFullTests
         Assert.DoesNotContain(entries, e => e.Time > from && e.Time < to);
         Assert.True(payload.RootElement.GetProperty("refusedReadings").GetInt64() >= BatchSize);
         await LiveClient.AssertChainVerifiesAsync(app);
-    }
-
-    /// <summary>Pushes batches of increasing sensor times and keeps the times of every acknowledged reading.</summary>
-    private sealed class Pusher(OpsLvpApp app, DateTimeOffset start)
-    {
-        private DateTimeOffset _t = start;
-
-        public List<DateTimeOffset> Acknowledged { get; } = [];
-
-        public async Task<(HttpStatusCode Status, string? Error)> PushBatchAsync()
-        {
-            var times = new List<DateTimeOffset>(BatchSize);
-            var items = new List<string>(BatchSize);
-            for (var i = 0; i < BatchSize; i++)
-            {
-                _t = _t.AddMilliseconds(1);
-                times.Add(_t);
-                items.Add(LiveClient.Item(_t, LiveTestProfile.Tdz, "rvr", 1500 + (i % 7)));
-            }
-            using var request = new HttpRequestMessage(HttpMethod.Post, new Uri("/api/readings", UriKind.Relative))
-            {
-                Content = new StringContent("{ \"readings\": [" + string.Join(",", items) + "] }", Encoding.UTF8, "application/json"),
-            };
-            request.Headers.Add(ReadingsApi.ApiKeyHeader, LiveTestProfile.PushKey);
-            using var response = await app.Client.SendAsync(request);
-            if (response.StatusCode == HttpStatusCode.Accepted)
-            {
-                Acknowledged.AddRange(times);
-                return (response.StatusCode, null);
-            }
-            var body = await response.Content.ReadFromJsonAsync<JsonElement>();
-            return (response.StatusCode, body.TryGetProperty("error", out var e) ? e.GetString() : body.ToString());
-        }
     }
 }

@@ -14,6 +14,7 @@ public sealed class FilesystemShutdownTests(ITestOutputHelper output)
     [LoopFact]
     public async Task FilesystemShutDown_TheServerSurvives_Refuses_SaysFailing_AndLosesNothingAcknowledged()
     {
+        LoopFactAttribute.EnsureCanMount();
         var folder = OpsLvpApp.NewDataFolder();
         try
         {

@@ -1,3 +1,4 @@
+using OpsLvp.FaultCases;
 using OpsLvp.Web.Tests.Live;
 using Xunit.Abstractions;
 
@@ -10,8 +11,11 @@ namespace OpsLvp.Web.Tests.Tamper;
 /// </summary>
 public sealed class TamperTests(ITestOutputHelper output)
 {
+    /// <summary>Every case of the shared list (tests/OpsLvp.FaultCases), so a case added there runs here too.</summary>
+    public static TheoryData<string> Names() => new(TamperCases.All.Select(c => c.Name));
+
     [Theory]
-    [MemberData(nameof(TamperCases.Names), MemberType = typeof(TamperCases))]
+    [MemberData(nameof(Names))]
     public async Task Case_IsReportedByVerify_AndStopsTheEngineWhereTheStartChecksIt(string name)
     {
         var tamper = TamperCases.Named(name);

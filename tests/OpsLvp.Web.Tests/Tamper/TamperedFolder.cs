@@ -1,6 +1,6 @@
 using System.Text.Json;
 using Microsoft.Data.Sqlite;
-using OpsLvp.Cli;
+using OpsLvp.FaultCases;
 using OpsLvp.Web.Engine;
 using OpsLvp.Web.Tests.Infrastructure;
 using OpsLvp.Web.Tests.Live;
@@ -12,7 +12,7 @@ namespace OpsLvp.Web.Tests.Tamper;
 /// layout, docs/audit.md "Anchors"), ready to be tampered with. The recording is invented: RVR 900 m moves the
 /// live test profile to preparation, RVR 400 m to LVP in force; each transition covers the readings before it.
 /// </summary>
-public sealed class TamperedFolder : IAsyncDisposable
+public sealed class TamperedFolder : ITamperTarget, IAsyncDisposable
 {
     private TamperedFolder(string folder, string profile)
     {
@@ -33,6 +33,8 @@ public sealed class TamperedFolder : IAsyncDisposable
     public string KeyPath => Path.Combine(AnchorsFolder, "anchor-key.pem");
 
     public string PublicKeyPath => Path.Combine(AnchorsFolder, "anchor-key.pub.pem");
+
+    public string TdzSensor => LiveTestProfile.Tdz;
 
     /// <summary>Starts a server on a fresh folder, records the invented night and stops it (the stop writes the last anchor).</summary>
     public static async Task<TamperedFolder> RecordAsync()
@@ -62,34 +64,16 @@ public sealed class TamperedFolder : IAsyncDisposable
         return OpsLvpApp.Start(settings, Folder);
     }
 
-    /// <summary>Runs SQL on the stopped server's file, as someone with write access to it would; returns the first column of the last statement's first row.</summary>
-    public async Task<object?> SqlAsync(string sql)
+    public async Task StartAndStopAsync()
     {
-        await using var connection = new SqliteConnection($"Data Source={Database};Pooling=False");
-        await connection.OpenAsync();
-        await using var command = connection.CreateCommand();
-        command.CommandText = sql;
-        return await command.ExecuteScalarAsync();
+        await using var again = Start();
     }
 
+    public Task<object?> SqlAsync(string sql) => TamperFiles.SqlAsync(Database, sql);
+
     /// <summary><c>opslvp audit verify --db … --anchors … --public-key …</c> (the anchors and key optional).</summary>
-    public (int Code, JsonElement Output, string Stderr) Verify(bool anchors = true, bool publicKey = true)
-    {
-        var args = new List<string> { "audit", "verify", "--db", Database };
-        if (anchors)
-        {
-            args.AddRange(["--anchors", AnchorLog]);
-            if (publicKey)
-            {
-                args.AddRange(["--public-key", PublicKeyPath]);
-            }
-        }
-        using var stdout = new StringWriter();
-        using var stderr = new StringWriter();
-        var code = CliApp.Run([.. args], stdout, stderr);
-        var text = stdout.ToString();
-        return (code, text.Length == 0 ? default : JsonDocument.Parse(text).RootElement.Clone(), stderr.ToString());
-    }
+    public (int Code, JsonElement Output, string Stderr) Verify(bool anchors = true, bool publicKey = true) =>
+        TamperFiles.Verify(Database, anchors ? AnchorLog : null, publicKey ? PublicKeyPath : null);
 
     public async ValueTask DisposeAsync()
     {

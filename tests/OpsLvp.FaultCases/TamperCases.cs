@@ -3,21 +3,19 @@ using System.Security.Cryptography;
 using OpsLvp.Core.Audit;
 using OpsLvp.Core.Audit.Anchors;
 
-namespace OpsLvp.Web.Tests.Tamper;
+namespace OpsLvp.FaultCases;
 
 /// <summary>
-/// The tamper case list, in one place so the fault runner can reuse it (docs/reliability.md "Tamper evidence").
-/// Each case is applied to a folder a real server recorded (<see cref="TamperedFolder.RecordAsync"/>), after it stopped.
+/// The tamper case list, in one place for <c>TamperTests</c> in <c>dotnet test</c> and the fault runner's <c>--tamper</c>
+/// (docs/reliability.md "Tamper evidence"). Each case is applied to a folder a real server recorded, after it stopped.
+/// A case that finds nothing to change throws, so a run never counts a tampering that did not happen.
 /// </summary>
 public static class TamperCases
 {
     public static IReadOnlyList<TamperCase> All { get; } =
     [
         new("ordinary_restart", "nothing: the server is started and stopped once more on the same folder",
-            async f =>
-            {
-                await using var again = f.Start();
-            },
+            f => f.StartAndStopAsync(),
             null, null),
         new("delete_last_entries", "the append-only trigger dropped, the last 3 audit entries and the engine state row deleted",
             f => f.SqlAsync("DROP TRIGGER audit_entries_no_delete; DELETE FROM audit_entries WHERE sequence > (SELECT MAX(sequence) - 3 FROM audit_entries); DELETE FROM engine_state;"),
@@ -29,8 +27,8 @@ public static class TamperCases
             async f =>
             {
                 var changed = await f.SqlAsync("UPDATE engine_state SET state_json = replace(state_json, '\"Phase\":\"Active\"', '\"Phase\":\"Normal\"'); SELECT changes();");
-                Assert.Equal(1L, changed);
-                Assert.Equal(0L, await f.SqlAsync("SELECT instr(state_json, '\"Phase\":\"Active\"') FROM engine_state;"));
+                Expect(1L, changed, "state rows changed");
+                Expect(0L, await f.SqlAsync("SELECT instr(state_json, '\"Phase\":\"Active\"') FROM engine_state;"), "LVP in force left in the state row");
             },
             "state_mismatch", "seal does not verify"),
         new("deleted_state_row", "the engine_state row deleted (the engine would start afresh from NORMAL)",
@@ -54,27 +52,25 @@ public static class TamperCases
             },
             "anchor_wrong_key", null),
         new("edited_reading", "the RVR 400 m reading that drove LVP in force rewritten to 1400 m in the readings table",
-            async f => Assert.Equal(1L, await f.SqlAsync("UPDATE readings SET value = 1400 WHERE id = (SELECT MIN(id) FROM readings WHERE sensor = 't-tdz' AND value = 400); SELECT changes();")),
+            async f => Expect(1L, await f.SqlAsync($"UPDATE readings SET value = 1400 WHERE id = (SELECT MIN(id) FROM readings WHERE sensor = '{f.TdzSensor}' AND value = 400); SELECT changes();"), "readings changed"),
             "readings_mismatch", null),
         new("deleted_reading", "the RVR 900 m reading that drove preparation deleted from the readings table",
-            async f => Assert.Equal(1L, await f.SqlAsync("DELETE FROM readings WHERE id = (SELECT MIN(id) FROM readings WHERE sensor = 't-tdz' AND value = 900); SELECT changes();")),
+            async f => Expect(1L, await f.SqlAsync($"DELETE FROM readings WHERE id = (SELECT MIN(id) FROM readings WHERE sensor = '{f.TdzSensor}' AND value = 900); SELECT changes();"), "readings deleted"),
             "readings_mismatch", null),
     ];
 
     public static TamperCase Named(string name) => All.Single(c => c.Name == name);
 
-    public static TheoryData<string> Names()
+    private static void Expect(long expected, object? actual, string what)
     {
-        var data = new TheoryData<string>();
-        foreach (var c in All)
+        if (!Equals(actual, expected))
         {
-            data.Add(c.Name);
+            throw new InvalidOperationException($"tampering did not take: {what}: {actual ?? "null"}, expected {expected}");
         }
-        return data;
     }
 
     /// <summary>Rewrites entry 2 and re-chains everything after it, as someone who knows the hash rule would.</summary>
-    private static async Task RewriteEntryTwoAsync(TamperedFolder f)
+    private static async Task RewriteEntryTwoAsync(ITamperTarget f)
     {
         await using var connection = new Microsoft.Data.Sqlite.SqliteConnection($"Data Source={f.Database};Pooling=False");
         await connection.OpenAsync();
@@ -101,7 +97,7 @@ public static class TamperCases
             var payload = row.Sequence == 2 ? "{\"rewritten\":true}" : row.Payload;
             var time = DateTimeOffset.ParseExact(row.Time, AuditCanonical.TimeFormat, CultureInfo.InvariantCulture, DateTimeStyles.AssumeUniversal);
             var entry = AuditChain.Append(previous, time, row.Actor, row.Kind, payload);
-            Assert.Equal(row.Sequence, entry.Sequence);
+            Expect(row.Sequence, entry.Sequence, "re-chained sequence");
             if (row.Sequence >= 2)
             {
                 await using var update = connection.CreateCommand();
@@ -111,7 +107,7 @@ public static class TamperCases
                 update.Parameters.AddWithValue("$ph", entry.PreviousHash);
                 update.Parameters.AddWithValue("$h", entry.Hash);
                 update.Parameters.AddWithValue("$s", row.Sequence);
-                Assert.Equal(1, await update.ExecuteNonQueryAsync());
+                Expect(1L, (long)await update.ExecuteNonQueryAsync(), "entries rewritten");
             }
             previous = entry;
         }
