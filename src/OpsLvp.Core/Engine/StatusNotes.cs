@@ -21,7 +21,7 @@ public static class StatusNotes
         // last recorded one and may no longer match the weather, so say so beside it on every screen.
         if (status.Alarms.FirstOrDefault(a => a.Kind == AlarmKind.AuditStorageFailing) is { } notRecording)
         {
-            notes.Add($"{NotRecordingNote} {Fmt.Time(notRecording.RaisedAt)}: not updated until recording resumes");
+            notes.Add($"{NotRecordingNote} {notRecording.RaisedAt.UtcDateTime.ToString("HH:mm:ss'Z'", System.Globalization.CultureInfo.InvariantCulture)}");
         }
         if (status.ConditionsMetSafeguardsIncomplete)
         {

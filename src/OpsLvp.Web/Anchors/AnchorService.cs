@@ -23,7 +23,10 @@ public sealed class AnchorService(
     // stopped after its services were disposed (a test fixture's double stop) must still reach the shutdown anchor.
     private readonly SemaphoreSlim _gate = new(1, 1);
     private bool _resetPending;
-    private int _shutdownAnchored;
+    // The shutdown anchor, written once. A second StopAsync (the generic host's own run loop stops the host again when
+    // a test host or a service stops it) waits for the first one's anchor: returning at once let that caller go on to
+    // dispose the host, and with it the key and the logger, while the anchor was still being written.
+    private Task? _shutdownAnchor;
 
     /// <summary>The next anchor starts afresh (after an administrator acknowledged a mismatch).</summary>
     public void RequestReset() => _resetPending = true;
@@ -57,9 +60,21 @@ public sealed class AnchorService(
         }
         finally
         {
-            if (Interlocked.Exchange(ref _shutdownAnchored, 1) == 0)
+            var mine = new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously);
+            if (Interlocked.CompareExchange(ref _shutdownAnchor, mine.Task, null) is { } first)
             {
-                await TryAnchorAsync("shutdown", CancellationToken.None);
+                await first;
+            }
+            else
+            {
+                try
+                {
+                    await TryAnchorAsync("shutdown", CancellationToken.None);
+                }
+                finally
+                {
+                    mine.SetResult();
+                }
             }
         }
     }

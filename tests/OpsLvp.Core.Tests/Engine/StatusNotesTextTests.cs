@@ -44,7 +44,7 @@ public class NotRecordingNoteTests
 
         Assert.Equal(2, notes.Count);
         Assert.StartsWith(StatusNotes.NotRecordingNote + " ", notes[0], StringComparison.Ordinal);
-        Assert.EndsWith(": not updated until recording resumes", notes[0], StringComparison.Ordinal);
+        Assert.Equal(StatusNotes.NotRecordingNote + " " + EngineDriver.At(100).UtcDateTime.ToString("HH:mm:ss'Z'", System.Globalization.CultureInfo.InvariantCulture), notes[0]);
         Assert.StartsWith("LVP conditions met", notes[1], StringComparison.Ordinal);
     }
 }

@@ -70,6 +70,9 @@ public sealed class NotRecordingBrowserTests(ITestOutputHelper output)
             """);
         Assert.NotEmpty(figures.EnumerateArray());
         Assert.All(figures.EnumerateArray(), f => Assert.Equal("grayscale(1)", f.GetString()));
+        // the phase is the last recorded one: drained of its colour, and the note beside it says so
+        Assert.Equal("grayscale(1)", (await StyleAsync(wall, "[data-testid=wall-phase]")).GetProperty("filter").GetString());
+        await Expect(wall.Locator("[data-testid=wall-phase-note]").First).ToContainTextAsync("phase as last recorded before");
 
         var wallShot = Artifacts.PathFor("wall-not-recording.png");
         await wall.ScreenshotAsync(new() { Path = wallShot });
@@ -98,6 +101,8 @@ public sealed class NotRecordingBrowserTests(ITestOutputHelper output)
         var back = await StyleAsync(wall, TdzValue);
         output.WriteLine($"recording again: {back}");
         Assert.Equal(recording.GetProperty("color").GetString(), back.GetProperty("color").GetString());
+        Assert.Equal("none", (await StyleAsync(wall, "[data-testid=wall-phase]")).GetProperty("filter").GetString());
+        await Expect(wall.Locator("[data-testid=wall-phase-note]")).ToHaveCountAsync(0);
         Assert.Equal("none", back.GetProperty("filter").GetString());
         browser.AssertNoCspViolationOrUncaughtError();
     }

@@ -57,6 +57,35 @@ public sealed class AnchorServiceTests
     }
 
     [Fact]
+    public async Task TwoStopsAtOnce_NeitherReturnsBeforeTheShutdownAnchorIsWritten()
+    {
+        // The generic host stops its services twice when a test host (or anything else) stops it while its run loop
+        // waits: the second stop used to return at once, and its caller disposed the host, key and logger included,
+        // while the first stop was still writing the anchor (ObjectDisposedException, no shutdown anchor).
+        var folder = OpsLvpApp.NewDataFolder();
+        var log = Path.Combine(folder + "-anchors", "anchors.jsonl");
+        try
+        {
+            await using var app = OpsLvpApp.Start(new Dictionary<string, string?>(), folder);
+            var service = app.Services.GetServices<Microsoft.Extensions.Hosting.IHostedService>().OfType<AnchorService>().Single();
+            var before = File.Exists(log) ? File.ReadAllLines(log).Length : 0;
+
+            var first = service.StopAsync(CancellationToken.None);
+            var second = service.StopAsync(CancellationToken.None);
+            await Task.WhenAny(first, second);
+
+            Assert.True(File.Exists(log) && File.ReadAllLines(log).Length == before + 1,
+                "a stop returned before the shutdown anchor was written");
+            await Task.WhenAll(first, second);
+            Assert.Equal(before + 1, File.ReadAllLines(log).Length); // one shutdown anchor, not two
+        }
+        finally
+        {
+            OpsLvpApp.TryDelete(folder);
+        }
+    }
+
+    [Fact]
     public async Task OnDemandAnchor_IsForAdministratorsOnly()
     {
         await using var app = AccessApp.Start();
