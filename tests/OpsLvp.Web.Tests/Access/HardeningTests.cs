@@ -124,7 +124,8 @@ public sealed class HardeningTests
         var html = await response.Content.ReadAsStringAsync();
 
         Assert.Equal(System.Net.HttpStatusCode.InternalServerError, response.StatusCode);
-        Assert.Contains("An error occurred while processing your request.", html, StringComparison.Ordinal);
+        Assert.Contains("This page could not be shown", html, StringComparison.Ordinal);
+        Assert.DoesNotContain("Development", html, StringComparison.Ordinal); // no advice to run a deployed server in Development mode
         Assert.DoesNotContain(ThrowBehindThePipeline.Message, html, StringComparison.Ordinal);
         Assert.Equal(SecurityHeaders.ContentSecurityPolicy, response.Headers.GetValues("Content-Security-Policy").Single());
         Assert.Equal("nosniff", response.Headers.GetValues("X-Content-Type-Options").Single());
