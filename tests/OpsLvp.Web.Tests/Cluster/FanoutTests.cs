@@ -274,18 +274,8 @@ public sealed class FanoutTests
         return hub;
     }
 
-    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
-    {
-        using var cts = new CancellationTokenSource(s_wait);
-        while (true)
-        {
-            var state = await states.Reader.ReadAsync(cts.Token);
-            if (match(state))
-            {
-                return state;
-            }
-        }
-    }
+    private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
+        StateChannels.NextAsync(states, match, s_wait);
 
     /// <summary>Polls GET /api/state (503 until a first state) until <paramref name="match"/> holds.</summary>
     private static async Task<JsonElement> WaitForAsync(OpsLvpApp app, Func<JsonElement, bool> match)

@@ -241,16 +241,6 @@ public sealed class StandbyPushTests
         }
     }
 
-    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
-    {
-        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(60));
-        while (true)
-        {
-            var state = await states.Reader.ReadAsync(cts.Token);
-            if (match(state))
-            {
-                return state;
-            }
-        }
-    }
+    private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
+        StateChannels.NextAsync(states, match);
 }

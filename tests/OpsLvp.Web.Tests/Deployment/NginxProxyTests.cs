@@ -189,18 +189,8 @@ public sealed partial class NginxProxyTests(TwoNodesBehindNginx cluster) : IClas
         Assert.Equal("127.0.0.2", failed.GetProperty("address").GetString());
     }
 
-    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
-    {
-        using var cts = new CancellationTokenSource(Patience);
-        while (true)
-        {
-            var state = await states.Reader.ReadAsync(cts.Token);
-            if (match(state))
-            {
-                return state;
-            }
-        }
-    }
+    private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
+        StateChannels.NextAsync(states, match, Patience);
 
     [GeneratedRegex("name=\"__RequestVerificationToken\"[^>]*value=\"([^\"]+)\"")]
     private static partial Regex TokenPattern();

@@ -139,18 +139,8 @@ public sealed class ClockSteppedBackTests
         return await response.Content.ReadFromJsonAsync<JsonElement>();
     }
 
-    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
-    {
-        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(60));
-        while (true)
-        {
-            var s = await states.Reader.ReadAsync(cts.Token);
-            if (match(s))
-            {
-                return s;
-            }
-        }
-    }
+    private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
+        StateChannels.NextAsync(states, match);
 
     /// <summary>The system clock with an offset the test steps (a host clock corrected while the server runs).</summary>
     private sealed class SteppableClock : TimeProvider

@@ -165,16 +165,6 @@ public sealed class LiveEngineTests
         }
     }
 
-    private static async Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match)
-    {
-        using var cts = new CancellationTokenSource(TimeSpan.FromSeconds(15));
-        while (true)
-        {
-            var s = await states.Reader.ReadAsync(cts.Token);
-            if (match(s))
-            {
-                return s;
-            }
-        }
-    }
+    private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
+        StateChannels.NextAsync(states, match, TimeSpan.FromSeconds(15));
 }
