@@ -128,7 +128,14 @@ public sealed class ForgedCommandTests
         Assert.Contains("too old", forwarding.LastRefusal, StringComparison.Ordinal);
         // never claimed; its key found pending, it gets the one sealed answer a genuine command refused for its time gets
         // (docs/engine.md R85), which the attacker cannot read
+        // (the answer is written after the refusal is counted: wait for it rather than read it at once)
+        var answerBy = DateTime.UtcNow.AddSeconds(30);
         var stored = (string?)await attacker.GetDatabase().StringGetAsync(key);
+        while (stored?.StartsWith("done:", StringComparison.Ordinal) != true && DateTime.UtcNow < answerBy)
+        {
+            await Task.Delay(50);
+            stored = await attacker.GetDatabase().StringGetAsync(key);
+        }
         Assert.StartsWith("done:", stored, StringComparison.Ordinal);
         Assert.Equal(CommandOutcomeKind.Refused, JsonSerializer.Deserialize<ForwardedOutcome>(a.App.Services.GetRequiredService<ClusterSeal>().OpenOutcome(stored!["done:".Length..], out _)!, LiveJson.Options)!.Kind);
         Assert.DoesNotContain(await LiveClient.EntriesAsync(a.App), e => e.Actor == s_dutyManager.Name);
