@@ -28,14 +28,48 @@ public sealed partial class LoopFilesystem : IDisposable
 
     public string Root { get; }
 
+    private static readonly Lazy<string?> LoopRefusal = new(ProbeLoopMount);
+
     /// <summary>Null when this machine can make and mount a loop ext4 filesystem, else why not.</summary>
-    public static string? CannotMount()
+    public static string? CannotMount() => CannotInstall() ?? LoopRefusal.Value;
+
+    /// <summary>
+    /// Why a loop ext4 filesystem cannot be made for a reason an installer could mend (not root, no mkfs.ext4), else null.
+    /// A kernel or sandbox that gives this process no loop device is not such a reason: see <see cref="CannotMount"/>.
+    /// </summary>
+    public static string? CannotInstall() =>
+        SmallMount.CannotMount() ?? (File.Exists("/sbin/mkfs.ext4") || File.Exists("/usr/sbin/mkfs.ext4") ? null : "mkfs.ext4 is not installed");
+
+    /// <summary>
+    /// Makes, mounts and unmounts a tiny ext4 image once: a machine can have root, mkfs.ext4 and even
+    /// <c>/dev/loop-control</c> and still refuse a loop mount (a container without loop device nodes).
+    /// </summary>
+    private static string? ProbeLoopMount()
     {
-        if (SmallMount.CannotMount() is { } why)
+        if (!File.Exists("/dev/loop-control"))
         {
-            return why;
+            return "this kernel or sandbox gives no loop devices (/dev/loop-control is missing)";
         }
-        return File.Exists("/sbin/mkfs.ext4") || File.Exists("/usr/sbin/mkfs.ext4") ? (File.Exists("/dev/loop-control") ? null : "no loop devices (/dev/loop-control)") : "mkfs.ext4 is not installed";
+        var folder = Path.Combine(Path.GetTempPath(), "opslvp-loop-probe-" + Guid.NewGuid().ToString("N"));
+        try
+        {
+            using var probe = Create(folder, 8);
+            return null;
+        }
+        catch (Exception e) when (e is InvalidOperationException or IOException or System.ComponentModel.Win32Exception)
+        {
+            return "this kernel or sandbox refused a loop mount: " + e.Message;
+        }
+        finally
+        {
+            try
+            {
+                Directory.Delete(folder, recursive: true);
+            }
+            catch (IOException)
+            {
+            }
+        }
     }
 
     public static LoopFilesystem Create(string folder, int megabytes)
