@@ -115,6 +115,8 @@ public sealed class OpsLvpDbContext(DbContextOptions<OpsLvpDbContext> options) :
             e.Property(r => r.Body).HasColumnName("body");
             e.Property(r => r.Accepted).HasColumnName("accepted");
             e.Property(r => r.Rejected).HasColumnName("rejected");
+            e.Property(r => r.Attempts).HasColumnName("attempts").HasDefaultValue(0);
+            e.Property(r => r.LastError).HasColumnName("last_error");
         });
         modelBuilder.Entity<FeedHealthRow>(e =>
         {

@@ -560,10 +560,20 @@ namespace OpsLvp.Data.Postgres.Migrations
                         .HasColumnType("integer")
                         .HasColumnName("accepted");
 
+                    b.Property<int>("Attempts")
+                        .ValueGeneratedOnAdd()
+                        .HasColumnType("integer")
+                        .HasDefaultValue(0)
+                        .HasColumnName("attempts");
+
                     b.Property<string>("Body")
                         .IsRequired()
                         .HasColumnType("text")
                         .HasColumnName("body");
+
+                    b.Property<string>("LastError")
+                        .HasColumnType("text")
+                        .HasColumnName("last_error");
 
                     b.Property<string>("NodeId")
                         .IsRequired()

@@ -27,4 +27,13 @@ public sealed class ReadingInboxRow
 
     /// <summary>Items the standby answered as rejected.</summary>
     public int Rejected { get; set; }
+
+    /// <summary>
+    /// Failed attempts to evaluate this batch alone, counted by whichever node led at each (docs/engine.md R82): kept
+    /// here, not in a leader's memory, so a new leader goes on counting.
+    /// </summary>
+    public int Attempts { get; set; }
+
+    /// <summary>The error of the last failed attempt, clipped (docs/engine.md R82); null before the first.</summary>
+    public string? LastError { get; set; }
 }

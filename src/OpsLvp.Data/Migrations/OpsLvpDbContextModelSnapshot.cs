@@ -530,10 +530,20 @@ namespace OpsLvp.Data.Migrations
                         .HasColumnType("INTEGER")
                         .HasColumnName("accepted");
 
+                    b.Property<int>("Attempts")
+                        .ValueGeneratedOnAdd()
+                        .HasColumnType("INTEGER")
+                        .HasDefaultValue(0)
+                        .HasColumnName("attempts");
+
                     b.Property<string>("Body")
                         .IsRequired()
                         .HasColumnType("TEXT")
                         .HasColumnName("body");
+
+                    b.Property<string>("LastError")
+                        .HasColumnType("TEXT")
+                        .HasColumnName("last_error");
 
                     b.Property<string>("NodeId")
                         .IsRequired()

@@ -28,6 +28,14 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
 
     private const string NotifySql = "SELECT pg_notify('" + NotifyChannel + "', $1)";
 
+    // one statement: the epoch check (a share lock on the leadership row, so a takeover's increment waits for it or is
+    // seen, as the readings insert's claim does), the count and the error; the epoch on record comes back either way
+    private const string FailedAttemptSql =
+        "WITH fence AS (SELECT epoch FROM engine_leadership WHERE id = 1 FOR SHARE), "
+        + "counted AS (UPDATE reading_inbox SET attempts = attempts + 1, last_error = $2 "
+        + "WHERE id = $1 AND EXISTS (SELECT 1 FROM fence WHERE epoch = $3) RETURNING attempts) "
+        + "SELECT (SELECT epoch FROM fence), (SELECT attempts FROM counted)";
+
     private readonly ProviderProbe _provider = new(factory);
 
     /// <summary>True when the database is PostgreSQL, the only provider with several nodes and so with an inbox.</summary>
@@ -92,6 +100,38 @@ public sealed class ReadingInboxStore(IDbContextFactory<OpsLvpDbContext> factory
         await transaction.CommitAsync(cancellationToken);
         row.Id = id;
         return (id, 0);
+    }
+
+    /// <summary>
+    /// Records a failed attempt to evaluate batch <paramref name="id"/> alone (docs/engine.md R82): adds one to the row's
+    /// <c>attempts</c> and keeps <paramref name="error"/> (the caller clips it) as its <c>last_error</c>, in one statement
+    /// fenced by the leader's <paramref name="epoch"/>, and returns the attempts counted so far by every leader. Null when
+    /// the row is gone (another node took or set it aside).
+    /// </summary>
+    /// <exception cref="StaleEpochException"><paramref name="epoch"/> is not the current one: nothing was counted.</exception>
+    /// <exception cref="InvalidOperationException">The database is not PostgreSQL.</exception>
+    public async Task<int?> RecordFailedAttemptAsync(long id, string error, long epoch, CancellationToken cancellationToken = default)
+    {
+        ArgumentNullException.ThrowIfNull(error);
+        if (!IsAvailable)
+        {
+            throw new InvalidOperationException("the reading inbox is used with PostgreSQL only (several nodes)");
+        }
+        await using var db = await factory.CreateDbContextAsync(cancellationToken);
+        await db.Database.OpenConnectionAsync(cancellationToken);
+        var connection = (NpgsqlConnection)db.Database.GetDbConnection();
+        await using var command = new NpgsqlCommand(FailedAttemptSql, connection);
+        command.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Bigint, Value = id });
+        command.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Text, Value = error });
+        command.Parameters.Add(new NpgsqlParameter { NpgsqlDbType = NpgsqlDbType.Bigint, Value = epoch });
+        await using var reader = await command.ExecuteReaderAsync(cancellationToken);
+        await reader.ReadAsync(cancellationToken);
+        long? current = reader.IsDBNull(0) ? null : reader.GetInt64(0);
+        if (current != epoch)
+        {
+            throw new StaleEpochException(epoch, current);
+        }
+        return reader.IsDBNull(1) ? null : reader.GetInt32(1);
     }
 
     /// <summary>The first <paramref name="limit"/> waiting rows, oldest (lowest id) first.</summary>

@@ -22,7 +22,7 @@ namespace OpsLvp.Web.Cluster;
 /// a batch that is not taken (not recording, leadership lost) stays at the head of the queue and nothing after it
 /// goes first. An evaluation that throws is tried again batch by batch; a head batch that still throws after
 /// <c>Cluster:InboxSetAsideAfter</c> attempts is set aside with an audit entry and an alarm (R82), so the batches after it
-/// flow. While the head waits longer than <c>Cluster:InboxAlarmAfter</c> the screens show <c>inbox-behind</c> (R81).
+/// flow. The attempts are counted on the batch's row, so a new leader goes on from its predecessor's count. While the head waits longer than <c>Cluster:InboxAlarmAfter</c> the screens show <c>inbox-behind</c> (R81).
 /// Idle on SQLite.
 /// </summary>
 public sealed class ReadingInboxDrain(
@@ -59,8 +59,6 @@ public sealed class ReadingInboxDrain(
     private int _notDrainedSinceWarning;
     // batches up to this id are evaluated one at a time (an evaluation of several threw: find the one that fails)
     private long _aloneThrough;
-    private long _attemptsId;
-    private int _attempts;
 
     /// <summary>Batches taken from the inbox by this node since its start.</summary>
     public long Drained { get; private set; }
@@ -123,7 +121,6 @@ public sealed class ReadingInboxDrain(
                 {
                     // only the leader's screens show the alarm; a node that stepped down forgets it
                     alarms.NotBehind();
-                    _attempts = 0;
                 }
             }
             catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
@@ -207,10 +204,6 @@ public sealed class ReadingInboxDrain(
             feeds.RecordSuccess(row.Source, row.Accepted, row.Rejected);
         }
         Drained += rows.Count;
-        if (_attemptsId == rows[0].Id)
-        {
-            _attempts = 0;
-        }
         logger.LogDebug("Reading inbox: {Batches} batch(es) taken, ids {First} to {Last}", rows.Count, rows[0].Id, rows[^1].Id);
         return true;
     }
@@ -255,8 +248,9 @@ public sealed class ReadingInboxDrain(
     /// <summary>
     /// The evaluation of <paramref name="rows"/> threw (not "not recording", not "leadership lost": those come back as
     /// not committed). Several batches: they are tried one at a time from now on, to find the one that fails. One batch:
-    /// another attempt, and after <c>Cluster:InboxSetAsideAfter</c> of them it is set aside (docs/engine.md R82).
-    /// True when the drain should go on at once.
+    /// another attempt, and after <c>Cluster:InboxSetAsideAfter</c> of them it is set aside (docs/engine.md R82). The
+    /// attempt and its error are recorded on the batch's row (fenced by this node's epoch), and the count read back is
+    /// every leader's: a failover does not start it again. True when the drain should go on at once.
     /// </summary>
     private async Task<bool> FailedAsync(IReadOnlyList<ReadingInboxRow> rows, Exception ex, CancellationToken cancellationToken)
     {
@@ -268,20 +262,30 @@ public sealed class ReadingInboxDrain(
             return true;
         }
         var row = rows[0];
-        if (_attemptsId != row.Id)
+        int attempts;
+        try
         {
-            _attemptsId = row.Id;
-            _attempts = 0;
+            if (await inbox.RecordFailedAttemptAsync(row.Id, Clip(error, SetAsideErrorChars), leadership.Epoch, cancellationToken) is not { } counted)
+            {
+                logger.LogWarning("Reading inbox: batch {Id} failed here ({Error}) but was already taken by another node", row.Id, error);
+                return true;
+            }
+            attempts = counted;
         }
-        _attempts++;
-        var limit = options.Value.InboxSetAsideAfter;
-        if (_attempts < limit)
+        catch (StaleEpochException stale)
         {
-            logger.LogWarning("Reading inbox: batch {Id} from {Node} failed (attempt {Attempt} of {Limit}): {Error}; trying again within {Interval}",
-                row.Id, row.NodeId, _attempts, limit, error, options.Value.InboxPollInterval);
+            // another node leads: its own attempts count, this one does not
+            logger.LogWarning("Reading inbox: batch {Id} failed here ({Error}); attempt not counted: {Reason}", row.Id, error, stale.Message);
             return false;
         }
-        return await SetAsideAsync(row, error, _attempts, cancellationToken);
+        var limit = options.Value.InboxSetAsideAfter;
+        if (attempts < limit)
+        {
+            logger.LogWarning("Reading inbox: batch {Id} from {Node} failed (attempt {Attempt} of {Limit}): {Error}; trying again within {Interval}",
+                row.Id, row.NodeId, attempts, limit, error, options.Value.InboxPollInterval);
+            return false;
+        }
+        return await SetAsideAsync(row, error, attempts, cancellationToken);
     }
 
     /// <summary>
@@ -316,7 +320,6 @@ public sealed class ReadingInboxDrain(
         catch (InboxClaimLostException)
         {
             logger.LogWarning("Reading inbox: batch {Id} was already taken by another node; not set aside", row.Id);
-            _attempts = 0;
             return true;
         }
         if (!outcome.Committed)
@@ -324,7 +327,6 @@ public sealed class ReadingInboxDrain(
             logger.LogWarning("Reading inbox: batch {Id} not set aside: {Reason}; it stays at the head", row.Id, outcome.Error);
             return false;
         }
-        _attempts = 0;
         SetAsideCount++;
         alarms.SetAside(row.Id, row.NodeId, row.ReceivedAt, row.Accepted + row.Rejected, Clip(error, 200), now);
         logger.LogError("Reading inbox: batch {Id} received {ReceivedAt:o} on {Node} from {Source} ({Readings} item(s)) set aside after {Attempts} failed attempt(s): {Error}; its readings are not evaluated (audit entry {Kind})",
