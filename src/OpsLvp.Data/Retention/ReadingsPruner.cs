@@ -13,7 +13,8 @@ namespace OpsLvp.Data.Retention;
 /// content digest and file SHA-256, appends ONE <see cref="PrunedReadings.Kind"/> audit entry naming the id range, the
 /// count and every file's digests, and only then deletes the rows in bounded batches. Any failure before the audit
 /// entry deletes nothing (and removes this run's files). Only readings the chain already covers are pruned (id ≤ the
-/// newest <c>readingsCovered.to</c>), so the engine's next covering window is never touched.
+/// newest <c>readingsCovered.to</c>), so the engine's next covering window is never touched. The entry carries the
+/// request's leadership epoch (docs/engine.md R71): on PostgreSQL a run whose node no longer leads records and deletes nothing.
 /// </summary>
 public sealed class ReadingsPruner(IDbContextFactory<OpsLvpDbContext> factory, AuditStore audit, TimeProvider time)
 {
@@ -121,10 +122,10 @@ public sealed class ReadingsPruner(IDbContextFactory<OpsLvpDbContext> factory, A
         long sequence;
         try
         {
-            var committed = await audit.AppendAsync([new NewAuditEntry(PrunedReadings.Actor, PrunedReadings.Kind, pruned.ToPayloadJson(), time.GetUtcNow())], null, cancellationToken);
+            var committed = await audit.AppendFencedAsync([new NewAuditEntry(PrunedReadings.Actor, PrunedReadings.Kind, pruned.ToPayloadJson(), time.GetUtcNow())], null, request.Epoch, cancellationToken);
             sequence = committed[^1].Sequence;
         }
-        catch (Exception ex) when (ex is AuditCommitException or ArgumentException)
+        catch (Exception ex) when (ex is AuditCommitException or ArgumentException or StaleEpochException)
         {
             Remove(written);
             return new PruneOutcome(null, null, leftovers, $"readings not pruned: the audit entry was not committed: {Message(ex)}");

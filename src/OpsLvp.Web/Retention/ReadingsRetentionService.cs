@@ -17,6 +17,12 @@ namespace OpsLvp.Web.Retention;
 /// <para>Leadership (docs/engine.md R86): a node that wins leadership runs at once instead of at the end of its current
 /// interval, so a prune that still fails is an alarm again right after a failover; a node that loses leadership takes its
 /// alarm down (logged; not audited, as a node that does not lead writes nothing) and leaves it to the new leader's run.</para>
+/// <para>Fencing (docs/engine.md R71): the run's entries (<c>readings_pruned</c>, <c>retention_alarm_raised</c>,
+/// <c>retention_alarm_cleared</c>) carry the leadership epoch read when the run starts and go through the engine's fenced
+/// append, so on PostgreSQL a run that outlives its node's leadership writes nothing (and deletes nothing): the alarm is
+/// taken down here and the node steps down, as after a refused engine append. One node on SQLite: unfenced, as before.
+/// The acknowledgement is a command, so it is the engine's own fenced commit on the leader (forwarded there from a
+/// standby).</para>
 /// </summary>
 public sealed class ReadingsRetentionService(
     ReadingsPruner pruner,
@@ -53,11 +59,13 @@ public sealed class ReadingsRetentionService(
                     // this wake is being served by the run below; a later one wakes the next sleep
                     Interlocked.CompareExchange(ref _wake, new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously), wake);
                 }
+                // read at the start of the run: every entry of the run carries it (see RunAsync)
+                var epoch = leadership.Epoch;
                 try
                 {
                     if (leadership.IsLeader)
                     {
-                        await RunOnceAsync(stoppingToken);
+                        await RunAsync(epoch, stoppingToken);
                     }
                 }
                 catch (OperationCanceledException) when (stoppingToken.IsCancellationRequested)
@@ -67,7 +75,7 @@ public sealed class ReadingsRetentionService(
                 catch (Exception ex)
                 {
                     logger.LogError(ex, "Readings retention run failed; nothing of it was deleted unless its audit entry was committed");
-                    await RaiseAsync($"readings not pruned: the run failed: {ex.Message.ReplaceLineEndings(" ")}", stoppingToken);
+                    await RaiseAsync($"readings not pruned: the run failed: {ex.Message.ReplaceLineEndings(" ")}", epoch, stoppingToken);
                 }
                 await SleepAsync(o.Interval, stoppingToken);
             }
@@ -97,8 +105,15 @@ public sealed class ReadingsRetentionService(
         await cancel.CancelAsync(); // the timer of a delay cut short by a wake
     }
 
-    /// <summary>One pruning run now (also used by tests).</summary>
-    public async Task<PruneOutcome> RunOnceAsync(CancellationToken cancellationToken)
+    /// <summary>One pruning run now, with this node's leadership epoch as it is now (also used by tests).</summary>
+    public Task<PruneOutcome> RunOnceAsync(CancellationToken cancellationToken) => RunAsync(leadership.Epoch, cancellationToken);
+
+    /// <summary>
+    /// One pruning run whose entries carry <paramref name="epoch"/>, read before the run started. A node that does not
+    /// lead has 0, never the epoch on record once a node has led, so such a run's entries are refused on PostgreSQL;
+    /// SQLite (one node) does not check it.
+    /// </summary>
+    private async Task<PruneOutcome> RunAsync(long epoch, CancellationToken cancellationToken)
     {
         var o = options.Value;
         DateTimeOffset? episodeStart;
@@ -111,22 +126,22 @@ public sealed class ReadingsRetentionService(
         {
             LastOutcome = new PruneOutcome(null, null, 0, $"readings not pruned: the stored engine state cannot be read to find an open episode: {ex.Message}");
             logger.LogError("{Failure}", LastOutcome.Failure);
-            await RaiseAsync(LastOutcome.Failure!, cancellationToken);
+            await RaiseAsync(LastOutcome.Failure!, epoch, cancellationToken);
             return LastOutcome;
         }
         if (RetentionCutoff.Compute(time.GetUtcNow(), o.ReadingsDays, episodeStart) is not { } cutoff)
         {
             return LastOutcome = new PruneOutcome(null, null, 0, null);
         }
-        var outcome = await pruner.RunAsync(new PruneRequest(cutoff, folder.Path, o.BatchSize, o.MaxReadingsPerRun), cancellationToken);
+        var outcome = await pruner.RunAsync(new PruneRequest(cutoff, folder.Path, o.BatchSize, o.MaxReadingsPerRun, epoch), cancellationToken);
         LastOutcome = outcome;
         if (outcome.Failed)
         {
             logger.LogError("Readings retention: {Failure}", outcome.Failure);
-            await RaiseAsync(outcome.Failure!, cancellationToken);
+            await RaiseAsync(outcome.Failure!, epoch, cancellationToken);
             return outcome;
         }
-        await ClearAsync(cancellationToken);
+        await ClearAsync(epoch, cancellationToken);
         if (outcome.Pruned is { } p)
         {
             logger.LogInformation("Readings retention: pruned {Count} reading(s) with id {First}–{Last} received before {Cutoff} into {Files} export file(s); audit entry {Sequence}",
@@ -135,7 +150,7 @@ public sealed class ReadingsRetentionService(
         return outcome;
     }
 
-    private async Task RaiseAsync(string failure, CancellationToken cancellationToken)
+    private async Task RaiseAsync(string failure, long epoch, CancellationToken cancellationToken)
     {
         if (!leadership.IsLeader)
         {
@@ -149,10 +164,10 @@ public sealed class ReadingsRetentionService(
             return;
         }
         logger.LogError("Readings retention alarm raised on screen: {Failure}", failure);
-        await RecordAsync(AuditEvents.RetentionAlarmRaised, new { key = RetentionAlarm.Key, message = alarm.Current?.Message ?? failure }, now, cancellationToken);
+        await RecordAsync(AuditEvents.RetentionAlarmRaised, new { key = RetentionAlarm.Key, message = alarm.Current?.Message ?? failure }, now, epoch, cancellationToken);
     }
 
-    private async Task ClearAsync(CancellationToken cancellationToken)
+    private async Task ClearAsync(long epoch, CancellationToken cancellationToken)
     {
         if (alarm.Clear() is not { } was)
         {
@@ -160,15 +175,25 @@ public sealed class ReadingsRetentionService(
         }
         var now = time.GetUtcNow();
         logger.LogWarning("Readings retention works again: alarm cleared (it was raised at {RaisedAt}: {Message})", was.RaisedAt, was.Message);
-        await RecordAsync(AuditEvents.RetentionAlarmCleared, new { key = RetentionAlarm.Key, message = was.Message, raisedAt = was.RaisedAt }, now, cancellationToken);
+        await RecordAsync(AuditEvents.RetentionAlarmCleared, new { key = RetentionAlarm.Key, message = was.Message, raisedAt = was.RaisedAt }, now, epoch, cancellationToken);
     }
 
-    /// <summary>The alarm's audit entry, like the prune's own: appended without engine state. A failure to record it is logged; the alarm stays on screen regardless.</summary>
-    private async Task RecordAsync(string kind, object payload, DateTimeOffset now, CancellationToken cancellationToken)
+    /// <summary>
+    /// The alarm's audit entry, like the prune's own: appended without engine state, fenced by the run's
+    /// <paramref name="epoch"/> (docs/engine.md R71). A failure to record it is logged; the alarm stays on screen
+    /// regardless, unless the epoch is stale: then this node does not lead, takes the alarm down and steps down.
+    /// </summary>
+    private async Task RecordAsync(string kind, object payload, DateTimeOffset now, long epoch, CancellationToken cancellationToken)
     {
         try
         {
-            await audit.AppendAsync([AuditEvents.HostEntry(kind, now, payload)], null, cancellationToken);
+            await audit.AppendFencedAsync([AuditEvents.HostEntry(kind, now, payload)], null, epoch, cancellationToken);
+        }
+        catch (StaleEpochException ex)
+        {
+            alarm.Clear();
+            logger.LogWarning("Readings retention: the audit entry {Kind} was not recorded: {Reason}; the alarm is taken down on this node, which steps down (the leader's next run raises it again if pruning still fails)", kind, ex.Message);
+            (leadership as ILeadershipElection)?.StepDown(ex.Message);
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
