@@ -114,12 +114,15 @@ public sealed class PostgresLeadershipTests
     internal static PostgresLeadership Node(ProviderDatabase db, string nodeId, TimeSpan? interval = null) =>
         new(db.NewFactory(), Options.Create(new ClusterOptions { NodeId = nodeId, LeaderRetryInterval = interval ?? TimeSpan.FromMilliseconds(200) }), TimeProvider.System, NullLogger<PostgresLeadership>.Instance);
 
-    /// <summary>Ends the leadership session of <paramref name="nodeId"/> server-side (<c>pg_terminate_backend</c>), as a cut network or a killed process does.</summary>
+    /// <summary>
+    /// Ends the leadership session of <paramref name="nodeId"/> server-side (<c>pg_terminate_backend</c>), as a cut network
+    /// or a killed process does; only in this test's database (tests running at once on the shared cluster use the same node names).
+    /// </summary>
     internal static async Task<int> KillLeadershipSessionAsync(ProviderDatabase db, string nodeId)
     {
         await using var connection = new NpgsqlConnection(db.ConnectionString + ";Pooling=false");
         await connection.OpenAsync();
-        await using var command = new NpgsqlCommand("SELECT count(pg_terminate_backend(pid)) FROM pg_stat_activity WHERE application_name = @name", connection);
+        await using var command = new NpgsqlCommand("SELECT count(pg_terminate_backend(pid)) FROM pg_stat_activity WHERE application_name = @name AND datname = current_database()", connection);
         command.Parameters.AddWithValue("name", PostgresLeadership.ApplicationNamePrefix + nodeId);
         return Convert.ToInt32(await command.ExecuteScalarAsync(), System.Globalization.CultureInfo.InvariantCulture);
     }
