@@ -22,8 +22,8 @@ namespace OpsLvp.Web.Cluster;
 /// a batch that is not taken (not recording, leadership lost) stays at the head of the queue and nothing after it
 /// goes first. An evaluation that throws is tried again batch by batch; a head batch that still throws after
 /// <c>Cluster:InboxSetAsideAfter</c> attempts is set aside with an audit entry and an alarm (R82), so the batches after it
-/// flow. The attempts are counted on the batch's row, so a new leader goes on from its predecessor's count. While the head waits longer than <c>Cluster:InboxAlarmAfter</c> the screens show <c>inbox-behind</c> (R81).
-/// Idle on SQLite.
+/// flow; the attempts are counted on the batch's row, so a new leader goes on from its predecessor's count. While the
+/// head waits longer than <c>Cluster:InboxAlarmAfter</c> the screens show <c>inbox-behind</c> (R81). Idle on SQLite.
 /// </summary>
 public sealed class ReadingInboxDrain(
     ReadingInboxStore inbox,

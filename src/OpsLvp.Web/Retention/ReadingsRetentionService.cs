@@ -59,12 +59,13 @@ public sealed class ReadingsRetentionService(
                     // this wake is being served by the run below; a later one wakes the next sleep
                     Interlocked.CompareExchange(ref _wake, new TaskCompletionSource(TaskCreationOptions.RunContinuationsAsynchronously), wake);
                 }
-                // read at the start of the run: every entry of the run carries it (see RunAsync)
-                var epoch = leadership.Epoch;
+                long epoch = 0;
                 try
                 {
                     if (leadership.IsLeader)
                     {
+                        // read at the start of the run, after the check: every entry of the run carries it (see RunAsync)
+                        epoch = leadership.Epoch;
                         await RunAsync(epoch, stoppingToken);
                     }
                 }
@@ -193,7 +194,12 @@ public sealed class ReadingsRetentionService(
         {
             alarm.Clear();
             logger.LogWarning("Readings retention: the audit entry {Kind} was not recorded: {Reason}; the alarm is taken down on this node, which steps down (the leader's next run raises it again if pruning still fails)", kind, ex.Message);
-            (leadership as ILeadershipElection)?.StepDown(ex.Message);
+            if (leadership.Epoch == epoch)
+            {
+                // it still holds the refused epoch: stale, as after a refused engine append (a node that has since won
+                // again holds a newer one and stays)
+                (leadership as ILeadershipElection)?.StepDown(ex.Message);
+            }
         }
         catch (Exception ex) when (ex is not OperationCanceledException)
         {
