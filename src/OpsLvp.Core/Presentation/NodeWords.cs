@@ -24,6 +24,21 @@ public static class NodeWords
     public static string CommandNotApplied(TimeSpan timeout) =>
         $"not applied: no engine node answered within {DisplayFormat.Duration(timeout)}; the command was withdrawn and will not be carried out later";
 
+    /// <summary>
+    /// Told at once when this node could not send the command to the engine node and it is certain that it was not carried
+    /// out: nothing was published, or it was withdrawn before any engine node took it. <paramref name="why"/> is short, e.g.
+    /// "Redis not connected".
+    /// </summary>
+    public static string CommandNotSent(string why) =>
+        $"not applied: this node cannot reach the engine node ({why}); the command was not carried out. Try again shortly, or from a screen on another node";
+
+    /// <summary>
+    /// Told at once when sending the command failed part-way and this node cannot tell whether the engine node received it
+    /// (the withdrawal failed too): it may or may not be on record.
+    /// </summary>
+    public static string CommandSendUnknown(string why) =>
+        $"outcome unknown: the link to the engine node failed while the command was being sent ({why}); check the audit log or the screen before repeating it";
+
     /// <summary>Told when the engine node took the command but its outcome did not come back.</summary>
     public const string CommandOutcomeUnknown =
         "outcome unknown: the engine node took the command but its answer did not arrive; check the audit log before repeating it";

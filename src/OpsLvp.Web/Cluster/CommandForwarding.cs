@@ -28,6 +28,11 @@ namespace OpsLvp.Web.Cluster;
 /// nodes' clocks differ) and any failure while the leader carries out a command it took are answered, sealed, with the
 /// reason, instead of being left to the timeout; replays and messages that do not open are never answered. An outcome
 /// that arrives after the person was told it is unknown is logged on the sending node.</para>
+/// <para>A command this node cannot send (Redis not connected, the write or the publish failing, or the publish reaching
+/// no subscriber) is answered at once: "not applied" when nothing was published or the command was withdrawn
+/// (<c>pending</c> to <c>expired</c>) before any engine node took it, "outcome unknown" when the publish failed and the
+/// withdrawal failed too, so it may have reached the engine node (docs/engine.md R85 (d), docs/deployment.md "When the
+/// command cannot be sent").</para>
 /// </summary>
 public sealed class CommandForwarding(
     RedisLink redis,
@@ -116,7 +121,10 @@ public sealed class CommandForwarding(
     /// <summary>Whether <c>Cluster:Redis</c> is set (commands can be forwarded).</summary>
     public bool Enabled => redis.Enabled;
 
-    /// <summary>Sends <paramref name="command"/> to the leader and returns its outcome, or "not applied" after the timeout.</summary>
+    /// <summary>
+    /// Sends <paramref name="command"/> to the leader and returns its outcome, or "not applied" after the timeout; at once
+    /// when it cannot be sent ("not applied" where that is certain, else "outcome unknown").
+    /// </summary>
     public async Task<CommandOutcome> ForwardAsync(CommandCaller caller, EngineCommand command, CancellationToken cancellationToken)
     {
         var id = Guid.NewGuid().ToString("N");
@@ -125,11 +133,17 @@ public sealed class CommandForwarding(
         _waiting[id] = reply;
         try
         {
+            // A failure to send is answered at once, never left to the timeout; "not applied" only where that is certain
+            // (docs/deployment.md "When the command cannot be sent").
             if (!redis.Connection.IsCompletedSuccessfully)
             {
-                return NotReachable(command, caller, "not connected yet");
+                return NotSent(command, caller, id, "Redis not connected yet", null);
             }
             var connection = await redis.Connection;
+            if (!connection.IsConnected)
+            {
+                return NotSent(command, caller, id, "Redis not connected", null); // nothing was sent
+            }
             var db = connection.GetDatabase();
             var body = seal.SealCommand(JsonSerializer.Serialize(ForwardedCommand.From(id, leadership.NodeId, caller, command, realClock.GetUtcNow()), LiveJson.Options));
             try
@@ -139,17 +153,34 @@ public sealed class CommandForwarding(
                     return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandNotApplied(TimeSpan.Zero));
                 }
             }
-            catch (RedisConnectionException ex)
+            catch (Exception ex) when (ex is RedisException or TimeoutException)
             {
-                return NotReachable(command, caller, ex.Message); // nothing was sent
+                // the command itself was never published: even if the key was written, no engine node can carry it out
+                return NotSent(command, caller, id, Short(ex), ex);
             }
+            long receivers;
             try
             {
-                await connection.GetSubscriber().PublishAsync(redis.Channel(CommandsChannel), body);
+                receivers = await connection.GetSubscriber().PublishAsync(redis.Channel(CommandsChannel), body);
             }
-            catch (RedisConnectionException ex)
+            catch (Exception ex) when (ex is RedisException or TimeoutException)
             {
-                logger.LogWarning(ex, "Command {Id} could not be sent to the engine node", id);
+                // it may still have reached Redis and the engine node: only a successful withdrawal makes "not applied" certain
+                logger.LogWarning(ex, "Command {Command} by {Actor} ({Id}): sending it to the engine node failed; withdrawing it", command.GetType().Name, caller.Name, id);
+                if (await WithdrawUnsentAsync(db, key, id, command, caller, Short(ex)) is { } answer)
+                {
+                    return answer;
+                }
+                receivers = -1;
+            }
+            if (receivers == 0)
+            {
+                // no subscriber received it (not even this node's own): withdrawn unless some engine node took it after all
+                logger.LogWarning("Command {Command} by {Actor} ({Id}): no node received it on Cluster:Redis; withdrawing it", command.GetType().Name, caller.Name, id);
+                if (await WithdrawUnsentAsync(db, key, id, command, caller, "no node received it") is { } answer)
+                {
+                    return answer;
+                }
             }
             if (await WaitAsync(reply.Task, _options.CommandTimeout, realClock, cancellationToken) is { } outcome)
             {
@@ -203,6 +234,51 @@ public sealed class CommandForwarding(
             logger.LogError(ex, "Command {Id}: its outcome could not be read", id);
         }
         logger.LogError("Command {Command} by {Actor} ({Id}) was taken by the engine node but no outcome came back", command.GetType().Name, caller.Name, id);
+        RememberUnknown(id, command, caller);
+        return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandOutcomeUnknown);
+    }
+
+    /// <summary>"Not applied" at once, for a command this node could not send: nothing an engine node could carry out was published.</summary>
+    private CommandOutcome NotSent(EngineCommand command, CommandCaller caller, string id, string why, Exception? ex)
+    {
+        logger.LogError(ex, "Command {Command} by {Actor} ({Id}) not applied: it could not be sent to the engine node over Cluster:Redis ({Reason})", command.GetType().Name, caller.Name, id, why);
+        return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandNotSent(why));
+    }
+
+    /// <summary>
+    /// After a send that failed or reached nobody: turns the key from <c>pending</c> into <c>expired</c>. Done: no engine node
+    /// can take it any more, so "not applied" is certain. Not done because an engine node took it: null, and the caller
+    /// waits for its outcome as usual. The withdrawal failing as well: the outcome is unknown.
+    /// </summary>
+    private async Task<CommandOutcome?> WithdrawUnsentAsync(IDatabase db, RedisKey key, string id, EngineCommand command, CommandCaller caller, string why)
+    {
+        try
+        {
+            if ((int)await db.ScriptEvaluateAsync(FromPendingScript, [key], [Expired]) == 1)
+            {
+                return NotSent(command, caller, id, why, null);
+            }
+            logger.LogWarning("Command {Command} by {Actor} ({Id}): an engine node took it although sending it reported a failure ({Reason}); waiting for its outcome", command.GetType().Name, caller.Name, id, why);
+            return null;
+        }
+        catch (Exception ex) when (ex is RedisException or TimeoutException)
+        {
+            logger.LogError(ex, "Command {Command} by {Actor} ({Id}): sending it failed ({Reason}) and it could not be withdrawn: outcome unknown", command.GetType().Name, caller.Name, id, why);
+            RememberUnknown(id, command, caller);
+            return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandSendUnknown(why));
+        }
+    }
+
+    /// <summary>Why Redis failed, in a few words for the person (the log has the whole exception).</summary>
+    private static string Short(Exception ex) => ex switch
+    {
+        RedisConnectionException => "Redis not connected",
+        TimeoutException => "Redis did not answer in time",
+        _ => "Redis error: " + (ex.Message.Length > 120 ? ex.Message[..120] + "…" : ex.Message).ReplaceLineEndings(" "),
+    };
+
+    private void RememberUnknown(string id, EngineCommand command, CommandCaller caller)
+    {
         var now = realClock.GetUtcNow();
         foreach (var (oldId, old) in _unknown)
         {
@@ -212,13 +288,6 @@ public sealed class CommandForwarding(
             }
         }
         _unknown[id] = (command.GetType().Name, caller.Name, now);
-        return new CommandOutcome(CommandOutcomeKind.Failed, NodeWords.CommandOutcomeUnknown);
-    }
-
-    private CommandOutcome NotReachable(EngineCommand command, CommandCaller caller, string detail)
-    {
-        logger.LogError("Command {Command} by {Actor} not sent: Cluster:Redis not reachable ({Detail})", command.GetType().Name, caller.Name, detail);
-        return new CommandOutcome(CommandOutcomeKind.Failed, "not applied: this node cannot reach the engine node (Cluster:Redis not reachable)");
     }
 
     private static async Task<ForwardedOutcome?> WaitAsync(Task<ForwardedOutcome> reply, TimeSpan timeout, TimeProvider clock, CancellationToken cancellationToken)

@@ -5,8 +5,6 @@ using System.Text.Json;
 using System.Threading.Channels;
 using Microsoft.AspNetCore.SignalR.Client;
 using Microsoft.Extensions.DependencyInjection;
-using Npgsql;
-using OpsLvp.Data;
 using OpsLvp.Data.Stores;
 using OpsLvp.Web.Cluster;
 using OpsLvp.Web.Engine;
@@ -27,185 +25,117 @@ public sealed class StandbyPushTests
     [PostgresFact]
     public async Task PushToTheStandby_Is202WithEachOutcome_ReachesTheLeadersHub_AndIsStoredOnce()
     {
-        using var db = ProviderDatabase.Create(OpsLvpDatabase.PostgresProvider);
-        var shared = NewShared();
-        try
-        {
-            var profile = LiveTestProfile.Write(shared);
-            await using var first = OpsLvpApp.Start(TwoNodeLeadershipTests.Settings(db, profile, shared, "node-a"));
-            await using var second = OpsLvpApp.Start(TwoNodeLeadershipTests.Settings(db, profile, shared, "node-b"));
-            var (leader, standby) = await LeaderAndStandbyAsync(first, second);
-            var states = Channel.CreateUnbounded<JsonElement>();
-            var readerKey = await LiveClient.ReaderKeyAsync(leader);
-            await using var hub = new HubConnectionBuilder().WithUrl(new Uri(leader.BaseAddress, "/hubs/lvp"), o => o.Headers[OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header] = readerKey).Build();
-            hub.On<JsonElement>("state", s => states.Writer.TryWrite(s));
-            await hub.StartAsync();
+        await using var nodes = await PostgresNodes.CreateAsync();
+        var (leader, standby) = await nodes.StartTwoAsync();
+        var states = Channel.CreateUnbounded<JsonElement>();
+        var readerKey = await LiveClient.ReaderKeyAsync(leader);
+        await using var hub = new HubConnectionBuilder().WithUrl(new Uri(leader.BaseAddress, "/hubs/lvp"), o => o.Headers[OpsLvp.Web.Access.ApiKeyAuthenticationHandler.Header] = readerKey).Build();
+        hub.On<JsonElement>("state", s => states.Writer.TryWrite(s));
+        await hub.StartAsync();
 
-            var now = DateTimeOffset.UtcNow;
-            // 900 m < preparation.rvrBelow 1000 m, enter dwell 0 s (invented test profile); each other item is rejected
-            // for one reason of the engine's screen (RVR range 0..10 000 m; an RVR system gives no cloud base)
-            var (status, body) = await PushAsync(standby,
-                LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900),
-                LiveClient.Item(now.AddSeconds(-1), "t-unknown", "rvr", 800),
-                LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "cloud_base", 800),
-                LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 20000),
-                LiveClient.Item(now.AddHours(1), LiveTestProfile.Tdz, "rvr", 900),
-                LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900, "failed"),
-                """{ "sensor": "t-tdz", "kind": "rvr" }""");
+        var now = DateTimeOffset.UtcNow;
+        // 900 m < preparation.rvrBelow 1000 m, enter dwell 0 s (invented test profile); each other item is rejected
+        // for one reason of the engine's screen (RVR range 0..10 000 m; an RVR system gives no cloud base)
+        var (status, body) = await PushAsync(standby,
+            LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900),
+            LiveClient.Item(now.AddSeconds(-1), "t-unknown", "rvr", 800),
+            LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "cloud_base", 800),
+            LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 20000),
+            LiveClient.Item(now.AddHours(1), LiveTestProfile.Tdz, "rvr", 900),
+            LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900, "failed"),
+            """{ "sensor": "t-tdz", "kind": "rvr" }""");
 
-            Assert.Equal(HttpStatusCode.Accepted, status);
-            using var answer = JsonDocument.Parse(body);
-            Assert.Equal(1, answer.RootElement.GetProperty("accepted").GetInt32());
-            var reasons = answer.RootElement.GetProperty("rejected").EnumerateArray()
-                .ToDictionary(r => r.GetProperty("index").GetInt32(), r => r.GetProperty("reason").GetString());
-            Assert.Equal(
-                new Dictionary<int, string?> { [1] = "unknown_sensor", [2] = "kind_not_produced", [3] = "out_of_range", [4] = "future_dated", [5] = "status_not_ok", [6] = "malformed" },
-                reasons);
+        Assert.Equal(HttpStatusCode.Accepted, status);
+        using var answer = JsonDocument.Parse(body);
+        Assert.Equal(1, answer.RootElement.GetProperty("accepted").GetInt32());
+        var reasons = answer.RootElement.GetProperty("rejected").EnumerateArray()
+            .ToDictionary(r => r.GetProperty("index").GetInt32(), r => r.GetProperty("reason").GetString());
+        Assert.Equal(
+            new Dictionary<int, string?> { [1] = "unknown_sensor", [2] = "kind_not_produced", [3] = "out_of_range", [4] = "future_dated", [5] = "status_not_ok", [6] = "malformed" },
+            reasons);
 
-            // evaluated by the leader: its hub client sees the phase the reading brings and the reading itself
-            var pushed = await NextAsync(states, s => LiveClient.Phase(s) == "preparation");
-            Assert.Equal(900, pushed.GetProperty("status").GetProperty("governingRvr").GetProperty("value").GetDouble());
+        // evaluated by the leader: its hub client sees the phase the reading brings and the reading itself
+        var pushed = await NextAsync(states, s => LiveClient.Phase(s) == "preparation");
+        Assert.Equal(900, pushed.GetProperty("status").GetProperty("governingRvr").GetProperty("value").GetDouble());
 
-            // stored exactly once as accepted, by the leader; the rejected items are recorded with their reasons, never as accepted
-            await WaitInboxEmptyAsync(db);
-            using var readings = new ReadingStore(db.NewFactory());
-            IReadOnlyList<ReceivedReading> rows = await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5));
-            rows = [.. rows.Where(r => r.Source == "push:live-test")];
-            var accepted = Assert.Single(rows, r => r.Accepted);
-            Assert.Equal((LiveTestProfile.Tdz, 900.0, "push:live-test"), (accepted.Sensor, accepted.Value!.Value, accepted.Source));
-            var recordedReasons = rows.Where(r => !r.Accepted).Select(r => r.RejectReason!.Value).Order().ToList();
-            Assert.Equal(
-                new[] { OpsLvp.Core.Readings.RejectReason.Malformed, OpsLvp.Core.Readings.RejectReason.StatusNotOk, OpsLvp.Core.Readings.RejectReason.OutOfRange,
-                    OpsLvp.Core.Readings.RejectReason.FutureDated, OpsLvp.Core.Readings.RejectReason.UnknownSensor, OpsLvp.Core.Readings.RejectReason.KindNotProduced }.Order(),
-                recordedReasons);
-            Assert.True(leader.Services.GetRequiredService<ReadingInboxDrain>().Drained >= 1);
-            Assert.Equal(0, standby.Services.GetRequiredService<ReadingInboxDrain>().Drained);
-            await LiveClient.AssertChainVerifiesAsync(leader);
-        }
-        finally
-        {
-            OpsLvpApp.TryDelete(shared);
-        }
+        // stored exactly once as accepted, by the leader; the rejected items are recorded with their reasons, never as accepted
+        await nodes.WaitInboxEmptyAsync();
+        using var readings = new ReadingStore(nodes.Db.NewFactory());
+        IReadOnlyList<ReceivedReading> rows = await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5));
+        rows = [.. rows.Where(r => r.Source == "push:live-test")];
+        var accepted = Assert.Single(rows, r => r.Accepted);
+        Assert.Equal((LiveTestProfile.Tdz, 900.0, "push:live-test"), (accepted.Sensor, accepted.Value!.Value, accepted.Source));
+        var recordedReasons = rows.Where(r => !r.Accepted).Select(r => r.RejectReason!.Value).Order().ToList();
+        Assert.Equal(
+            new[] { OpsLvp.Core.Readings.RejectReason.Malformed, OpsLvp.Core.Readings.RejectReason.StatusNotOk, OpsLvp.Core.Readings.RejectReason.OutOfRange,
+                OpsLvp.Core.Readings.RejectReason.FutureDated, OpsLvp.Core.Readings.RejectReason.UnknownSensor, OpsLvp.Core.Readings.RejectReason.KindNotProduced }.Order(),
+            recordedReasons);
+        Assert.True(leader.Services.GetRequiredService<ReadingInboxDrain>().Drained >= 1);
+        Assert.Equal(0, standby.Services.GetRequiredService<ReadingInboxDrain>().Drained);
+        await LiveClient.AssertChainVerifiesAsync(leader);
     }
 
     [PostgresFact]
     public async Task ManyBatchesToTheStandby_InSequence_AreStoredByTheLeaderInThatOrder()
     {
-        using var db = ProviderDatabase.Create(OpsLvpDatabase.PostgresProvider);
-        var shared = NewShared();
-        try
-        {
-            var profile = LiveTestProfile.Write(shared);
-            await using var first = OpsLvpApp.Start(TwoNodeLeadershipTests.Settings(db, profile, shared, "node-a"));
-            await using var second = OpsLvpApp.Start(TwoNodeLeadershipTests.Settings(db, profile, shared, "node-b"));
-            var (_, standby) = await LeaderAndStandbyAsync(first, second);
+        await using var nodes = await PostgresNodes.CreateAsync();
+        var (_, standby) = await nodes.StartTwoAsync();
 
-            var start = DateTimeOffset.UtcNow.AddMinutes(-2);
-            const int batches = 40;
-            for (var i = 0; i < batches; i++)
-            {
-                // invented values: 1500 m and up, one a batch, times one second apart
-                var (status, body) = await PushAsync(standby, LiveClient.Item(start.AddSeconds(i), LiveTestProfile.Tdz, "rvr", 1500 + i));
-                Assert.True(status == HttpStatusCode.Accepted, $"batch {i}: {(int)status} {body}");
-            }
-
-            await WaitInboxEmptyAsync(db);
-            using var readings = new ReadingStore(db.NewFactory());
-            var rows = await readings.GetReceivedAsync(start.AddMinutes(-10), start.AddMinutes(10));
-            var values = rows.Where(r => r.Sensor == LiveTestProfile.Tdz).Select(r => r.Value!.Value).ToList();
-            // in the order sent (insertion order of the readings table), each once, all accepted
-            Assert.Equal(Enumerable.Range(0, batches).Select(i => 1500.0 + i), values);
-            Assert.All(rows.Where(r => r.Sensor == LiveTestProfile.Tdz), r => Assert.True(r.Accepted, $"{r.Value}: {r.RejectReason} {r.RejectDetail}"));
-        }
-        finally
+        var start = DateTimeOffset.UtcNow.AddMinutes(-2);
+        const int batches = 40;
+        for (var i = 0; i < batches; i++)
         {
-            OpsLvpApp.TryDelete(shared);
+            // invented values: 1500 m and up, one a batch, times one second apart
+            var (status, body) = await PushAsync(standby, LiveClient.Item(start.AddSeconds(i), LiveTestProfile.Tdz, "rvr", 1500 + i));
+            Assert.True(status == HttpStatusCode.Accepted, $"batch {i}: {(int)status} {body}");
         }
+
+        await nodes.WaitInboxEmptyAsync();
+        using var readings = new ReadingStore(nodes.Db.NewFactory());
+        var rows = await readings.GetReceivedAsync(start.AddMinutes(-10), start.AddMinutes(10));
+        var values = rows.Where(r => r.Sensor == LiveTestProfile.Tdz).Select(r => r.Value!.Value).ToList();
+        // in the order sent (insertion order of the readings table), each once, all accepted
+        Assert.Equal(Enumerable.Range(0, batches).Select(i => 1500.0 + i), values);
+        Assert.All(rows.Where(r => r.Sensor == LiveTestProfile.Tdz), r => Assert.True(r.Accepted, $"{r.Value}: {r.RejectReason} {r.RejectDetail}"));
     }
 
     [PostgresFact]
     public async Task WithNoLeader_PushesToTheStandbyAre202_AndTheNextLeaderEvaluatesThemAfterItsRestore()
     {
-        using var db = ProviderDatabase.Create(OpsLvpDatabase.PostgresProvider);
-        var shared = NewShared();
-        try
-        {
-            var profile = LiveTestProfile.Write(shared);
-            NpgsqlConnection? holder = null;
-            try
-            {
-                // the leader is absent: the test holds the leadership lock itself, as a node that froze would
-                holder = new NpgsqlConnection(db.ConnectionString + ";Pooling=false");
-                await holder.OpenAsync();
-                await using (var take = new NpgsqlCommand($"SELECT pg_try_advisory_lock({PostgresLeadership.LockKey})", holder))
-                {
-                    Assert.True((bool)(await take.ExecuteScalarAsync())!);
-                }
-                await using var node = OpsLvpApp.Start(TwoNodeLeadershipTests.Settings(db, profile, shared, "node-b"));
-                var host = node.Services.GetRequiredService<LiveEngineHost>();
-                Assert.True(host.IsStandby);
+        await using var nodes = await PostgresNodes.CreateAsync();
+        // the leader is absent: the test holds the leadership lock itself, as a node that froze would
+        await nodes.HoldLeadershipAsync();
+        var node = nodes.Start("node-b");
+        var host = node.Services.GetRequiredService<LiveEngineHost>();
+        Assert.True(host.IsStandby);
 
-                var now = DateTimeOffset.UtcNow;
-                // invented values: 1100 m then 900 m (< preparation.rvrBelow 1000 m)
-                Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-2), LiveTestProfile.Tdz, "rvr", 1100))).Status);
-                Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900))).Status);
-                Assert.Equal(2, await InboxCountAsync(db));
-                // the standby's /health says what waits, and since when (docs/deployment.md "Which node am I")
-                var health = await node.Client.GetFromJsonAsync<System.Text.Json.JsonElement>("/health");
-                var nodePart = health.GetProperty("node");
-                Assert.Equal(2, nodePart.GetProperty("inboxWaiting").GetInt32());
-                Assert.True(nodePart.GetProperty("inboxOldestReceivedAt").GetDateTimeOffset() <= DateTimeOffset.UtcNow);
-                using var readings = new ReadingStore(db.NewFactory());
-                Assert.Empty(await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5)));
-                Assert.Null(host.State);
+        var now = DateTimeOffset.UtcNow;
+        // invented values: 1100 m then 900 m (< preparation.rvrBelow 1000 m)
+        Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-2), LiveTestProfile.Tdz, "rvr", 1100))).Status);
+        Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(node, LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", 900))).Status);
+        Assert.Equal(2, await nodes.InboxCountAsync());
+        // the standby's /health says what waits, and since when (docs/deployment.md "Which node am I")
+        var health = await node.Client.GetFromJsonAsync<System.Text.Json.JsonElement>("/health");
+        var nodePart = health.GetProperty("node");
+        Assert.Equal(2, nodePart.GetProperty("inboxWaiting").GetInt32());
+        Assert.True(nodePart.GetProperty("inboxOldestReceivedAt").GetDateTimeOffset() <= DateTimeOffset.UtcNow);
+        using var readings = new ReadingStore(nodes.Db.NewFactory());
+        Assert.Empty(await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5)));
+        Assert.Null(host.State);
 
-                // the lock is freed: the standby takes over, restores, and then takes what waited
-                await holder.DisposeAsync();
-                holder = null;
-                await Eventually.TrueAsync(() => host.State is not null, "the standby to take over and restore", TimeSpan.FromSeconds(60));
-                await Eventually.TrueAsync(() => host.State?.Phase == OpsLvp.Core.Engine.Phase.Preparation, "the inbox's 900 m to bring preparation", TimeSpan.FromSeconds(60));
-                await WaitInboxEmptyAsync(db);
-                var rows = await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5));
-                Assert.Equal(new[] { 1100.0, 900.0 }, rows.Select(r => r.Value!.Value));
-                Assert.All(rows, r => Assert.True(r.Accepted));
-                // the inbox batches were evaluated after the restore's engine_started, in the new leader's epoch
-                var entries = await LiveClient.EntriesAsync(node);
-                var started = entries.Last(e => e.Kind == "engine_started").Sequence;
-                Assert.Contains(entries, e => e.Sequence > started && e.Kind == "transition" && e.PayloadJson.Contains("preparation", StringComparison.Ordinal));
-                await LiveClient.AssertChainVerifiesAsync(node);
-            }
-            finally
-            {
-                if (holder is not null)
-                {
-                    await holder.DisposeAsync();
-                }
-            }
-        }
-        finally
-        {
-            OpsLvpApp.TryDelete(shared);
-        }
-    }
-
-    private static string NewShared()
-    {
-        var shared = OpsLvpApp.NewDataFolder();
-        Directory.CreateDirectory(shared);
-        return shared;
-    }
-
-    /// <summary>The node that leads (restored) and the other, waiting generously: on a loaded machine either may win.</summary>
-    private static async Task<(OpsLvpApp Leader, OpsLvpApp Standby)> LeaderAndStandbyAsync(OpsLvpApp first, OpsLvpApp second)
-    {
-        var one = first.Services.GetRequiredService<ILeadership>();
-        var two = second.Services.GetRequiredService<ILeadership>();
-        await Eventually.TrueAsync(() => one.IsLeader != two.IsLeader, "exactly one node to lead", TimeSpan.FromSeconds(60));
-        var (leader, standby) = one.IsLeader ? (first, second) : (second, first);
-        var host = leader.Services.GetRequiredService<LiveEngineHost>();
-        await Eventually.TrueAsync(() => host.State is not null, "the leader to restore", TimeSpan.FromSeconds(60));
-        Assert.True(standby.Services.GetRequiredService<LiveEngineHost>().IsStandby);
-        return (leader, standby);
+        // the lock is freed: the standby takes over, restores, and then takes what waited
+        await nodes.ReleaseLeadershipAsync();
+        await Eventually.TrueAsync(() => host.State is not null, "the standby to take over and restore", TimeSpan.FromSeconds(60));
+        await Eventually.TrueAsync(() => host.State?.Phase == OpsLvp.Core.Engine.Phase.Preparation, "the inbox's 900 m to bring preparation", TimeSpan.FromSeconds(60));
+        await nodes.WaitInboxEmptyAsync();
+        var rows = await readings.GetReceivedAsync(now.AddMinutes(-5), now.AddMinutes(5));
+        Assert.Equal(new[] { 1100.0, 900.0 }, rows.Select(r => r.Value!.Value));
+        Assert.All(rows, r => Assert.True(r.Accepted));
+        // the inbox batches were evaluated after the restore's engine_started, in the new leader's epoch
+        var entries = await LiveClient.EntriesAsync(node);
+        var started = entries.Last(e => e.Kind == "engine_started").Sequence;
+        Assert.Contains(entries, e => e.Sequence > started && e.Kind == "transition" && e.PayloadJson.Contains("preparation", StringComparison.Ordinal));
+        await LiveClient.AssertChainVerifiesAsync(node);
     }
 
     internal static async Task<(HttpStatusCode Status, string Body)> PushAsync(OpsLvpApp app, params string[] items)
@@ -219,27 +149,11 @@ public sealed class StandbyPushTests
         return (response.StatusCode, await response.Content.ReadAsStringAsync());
     }
 
-    internal static async Task<long> InboxCountAsync(ProviderDatabase db)
-    {
-        await using var connection = new NpgsqlConnection(db.ConnectionString + ";Pooling=false");
-        await connection.OpenAsync();
-        await using var command = new NpgsqlCommand("SELECT count(*) FROM reading_inbox", connection);
-        return (long)(await command.ExecuteScalarAsync())!;
-    }
+    /// <summary>How many batches wait in the reading inbox (kept for callers; <see cref="PostgresNodes.InboxCountAsync(ProviderDatabase)"/>).</summary>
+    internal static Task<long> InboxCountAsync(ProviderDatabase db) => PostgresNodes.InboxCountAsync(db);
 
-    internal static async Task WaitInboxEmptyAsync(ProviderDatabase db)
-    {
-        var deadline = DateTime.UtcNow + TimeSpan.FromSeconds(60);
-        long waiting;
-        while ((waiting = await InboxCountAsync(db)) > 0)
-        {
-            if (DateTime.UtcNow > deadline)
-            {
-                throw new Xunit.Sdk.XunitException($"{waiting} batch(es) still wait in the reading inbox after 60 s");
-            }
-            await Task.Delay(50);
-        }
-    }
+    /// <summary>Polls until the reading inbox is empty (kept for callers; <see cref="PostgresNodes.WaitInboxEmptyAsync(ProviderDatabase)"/>).</summary>
+    internal static Task WaitInboxEmptyAsync(ProviderDatabase db) => PostgresNodes.WaitInboxEmptyAsync(db);
 
     private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
         StateChannels.NextAsync(states, match);
