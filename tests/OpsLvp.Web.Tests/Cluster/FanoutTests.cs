@@ -241,7 +241,7 @@ public sealed class FanoutTests
     public async Task UnreachableRedis_TheNodeStarts_AndAStandbySaysItIsNotLive()
     {
         // a port nothing listens on: the node must run and say it cannot fan out, not refuse to start
-        var port = LocalServices.FreePort();
+        using var refusing = LocalServices.RefusingPort(out var port); // held for the test: no server another test starts can take it
         await using var b = ClusterNode.Start("node-b", $"127.0.0.1:{port},connectTimeout=500", leader: false);
         var health = await b.App.GetHealthAsync();
         Assert.NotEqual(JsonValueKind.Undefined, health.ValueKind);
