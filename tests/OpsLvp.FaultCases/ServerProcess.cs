@@ -1,7 +1,6 @@
 using System.Collections.Concurrent;
 using System.Diagnostics;
 using System.Net;
-using System.Net.Sockets;
 
 namespace OpsLvp.FaultCases;
 
@@ -18,16 +17,17 @@ public sealed class ServerProcess : IDisposable
 
     private readonly ConcurrentQueue<string> _lines = new();
 
-    private ServerProcess(Process process, Uri baseAddress)
+    private ServerProcess(Process process)
     {
         _process = process;
-        BaseAddress = baseAddress;
-        Client = new HttpClient { BaseAddress = baseAddress, Timeout = TimeSpan.FromSeconds(60) };
     }
 
-    public Uri BaseAddress { get; }
+    /// <summary>The address the server listens on (it picks a free port itself, so no other server can be on it).</summary>
+    public Uri BaseAddress { get; private set; } = null!;
 
-    public HttpClient Client { get; }
+    public HttpClient Client { get; private set; } = null!;
+
+    private readonly TaskCompletionSource<Uri> _listening = new(TaskCreationOptions.RunContinuationsAsynchronously);
 
     public int Id => _process.Id;
 
@@ -53,7 +53,6 @@ public sealed class ServerProcess : IDisposable
     /// <summary>Starts the server and waits (up to 120 s, generous for a loaded machine) until <c>/health</c> answers 200.</summary>
     public static async Task<ServerProcess> StartAsync(string dataFolder, string profilePath, IDictionary<string, string>? settings = null)
     {
-        var port = FreePort();
         var dll = Path.Combine(AppContext.BaseDirectory, "OpsLvp.Web.dll");
         if (!File.Exists(dll))
         {
@@ -68,7 +67,9 @@ public sealed class ServerProcess : IDisposable
         };
         start.ArgumentList.Add(dll);
         start.ArgumentList.Add("--urls");
-        start.ArgumentList.Add($"http://127.0.0.1:{port}");
+        // port 0: Kestrel takes a free port itself and says which ("Now listening on:"); a port picked here and bound by
+        // the server later may meanwhile be taken by another test's server, which would then answer in its place
+        start.ArgumentList.Add("http://127.0.0.1:0");
         start.Environment["Storage__DataFolder"] = dataFolder;
         start.Environment["Engine__ProfilePath"] = profilePath;
         start.Environment["Engine__TickInterval"] = "00:00:00.200";
@@ -76,18 +77,31 @@ public sealed class ServerProcess : IDisposable
         start.Environment["Feeds__Push__ApiKeys__0__Name"] = "fault-suite";
         start.Environment["Feeds__Push__ApiKeys__0__Key"] = FaultProfile.PushKey;
         start.Environment["Logging__LogLevel__Default"] = "Warning";
+        start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
         start.Environment["DOTNET_CLI_TELEMETRY_OPTOUT"] = "1";
         foreach (var (key, value) in settings ?? new Dictionary<string, string>())
         {
             start.Environment[key] = value;
         }
         var process = Process.Start(start)!;
-        var server = new ServerProcess(process, new Uri($"http://127.0.0.1:{port}"));
+        var server = new ServerProcess(process);
         process.OutputDataReceived += (_, e) => server.Keep(e.Data);
         process.ErrorDataReceived += (_, e) => server.Keep(e.Data);
         process.BeginOutputReadLine();
         process.BeginErrorReadLine();
         var deadline = DateTime.UtcNow.AddSeconds(120);
+        while (!server._listening.Task.IsCompleted)
+        {
+            if (process.HasExited || DateTime.UtcNow > deadline)
+            {
+                var why = server.ExitDescription ?? "not listening after 120 s";
+                server.Dispose();
+                throw new InvalidOperationException($"server did not come up ({why}): {string.Join(" | ", server.LastLines.TakeLast(10))}");
+            }
+            await Task.Delay(100);
+        }
+        server.BaseAddress = await server._listening.Task;
+        server.Client = new HttpClient { BaseAddress = server.BaseAddress, Timeout = TimeSpan.FromSeconds(60) };
         while (true)
         {
             try
@@ -154,7 +168,7 @@ public sealed class ServerProcess : IDisposable
     public void Dispose()
     {
         Kill();
-        Client.Dispose();
+        Client?.Dispose();
         _process.Dispose();
     }
 
@@ -165,6 +179,10 @@ public sealed class ServerProcess : IDisposable
             return;
         }
         _lines.Enqueue(line);
+        if (!_listening.Task.IsCompleted && ListeningLine.Match(line) is { Success: true } m)
+        {
+            _listening.TrySetResult(new Uri(m.Groups[1].Value));
+        }
         while (_lines.Count > LinesKept && _lines.TryDequeue(out _))
         {
         }
@@ -180,10 +198,5 @@ public sealed class ServerProcess : IDisposable
         _ => "",
     };
 
-    private static int FreePort()
-    {
-        using var listener = new TcpListener(IPAddress.Loopback, 0);
-        listener.Start();
-        return ((IPEndPoint)listener.LocalEndpoint).Port;
-    }
+    private static readonly System.Text.RegularExpressions.Regex ListeningLine = new(@"Now listening on:\s*(http://\S+)", System.Text.RegularExpressions.RegexOptions.CultureInvariant);
 }

@@ -508,8 +508,9 @@ public sealed class CommandForwarding(
 
     private ForwardedCommand? Refuse(string reason)
     {
-        Interlocked.Increment(ref _refused);
+        // the reason first: whoever sees the count (health, a test) then sees this refusal's reason, not the one before
         _lastRefusal = reason;
+        Interlocked.Increment(ref _refused);
         logger.LogError("Refused a forwarded command on Cluster:Redis, not carried out: {Reason}", reason);
         return null;
     }

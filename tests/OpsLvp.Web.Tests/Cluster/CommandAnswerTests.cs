@@ -42,6 +42,7 @@ public sealed class CommandAnswerTests
         await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true, settings: s_slowTimeout);
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false, settings: s_slowTimeout,
             services: s => s.AddKeyedSingleton<TimeProvider>(TimeServiceCollectionExtensions.NetworkClockKey, new OffsetClock(skew)));
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 2); // every node (and listener) subscribed: a command sent sooner is lost or refused
         await LiveClient.WaitForPhaseAsync(a.App, "normal", TimeSpan.FromSeconds(60));
         await using var observer = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var forwarding = a.App.Services.GetRequiredService<CommandForwarding>();
@@ -67,6 +68,7 @@ public sealed class CommandAnswerTests
         using var redis = await RedisServerProcess.StartAsync();
         await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 2); // every node (and listener) subscribed: a command sent sooner is lost or refused
         await LiveClient.WaitForPhaseAsync(a.App, "normal", TimeSpan.FromSeconds(60));
         using var log = new CapturingLoggerProvider();
         a.App.Services.GetRequiredService<ILoggerFactory>().AddProvider(log);
@@ -112,6 +114,7 @@ public sealed class CommandAnswerTests
         b.App.Services.GetRequiredService<ILoggerFactory>().AddProvider(log);
         await using var slowLeader = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var requests = await slowLeader.GetSubscriber().SubscribeAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.CommandsChannel));
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 2); // every node (and listener) subscribed: a command sent sooner is lost or refused
         var seal = b.App.Services.GetRequiredService<ClusterSeal>();
         var commands = b.App.Services.GetRequiredService<ILvpCommandService>();
 

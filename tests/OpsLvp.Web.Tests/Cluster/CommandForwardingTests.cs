@@ -23,6 +23,7 @@ public sealed class CommandForwardingTests
         using var redis = await RedisServerProcess.StartAsync();
         await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 2); // every node (and listener) subscribed: a command sent sooner is lost or refused
         await LiveClient.WaitForPhaseAsync(a.App, "normal", TimeSpan.FromSeconds(60));
 
         var outcome = await Commands(b).ExecuteAsync(s_dutyManager, new SetForecast("", true, "TAF shows fog (invented)"));
@@ -42,6 +43,7 @@ public sealed class CommandForwardingTests
         using var redis = await RedisServerProcess.StartAsync();
         await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 2); // every node (and listener) subscribed: a command sent sooner is lost or refused
         var viewer = new CommandCaller("v.iewer (invented)", new HashSet<string> { Roles.Viewer }, new HashSet<string>(), true);
 
         var outcome = await Commands(b).ExecuteAsync(viewer, new SetForecast("", true, "no right to (invented)"));
@@ -61,6 +63,7 @@ public sealed class CommandForwardingTests
         // listen on the command channel as a node would, to deliver the request again later (a late delivery)
         await using var spy = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var requests = await spy.GetSubscriber().SubscribeAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.CommandsChannel));
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 3); // every node (and listener) subscribed: a command sent sooner is lost or refused
 
         var outcome = await Commands(b).ExecuteAsync(s_dutyManager, new SetForecast("", true, "TAF shows fog (invented)"));
 

@@ -30,6 +30,7 @@ public sealed class ForgedCommandTests
         await using var a = ClusterNode.Start("node-a", redis.Configuration, leader: true);
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false);
         await using var other = ClusterNode.Start("node-other", redis.Configuration, leader: false, ownKeyRing: true);
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 3); // every node (and listener) subscribed: a command sent sooner is lost or refused
         await LiveClient.WaitForPhaseAsync(a.App, "normal", TimeSpan.FromSeconds(60));
         await using var attacker = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var forwarding = a.App.Services.GetRequiredService<CommandForwarding>();
@@ -70,6 +71,7 @@ public sealed class ForgedCommandTests
         await LiveClient.WaitForPhaseAsync(a.App, "normal", TimeSpan.FromSeconds(60));
         await using var attacker = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var captured = await attacker.GetSubscriber().SubscribeAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.CommandsChannel));
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 3); // every node (and listener) subscribed: a command sent sooner is lost or refused
         var forwarding = a.App.Services.GetRequiredService<CommandForwarding>();
 
         var outcome = await b.App.Services.GetRequiredService<ILvpCommandService>().ExecuteAsync(s_dutyManager, new SetForecast("", true, "TAF shows fog (invented)"));
@@ -106,6 +108,7 @@ public sealed class ForgedCommandTests
         await using var b = ClusterNode.Start("node-b", redis.Configuration, leader: false, settings: fast);
         await using var attacker = await ConnectionMultiplexer.ConnectAsync(redis.Configuration);
         var captured = await attacker.GetSubscriber().SubscribeAsync(RedisChannel.Literal("opslvp:" + CommandForwarding.CommandsChannel));
+        await CommandChannel.WaitForSubscribersAsync(redis.Configuration, 3); // every node (and listener) subscribed: a command sent sooner is lost or refused
 
         // no leader: the command is withdrawn after the timeout, and captured on the way
         var outcome = await b.App.Services.GetRequiredService<ILvpCommandService>().ExecuteAsync(s_dutyManager, new SetForecast("", true, "TAF shows fog (invented)"));

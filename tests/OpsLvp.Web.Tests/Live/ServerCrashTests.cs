@@ -1,6 +1,5 @@
 using System.Diagnostics;
 using System.Net;
-using System.Net.Sockets;
 using System.Text;
 using Microsoft.Data.Sqlite;
 using OpsLvp.Data;
@@ -159,7 +158,6 @@ public sealed class ServerCrashTests
 
         public static async Task<ServerProcess> StartAsync(string folder, string profile, IReadOnlyDictionary<string, string>? environment = null)
         {
-            var port = FreePort();
             var dll = Path.Combine(AppContext.BaseDirectory, "OpsLvp.Web.dll");
             var start = new ProcessStartInfo("dotnet")
             {
@@ -170,24 +168,49 @@ public sealed class ServerCrashTests
             };
             start.ArgumentList.Add(dll);
             start.ArgumentList.Add("--urls");
-            start.ArgumentList.Add($"http://127.0.0.1:{port}");
+            // port 0: Kestrel takes a free port itself and says which; a port picked here and bound later may meanwhile be
+            // taken by another test's server, which would then answer in its place
+            start.ArgumentList.Add("http://127.0.0.1:0");
             start.Environment["Storage__DataFolder"] = folder;
             start.Environment["Engine__ProfilePath"] = profile;
             start.Environment["Demo__Simulator"] = "Off";
             start.Environment["Feeds__Push__ApiKeys__0__Name"] = "crash-test";
             start.Environment["Feeds__Push__ApiKeys__0__Key"] = LiveTestProfile.PushKey;
             start.Environment["Logging__LogLevel__Default"] = "Warning";
+            start.Environment["Logging__LogLevel__Microsoft.Hosting.Lifetime"] = "Information";
             foreach (var (key, value) in environment ?? new Dictionary<string, string>())
             {
                 start.Environment[key] = value;
             }
             var process = Process.Start(start)!;
-            process.OutputDataReceived += (_, _) => { };
-            process.ErrorDataReceived += (_, _) => { };
+            var listening = new TaskCompletionSource<Uri>(TaskCreationOptions.RunContinuationsAsynchronously);
+            void Watch(string? line)
+            {
+                if (line is not null && ListeningLine.Match(line) is { Success: true } m)
+                {
+                    listening.TrySetResult(new Uri(m.Groups[1].Value));
+                }
+            }
+            process.OutputDataReceived += (_, e) => Watch(e.Data);
+            process.ErrorDataReceived += (_, e) => Watch(e.Data);
             process.BeginOutputReadLine();
             process.BeginErrorReadLine();
-            var server = new ServerProcess(process, new Uri($"http://127.0.0.1:{port}"));
             var deadline = DateTime.UtcNow.AddSeconds(90); // generous: a loaded CI machine can take tens of seconds to start
+            while (!listening.Task.IsCompleted)
+            {
+                if (process.HasExited || DateTime.UtcNow > deadline)
+                {
+                    var exited = process.HasExited;
+                    if (!exited)
+                    {
+                        process.Kill(entireProcessTree: true);
+                    }
+                    process.Dispose();
+                    throw new Xunit.Sdk.XunitException($"server did not come up (exited: {exited})");
+                }
+                await Task.Delay(100);
+            }
+            var server = new ServerProcess(process, await listening.Task);
             while (true)
             {
                 try
@@ -200,6 +223,10 @@ public sealed class ServerCrashTests
                 }
                 catch (HttpRequestException)
                 {
+                }
+                catch (TaskCanceledException)
+                {
+                    // the 10 s client timeout: a loaded machine's first request can take that long; the deadline decides
                 }
                 if (process.HasExited || DateTime.UtcNow > deadline)
                 {
@@ -238,11 +265,6 @@ public sealed class ServerCrashTests
             _process.Dispose();
         }
 
-        private static int FreePort()
-        {
-            using var listener = new TcpListener(IPAddress.Loopback, 0);
-            listener.Start();
-            return ((IPEndPoint)listener.LocalEndpoint).Port;
-        }
+        private static readonly System.Text.RegularExpressions.Regex ListeningLine = new(@"Now listening on:\s*(http://\S+)", System.Text.RegularExpressions.RegexOptions.CultureInvariant);
     }
 }

@@ -43,6 +43,18 @@ public static class LocalServices
         return port;
     }
 
+    /// <summary>
+    /// A port on 127.0.0.1 that refuses connections for as long as the returned socket is kept: bound, never listening.
+    /// A port from <see cref="FreePort"/> is free only for a moment, and a server another test starts meanwhile may take it.
+    /// </summary>
+    public static Socket RefusingPort(out int port)
+    {
+        var socket = new Socket(AddressFamily.InterNetwork, SocketType.Stream, ProtocolType.Tcp);
+        socket.Bind(new IPEndPoint(IPAddress.Loopback, 0));
+        port = ((IPEndPoint)socket.LocalEndPoint!).Port;
+        return socket;
+    }
+
     /// <summary>Runs a program to its end; throws with its output when it fails.</summary>
     public static string Run(string program, IEnumerable<string> arguments, TimeSpan? timeout = null)
     {

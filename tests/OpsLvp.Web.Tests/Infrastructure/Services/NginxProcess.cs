@@ -56,6 +56,24 @@ public sealed partial class NginxProcess : IDisposable
         ArgumentNullException.ThrowIfNull(nodes);
         var program = Program
             ?? throw new InvalidOperationException("nginx not found (apt install nginx, or set OPSLVP_NGINX); OPSLVP_REQUIRE_SERVICES=1 is set, so the test fails instead of being skipped");
+        // the port was free when it was picked; a server another test started meanwhile may have taken it (nginx then
+        // cannot listen and exits): a new port, a few times
+        for (var attempt = 1; ; attempt++)
+        {
+            try
+            {
+                return await StartOnFreePortAsync(program, nodes);
+            }
+            catch (PortTakenException) when (attempt < 3)
+            {
+            }
+        }
+    }
+
+    private sealed class PortTakenException(string message) : InvalidOperationException(message);
+
+    private static async Task<NginxProcess> StartOnFreePortAsync(string program, IReadOnlyList<Uri> nodes)
+    {
         var folder = Path.Combine(Path.GetTempPath(), "opslvp-nginx", Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(folder);
         var port = LocalServices.FreePort();
@@ -81,16 +99,22 @@ public sealed partial class NginxProcess : IDisposable
             {
                 using var client = new TcpClient();
                 await client.ConnectAsync("127.0.0.1", port);
-                return nginx;
+                // nginx writes its pid file once it listens: without it the answer came from whoever else holds the port
+                if (nginx.ListensItself())
+                {
+                    return nginx;
+                }
             }
             catch (SocketException) when (DateTime.UtcNow < deadline && !process.HasExited)
             {
             }
             if (process.HasExited || DateTime.UtcNow >= deadline)
             {
+                var exited = process.HasExited;
                 var errors = nginx.ErrorLog();
                 nginx.Dispose();
-                throw new InvalidOperationException($"nginx on port {port} did not start (exited: {process.HasExited}): {errors}");
+                var message = $"nginx on port {port} did not start (exited: {exited}): {errors}";
+                throw exited && errors.Contains("Address already in use", StringComparison.Ordinal) ? new PortTakenException(message) : new InvalidOperationException(message);
             }
             await Task.Delay(100);
         }
@@ -142,6 +166,19 @@ public sealed partial class NginxProcess : IDisposable
             }
         }
         return lines;
+    }
+
+    private bool ListensItself()
+    {
+        try
+        {
+            var pid = File.ReadAllText(Path.Combine(Folder, "nginx.pid")).Trim();
+            return pid == _process.Id.ToString(CultureInfo.InvariantCulture);
+        }
+        catch (IOException)
+        {
+            return false;
+        }
     }
 
     public string ErrorLog()

@@ -105,6 +105,24 @@ public sealed class PostgresCluster : IDisposable
             ?? throw new InvalidOperationException("PostgreSQL server programs not found (apt install postgresql, or set OPSLVP_PG_BIN); OPSLVP_REQUIRE_SERVICES=1 is set, so the test fails instead of being skipped");
         var asPostgresUser = Environment.IsPrivilegedProcess;
         DeleteLeftovers();
+        // the port was free when it was picked; a server another test (or test process) started meanwhile may have taken
+        // it, and then this one cannot listen: a new cluster on a new port, a few times
+        for (var attempt = 1; ; attempt++)
+        {
+            try
+            {
+                var cluster = StartOnFreePort(bin, asPostgresUser);
+                AppDomain.CurrentDomain.ProcessExit += (_, _) => cluster.Dispose();
+                return cluster;
+            }
+            catch (PortTakenException) when (attempt < 3)
+            {
+            }
+        }
+    }
+
+    private static PostgresCluster StartOnFreePort(string bin, bool asPostgresUser)
+    {
         var folder = Directory.CreateTempSubdirectory("opslvp-pg-").FullName;
         var cluster = new PostgresCluster(bin, folder, LocalServices.FreePort(), asPostgresUser);
         try
@@ -116,17 +134,21 @@ public sealed class PostgresCluster : IDisposable
             cluster.RunTool("initdb", "-D", cluster.DataFolder, "-U", User, "-A", "trust", "-E", "UTF8", "--no-locale", "--no-sync");
             cluster.RunTool("pg_ctl", "start", "-D", cluster.DataFolder, "-l", Path.Combine(folder, "server.log"), "-w", "-t", "120",
                 "-o", $"-p {cluster.Port} -k {folder} -c listen_addresses=127.0.0.1 -c max_connections=300 -c shared_buffers=32MB");
+            return cluster;
         }
         catch (Exception ex)
         {
             var log = Path.Combine(folder, "server.log");
             var tail = File.Exists(log) ? File.ReadAllText(log) : "";
             cluster.Dispose();
-            throw new InvalidOperationException($"the test PostgreSQL cluster did not start: {ex.Message} {tail}", ex);
+            var message = $"the test PostgreSQL cluster did not start: {ex.Message} {tail}";
+            throw tail.Contains("Address already in use", StringComparison.Ordinal)
+                ? new PortTakenException(message, ex)
+                : new InvalidOperationException(message, ex);
         }
-        AppDomain.CurrentDomain.ProcessExit += (_, _) => cluster.Dispose();
-        return cluster;
     }
+
+    private sealed class PortTakenException(string message, Exception inner) : InvalidOperationException(message, inner);
 
     /// <summary>Deletes clusters of earlier runs that were not stopped cleanly and no longer run (no postmaster.pid).</summary>
     private static void DeleteLeftovers()
