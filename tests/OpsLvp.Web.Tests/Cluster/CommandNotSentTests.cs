@@ -119,12 +119,17 @@ public sealed class CommandNotSentTests
         Assert.Equal(applied.AuditSequence, entry.Sequence);
     }
 
-    /// <summary>node-a, then, once it leads, node-b: the first creates the installation's key ring and the second finds it.</summary>
+    /// <summary>
+    /// node-a, then, once it leads, node-b: the first creates the installation's key ring and the second finds it. Returns
+    /// once both listen on the command channel, so the first command meets a connected standby.
+    /// </summary>
     private static async Task<(OpsLvpApp Leader, OpsLvpApp Standby)> StartInTurnAsync(PostgresNodes nodes)
     {
         var first = nodes.Start("node-a");
         await Eventually.TrueAsync(() => first.Services.GetRequiredService<ILeadership>().IsLeader, "node-a to lead", TimeSpan.FromSeconds(60));
-        return await PostgresNodes.LeaderAndStandbyAsync(first, nodes.Start("node-b"));
+        var pair = await PostgresNodes.LeaderAndStandbyAsync(first, nodes.Start("node-b"));
+        await CommandChannel.WaitForSubscribersAsync(nodes.Redis!.Configuration, 2);
+        return pair;
     }
 
     /// <summary>The values of every forwarded command's key (<c>pending</c>, <c>expired</c>, ...), sorted.</summary>
