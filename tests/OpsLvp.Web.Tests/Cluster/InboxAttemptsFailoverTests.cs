@@ -56,7 +56,7 @@ public sealed class InboxAttemptsFailoverTests
                 // pushed to the standby B; the leader A takes it from the inbox and fails: attempt 1 of 2
                 var now = DateTimeOffset.UtcNow;
                 Assert.Equal(HttpStatusCode.Accepted, (await StandbyPushTests.PushAsync(b, LiveClient.Item(now.AddSeconds(-1), LiveTestProfile.Tdz, "rvr", Refused))).Status);
-                var id = Assert.Single(await InboxIdsAsync(db));
+                var id = Assert.Single(await PostgresNodes.InboxIdsAsync(db));
                 await Eventually.TrueAsync(() => FailedAttempts(logA, id).Any(), "node-p's first failed attempt", TimeSpan.FromSeconds(60));
                 Assert.Contains("(attempt 1 of 2)", Assert.Single(FailedAttempts(logA, id)), StringComparison.Ordinal);
 
@@ -105,20 +105,6 @@ public sealed class InboxAttemptsFailoverTests
         await connection.OpenAsync();
         await using var command = new NpgsqlCommand(sql, connection);
         await command.ExecuteNonQueryAsync();
-    }
-
-    private static async Task<List<long>> InboxIdsAsync(ProviderDatabase db)
-    {
-        await using var connection = new NpgsqlConnection(db.ConnectionString + ";Pooling=false");
-        await connection.OpenAsync();
-        await using var command = new NpgsqlCommand("SELECT id FROM reading_inbox ORDER BY id", connection);
-        var ids = new List<long>();
-        await using var reader = await command.ExecuteReaderAsync();
-        while (await reader.ReadAsync())
-        {
-            ids.Add(reader.GetInt64(0));
-        }
-        return ids;
     }
 
     private static async Task<List<(long Id, int Attempts, string? LastError)>> InboxAsync(ProviderDatabase db)

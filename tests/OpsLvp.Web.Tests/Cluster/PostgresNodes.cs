@@ -153,9 +153,12 @@ public sealed class PostgresNodes : IAsyncDisposable
     public Task WaitInboxEmptyAsync() => WaitInboxEmptyAsync(Db);
 
     /// <summary>The ids of the batches waiting in the reading inbox, oldest first.</summary>
-    public async Task<List<long>> InboxIdsAsync()
+    public Task<List<long>> InboxIdsAsync() => InboxIdsAsync(Db);
+
+    /// <summary>The ids of the batches waiting in the reading inbox of <paramref name="db"/>, oldest first.</summary>
+    public static async Task<List<long>> InboxIdsAsync(ProviderDatabase db)
     {
-        await using var connection = new NpgsqlConnection(Db.ConnectionString + ";Pooling=false");
+        await using var connection = new NpgsqlConnection(db.ConnectionString + ";Pooling=false");
         await connection.OpenAsync();
         await using var command = new NpgsqlCommand("SELECT id FROM reading_inbox ORDER BY id", connection);
         var ids = new List<long>();
