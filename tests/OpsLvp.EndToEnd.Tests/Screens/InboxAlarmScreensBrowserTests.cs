@@ -81,11 +81,11 @@ public sealed class InboxAlarmScreensBrowserTests(ITestOutputHelper output)
         {
             var touch = size.Width <= 1024;
             await ScreenMeasure.ShowAtAsync(wall, size, $"inbox-wall-page-at-{size.Name}.png", output);
-            problems.AddRange(await ScreenMeasure.ProblemsAsync(wall, $"wall page at {size.Name}", "[data-testid=wall-phase]", wallTexts, wall: size.Name == "wall", touch));
+            problems.AddRange(await ScreenMeasure.ProblemsAsync(wall, $"wall page at {size.Name}", "[data-testid=wall-phase]", wallTexts, wall: size.Name == "wall", touch, [.. wallTexts.Select(t => t.Selector)]));
             await ScreenMeasure.ShowAtAsync(console, size, $"inbox-console-page-at-{size.Name}.png", output);
-            problems.AddRange(await ScreenMeasure.ProblemsAsync(console, $"console page at {size.Name}", "[data-testid=console-phase]", alarmTexts, wall: false, touch));
+            problems.AddRange(await ScreenMeasure.ProblemsAsync(console, $"console page at {size.Name}", "[data-testid=console-phase]", alarmTexts, wall: false, touch, [.. alarmTexts.Select(t => t.Selector)]));
             await ScreenMeasure.ShowAtAsync(tablet, size, $"inbox-team-page-at-{size.Name}.png", output);
-            problems.AddRange(await ScreenMeasure.ProblemsAsync(tablet, $"team page at {size.Name}", "[data-testid=actions-phase]", alarmTexts, wall: false, touch));
+            problems.AddRange(await ScreenMeasure.ProblemsAsync(tablet, $"team page at {size.Name}", "[data-testid=actions-phase]", alarmTexts, wall: false, touch, [.. alarmTexts.Select(t => t.Selector)]));
         }
         // "Show all" on a phone gives the whole message, nothing of it cut off, the phase still in view
         var setAside = tablet.Locator($"[data-testid=alarm][data-alarm-key={SetAsideKey}]");

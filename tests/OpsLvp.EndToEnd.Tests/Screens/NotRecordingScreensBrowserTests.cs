@@ -68,14 +68,15 @@ public sealed class NotRecordingScreensBrowserTests(ITestOutputHelper output)
             var touch = size.Width <= 1024;
             await ScreenMeasure.ShowAtAsync(wall, size, $"not-recording-wall-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(wall, $"wall page at {size.Name}", "[data-testid=wall-phase]",
-                [("[data-testid=wall-phase-note]", note), (Banner, "NOT RECORDING since")], wall: size.Name == "wall", touch));
+                [("[data-testid=wall-phase-note]", note), (Banner, "NOT RECORDING since")], wall: size.Name == "wall", touch, ["[data-testid=wall-phase-note]", Banner]));
             await ScreenMeasure.ShowAtAsync(console, size, $"not-recording-console-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(console, $"console page at {size.Name}", "[data-testid=console-phase]",
-                [("[data-testid=console-phase-note]", note), (Banner, "NOT RECORDING since")], wall: false, touch));
+                [("[data-testid=console-phase-note]", note), (Banner, "NOT RECORDING since")], wall: false, touch, ["[data-testid=console-phase-note]", Banner]));
             await ScreenMeasure.ShowAtAsync(tablet, size, $"not-recording-team-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(tablet, $"team page at {size.Name}", "[data-testid=actions-phase]",
                 [("[data-testid=actions-phase-note]", note), (Banner, "NOT RECORDING since"),
-                 ("[data-item-id=prep-works] [data-testid=action-not-recording]", "NOT RECORDING since|cannot be recorded now")], wall: false, touch));
+                 ("[data-item-id=prep-works] [data-testid=action-not-recording]", "NOT RECORDING since|cannot be recorded now")], wall: false, touch,
+                ["[data-testid=actions-phase-note]", Banner]));
             // no tick button that looks as if it would be recorded
             await Expect(works.Locator("[data-testid=action-tick]")).ToBeDisabledAsync();
             await Expect(works.Locator("[data-testid=action-tick]")).ToContainTextAsync("not recording");

@@ -48,12 +48,13 @@ internal static class ScreenMeasure
     /// What is wrong on <paramref name="page"/> as it is now: <paramref name="phase"/> (a selector; empty: not checked) must be inside the
     /// screen and not covered by any of <paramref name="texts"/>; each of <paramref name="texts"/> (selector, words it must
     /// contain) visible, inside the screen width and not clipped; on the wall size the texts and the phase at least
-    /// <see cref="WallMinFontPx"/>; on a touch size every visible control at least <see cref="MinTargetPx"/> square.
+    /// <see cref="WallMinFontPx"/>; on a touch size every visible control at least <see cref="MinTargetPx"/> square; the
+    /// selectors in <paramref name="inView"/> seen without scrolling (their first line at least).
     /// </summary>
-    public static async Task<IReadOnlyList<string>> ProblemsAsync(IPage page, string where, string phase, IReadOnlyList<(string Selector, string Words)> texts, bool wall, bool touch)
+    public static async Task<IReadOnlyList<string>> ProblemsAsync(IPage page, string where, string phase, IReadOnlyList<(string Selector, string Words)> texts, bool wall, bool touch, IReadOnlyList<string>? inView = null)
     {
         var report = await page.EvaluateAsync<JsonElement>("""
-            ([phase, texts, wall, touch, minFont, minTarget]) => {
+            ([phase, texts, wall, touch, minFont, minTarget, inView]) => {
               const problems = [];
               const W = window.innerWidth, H = window.innerHeight;
               const shown = e => { const s = getComputedStyle(e); const r = e.getBoundingClientRect(); return s.visibility !== 'hidden' && s.display !== 'none' && r.width > 0 && r.height > 0; };
@@ -92,6 +93,7 @@ internal static class ScreenMeasure
                 for (const w of words.split('|')) if (!t.includes(w)) problems.push(`${sel} does not say "${w}": "${t}"`);
                 const r = e.getBoundingClientRect(), v = seen(e);
                 if (r.left < -0.5 || r.right > W + 0.5) problems.push(`${sel} outside the screen width at ${box(r)}`);
+                if (inView.includes(sel) && (v.height < 8 || v.top < -0.5 || v.top + 8 > H)) problems.push(`${sel} not in view without scrolling: its seen part is ${box(v)} on a ${W}×${H} screen`);
                 const spill = [...e.querySelectorAll('*')].filter(x => shown(x) && hasText(x)).map(x => x.getBoundingClientRect())
                   .filter(x => x.top < r.top - 1 || x.bottom > r.bottom + 1 || x.left < r.left - 1 || x.right > r.right + 1);
                 if (spill.length > 0) problems.push(`${sel} at ${box(r)}: its text runs out of its box at ${spill.map(box).join(', ')}`);
@@ -123,7 +125,7 @@ internal static class ScreenMeasure
               }
               return problems;
             }
-            """, new object[] { phase, texts.Select(t => new[] { t.Selector, t.Words }).ToArray(), wall, touch, WallMinFontPx, MinTargetPx });
+            """, new object[] { phase, texts.Select(t => new[] { t.Selector, t.Words }).ToArray(), wall, touch, WallMinFontPx, MinTargetPx, (inView ?? []).ToArray() });
         return [.. report.EnumerateArray().Select(p => $"{where}: {p.GetString()}")];
     }
 }
