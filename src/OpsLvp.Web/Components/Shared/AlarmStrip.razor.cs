@@ -19,6 +19,7 @@ namespace OpsLvp.Web.Components.Shared;
 public partial class AlarmStrip
 {
     private readonly HashSet<string> _sending = new(StringComparer.Ordinal);
+    private readonly HashSet<string> _shownInFull = new(StringComparer.Ordinal);
     private ILiveState? _live;
     private ILvpCommandService? _commands;
     private IReadOnlyList<Alarm> _alarms = [];
@@ -103,6 +104,24 @@ public partial class AlarmStrip
     }
 
     private string Message(Alarm alarm) => AlarmWords.Message(alarm, _pending);
+
+    /// <summary>
+    /// Longer than two lines on a narrow screen: shown cut to its first lines (three on a phone) with "Show all", so a
+    /// long alarm (a database error in full) does not push the page's phase or the next alarm out of view.
+    /// </summary>
+    internal const int LongMessageChars = 110;
+
+    private bool IsLong(Alarm alarm) => Message(alarm).Length > LongMessageChars;
+
+    private bool IsCut(Alarm alarm) => IsLong(alarm) && !_shownInFull.Contains(AlarmLabels.Identity(alarm));
+
+    private void ToggleFull(Alarm alarm)
+    {
+        if (!_shownInFull.Remove(AlarmLabels.Identity(alarm)))
+        {
+            _shownInFull.Add(AlarmLabels.Identity(alarm));
+        }
+    }
 
     /// <summary>"3 alarms · 2 unacknowledged": the strip's count line, so a flood reads at a glance.</summary>
     internal string CountText => _alarms.Count == 1

@@ -125,6 +125,29 @@ public sealed class WallViewModelTests
     }
 
     [Fact]
+    public void LongAlarms_AreHeadedByTheirKind_CutToThreeLines_AndBothShown()
+    {
+        // invented texts of the inbox alarms' length (docs/engine.md R81, R82): a database error named in full
+        var error = string.Concat(Enumerable.Repeat("invented database error detail ", 12));
+        var alarms = new[]
+        {
+            new Alarm("inbox-batch-set-aside", AlarmKind.InboxBatchSetAside, "reading batch 1 received on node-b could not be evaluated and was set aside: " + error, At.AddMinutes(-1)),
+            new Alarm("inbox-behind", AlarmKind.InboxBehind, "2 reading batch(es) pushed to other nodes wait for evaluation, the oldest received on node-b; the screens do not show those readings yet", At),
+            new Alarm("k-short", AlarmKind.SensorSilent, "invented sensor silent", At.AddMinutes(-2)),
+        };
+
+        var vm = WallViewModel.Build(Snapshot(Status(Phase.Preparation) with { Alarms = alarms }), At);
+
+        Assert.Equal(3, vm.Alarms.Count);
+        Assert.Equal(0, vm.HiddenAlarms);
+        var setAside = Assert.Single(vm.Alarms, a => a.Key == "inbox-batch-set-aside");
+        Assert.Equal("Reading batch set aside", setAside.Label);
+        Assert.True(setAside.Shortened);
+        Assert.True(Assert.Single(vm.Alarms, a => a.Key == "inbox-behind").Shortened);
+        Assert.False(Assert.Single(vm.Alarms, a => a.Key == "k-short").Shortened);
+    }
+
+    [Fact]
     public void WhenEveryPositionReadsTheSame_NoneIsMarkedLowest()
     {
         var runway = Runway07L(

@@ -45,7 +45,18 @@ public partial class ActionItemCard
     [Parameter]
     public EventCallback Touched { get; set; }
 
+    /// <summary>
+    /// "NOT RECORDING since 03:12:05Z" while the server cannot record (<see cref="Shared.RecordingBanner.NotRecordingText"/>),
+    /// else null. The card then offers no tick, undo or not-applicable that looks as if it would be applied: each such
+    /// button is disabled and the card says why (docs/reliability.md "Storage faults"). A confirmation already open stays
+    /// answerable; the server refuses what it sends, and the card shows the refusal and its reason.
+    /// </summary>
+    [Parameter]
+    public string? NotRecording { get; set; }
+
     internal TickStage Stage => _stage;
+
+    private string NotRecordingNote => $"{NotRecording}: a tick, undo or not-applicable cannot be recorded now and would be refused. Do the work; record it here when recording resumes.";
 
     private string PhaseLabel => LvpVocabulary.For(Item.Phase).Name;
 

@@ -62,6 +62,9 @@ public partial class TabletActions : LiveComponentBase, IAsyncDisposable
         ShowSnapshot(Live.Current);
     }
 
+    /// <summary>"NOT RECORDING since …" while the server cannot record, for the cards; null while it records.</summary>
+    private string? NotRecordingText => Shared.RecordingBanner.NotRecordingText(_snapshot?.Recording);
+
     protected override void OnSnapshot(LiveSnapshot snapshot)
     {
         _snapshot = snapshot;

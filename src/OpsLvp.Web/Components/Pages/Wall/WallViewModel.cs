@@ -22,6 +22,12 @@ public sealed class WallViewModel
 
     public const int MaxAlarms = 3;
 
+    /// <summary>
+    /// Lines of an alarm's message the wall shows under its headline: a long one (a database error named in full) is cut
+    /// there, says so ("full text on the console"), and leaves room for the alarms after it.
+    /// </summary>
+    public const int AlarmMessageLines = 3;
+
     /// <summary>Height of the status column at 1920×1080 in tenths of a text line (alarms, notices, waiting).</summary>
     public const int StatusTenthsBudget = 215;
 
@@ -109,12 +115,7 @@ public sealed class WallViewModel
         var alarms = status.Alarms
             .OrderBy(a => a.Acknowledged)
             .ThenByDescending(a => a.RaisedAt)
-            .Select(a => new WallAlarm(
-                a.Key,
-                AlarmWords.Message(a, status.Pending),
-                "since " + Hm(a.RaisedAt),
-                a.Acknowledged,
-                a.Acknowledged ? "wall-alarm-acked" : "wall-alarm-raised"))
+            .Select(a => Alarm(a, status.Pending))
             .ToList();
         var shownAlarms = AlarmsThatFit(alarms, notices, waiting);
         var silent = runways
@@ -152,6 +153,19 @@ public sealed class WallViewModel
         };
     }
 
+    private static WallAlarm Alarm(Core.Engine.Alarm alarm, Core.Engine.PendingTransition? pending)
+    {
+        var message = AlarmWords.Message(alarm, pending);
+        return new WallAlarm(
+            alarm.Key,
+            AlarmWords.Label(alarm.Kind),
+            message,
+            "since " + Hm(alarm.RaisedAt),
+            alarm.Acknowledged,
+            alarm.Acknowledged ? "wall-alarm-acked" : "wall-alarm-raised",
+            Shortened: message.Length > AlarmMessageLines * StatusCharsPerLine - 15);
+    }
+
     /// <summary>
     /// How many alarms the status column holds beside the notices and waits (always at least one when any is raised);
     /// the rest are counted as "+ N more". Costs are in tenths of a line, boxes include their padding.
@@ -166,7 +180,9 @@ public sealed class WallViewModel
         var shown = 0;
         foreach (var alarm in alarms.Take(MaxAlarms))
         {
-            var cost = Lines(alarm.Message.Length + 1 + alarm.Since.Length + (alarm.Acknowledged ? 15 : 0)) + 6;
+            // the headline (label, time) is one line, the message at most AlarmMessageLines, then "full text on the console"
+            var head = Lines(alarm.Label.Length + 1 + alarm.Since.Length + (alarm.Acknowledged ? 15 : 0));
+            var cost = head + Math.Min(Lines(alarm.Message.Length), AlarmMessageLines * 10) + (alarm.Shortened ? 10 : 0) + 6;
             var moreLine = alarms.Count > shown + 1 ? 10 : 0;
             if (shown > 0 && used + cost + moreLine > StatusTenthsBudget)
             {
