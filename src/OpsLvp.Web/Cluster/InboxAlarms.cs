@@ -1,5 +1,4 @@
 using System.Globalization;
-using OpsLvp.Core.Audit;
 using OpsLvp.Core.Engine;
 
 namespace OpsLvp.Web.Cluster;
@@ -68,7 +67,7 @@ public sealed class InboxAlarms
     public void Behind(int batches, DateTimeOffset oldest, string node, DateTimeOffset now)
     {
         var message = string.Create(CultureInfo.InvariantCulture,
-            $"{batches} reading batch(es) pushed to other nodes wait for evaluation, the oldest received {AuditCanonical.FormatTime(oldest)} on {node}; the screens do not show those readings yet");
+            $"{batches} reading batch(es) pushed to other nodes not yet evaluated, the oldest received on {node} at {Clock(oldest, now)}; the screens do not show those readings yet");
         lock (_lock)
         {
             _behind = _behind is { } raised ? raised with { Message = message } : new Alarm(BehindKey, AlarmKind.InboxBehind, message, now);
@@ -92,10 +91,18 @@ public sealed class InboxAlarms
             _setAsideCount++;
             var more = _setAsideCount > 1 ? string.Create(CultureInfo.InvariantCulture, $" ({_setAsideCount} set aside since this node started)") : "";
             var message = string.Create(CultureInfo.InvariantCulture,
-                $"reading batch {inboxId} received {AuditCanonical.FormatTime(receivedAt)} on {node} ({readings} reading(s)) could not be evaluated and was set aside, not evaluated: {error}{more}; its content is in the audit entry inbox_batch_set_aside");
+                $"reading batch {inboxId} received on {node} at {Clock(receivedAt, now)} ({readings} reading(s)) was set aside and will not be evaluated: {error}{more}; its content is in the audit entry inbox_batch_set_aside");
             var shown = _setAside is not null && now - _lastSetAsideAt < SetAsideShownFor;
             _setAside = shown ? _setAside! with { Message = message } : new Alarm(SetAsideKey, AlarmKind.InboxBatchSetAside, message, now);
             _lastSetAsideAt = now;
         }
+    }
+
+    /// <summary>A time as an operations room reads it: <c>hh:mm:ssZ</c>, with the UTC date in front when it is not <paramref name="now"/>'s day.</summary>
+    internal static string Clock(DateTimeOffset at, DateTimeOffset now)
+    {
+        var utc = at.ToUniversalTime();
+        var format = utc.Date == now.ToUniversalTime().Date ? "HH':'mm':'ss'Z'" : "yyyy'-'MM'-'dd' 'HH':'mm':'ss'Z'";
+        return utc.ToString(format, CultureInfo.InvariantCulture);
     }
 }

@@ -159,7 +159,7 @@ public sealed class InboxLimitAndSetAsideTests
         await Eventually.TrueAsync(() => live.Current?.Status.Alarms.Any(a => a.Key == InboxAlarms.BehindKey) == true, "the behind alarm on the leader's screens", TimeSpan.FromSeconds(60));
         var alarm = live.Current!.Status.Alarms.First(a => a.Key == InboxAlarms.BehindKey);
         Assert.Equal(OpsLvp.Core.Engine.AlarmKind.InboxBehind, alarm.Kind);
-        Assert.Contains("2 reading batch(es) pushed to other nodes wait for evaluation", alarm.Message, StringComparison.Ordinal);
+        Assert.Contains("2 reading batch(es) pushed to other nodes not yet evaluated", alarm.Message, StringComparison.Ordinal);
         Assert.Contains("on node-b", alarm.Message, StringComparison.Ordinal);
         Assert.Equal(2, await nodes.InboxCountAsync());
 
