@@ -1,5 +1,6 @@
 using System.Globalization;
 using OpsLvp.Core.Engine;
+using OpsLvp.Core.Presentation;
 
 namespace OpsLvp.Web.Cluster;
 
@@ -99,10 +100,6 @@ public sealed class InboxAlarms
     }
 
     /// <summary>A time as an operations room reads it: <c>hh:mm:ssZ</c>, with the UTC date in front when it is not <paramref name="now"/>'s day.</summary>
-    internal static string Clock(DateTimeOffset at, DateTimeOffset now)
-    {
-        var utc = at.ToUniversalTime();
-        var format = utc.Date == now.ToUniversalTime().Date ? "HH':'mm':'ss'Z'" : "yyyy'-'MM'-'dd' 'HH':'mm':'ss'Z'";
-        return utc.ToString(format, CultureInfo.InvariantCulture);
-    }
+    internal static string Clock(DateTimeOffset at, DateTimeOffset now) =>
+        at.UtcDateTime.Date == now.UtcDateTime.Date ? DisplayFormat.UtcClockSeconds(at) : DisplayFormat.UtcDateTime(at);
 }

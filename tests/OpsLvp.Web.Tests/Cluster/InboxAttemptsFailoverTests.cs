@@ -69,7 +69,7 @@ public sealed class InboxAttemptsFailoverTests
                 await a.DisposeAsync();
                 disposedA = true;
                 await Eventually.TrueAsync(() => b.Services.GetRequiredService<OpsLvp.Web.Cluster.ILeadership>().IsLeader, "node-q to take over", TimeSpan.FromSeconds(60));
-                await StandbyPushTests.WaitInboxEmptyAsync(db);
+                await PostgresNodes.WaitInboxEmptyAsync(db);
                 var setAside = Assert.Single(await LiveClient.EntriesAsync(b), e => e.Kind == AuditEvents.InboxBatchSetAside);
                 using var payload = JsonDocument.Parse(setAside.PayloadJson);
                 Assert.Equal(id, payload.RootElement.GetProperty("inboxId").GetInt64());

@@ -149,12 +149,6 @@ public sealed class StandbyPushTests
         return (response.StatusCode, await response.Content.ReadAsStringAsync());
     }
 
-    /// <summary>How many batches wait in the reading inbox (kept for callers; <see cref="PostgresNodes.InboxCountAsync(ProviderDatabase)"/>).</summary>
-    internal static Task<long> InboxCountAsync(ProviderDatabase db) => PostgresNodes.InboxCountAsync(db);
-
-    /// <summary>Polls until the reading inbox is empty (kept for callers; <see cref="PostgresNodes.WaitInboxEmptyAsync(ProviderDatabase)"/>).</summary>
-    internal static Task WaitInboxEmptyAsync(ProviderDatabase db) => PostgresNodes.WaitInboxEmptyAsync(db);
-
     private static Task<JsonElement> NextAsync(Channel<JsonElement> states, Func<JsonElement, bool> match) =>
         StateChannels.NextAsync(states, match);
 }

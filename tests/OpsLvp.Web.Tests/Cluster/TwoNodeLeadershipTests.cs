@@ -54,7 +54,7 @@ public sealed class TwoNodeLeadershipTests
             // a reading pushed to the standby is handed over to the leader through the inbox (docs/engine.md R73, R74)
             var handedOver = await PushAsync(b, DateTimeOffset.UtcNow, 700);
             Assert.Equal(HttpStatusCode.Accepted, handedOver.Status);
-            await StandbyPushTests.WaitInboxEmptyAsync(db);
+            await PostgresNodes.WaitInboxEmptyAsync(db);
 
             // 900 m < preparation.rvrBelow 1000 m, enter dwell 0 s (invented test profile)
             Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(a, DateTimeOffset.UtcNow, 900)).Status);
@@ -72,7 +72,7 @@ public sealed class TwoNodeLeadershipTests
             // the old leader evaluates nothing any more: as a standby it hands its readings over to the new one
             var late = DateTimeOffset.UtcNow;
             Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(a, late, 650)).Status);
-            await StandbyPushTests.WaitInboxEmptyAsync(db);
+            await PostgresNodes.WaitInboxEmptyAsync(db);
             Assert.Equal(HttpStatusCode.Accepted, (await PushAsync(b, late.AddSeconds(1), 800)).Status);
 
             using var readings = new ReadingStore(db.NewFactory());
