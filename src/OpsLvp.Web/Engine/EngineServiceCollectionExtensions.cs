@@ -55,6 +55,7 @@ public static class EngineServiceCollectionExtensions
         services.TryAddSingleton<InboxLimit>();
         services.AddSingleton<LiveEngineHost>();
         services.AddHostedService(sp => sp.GetRequiredService<LiveEngineHost>());
+        services.AddSingleton<IEngineStateView>(sp => sp.GetRequiredService<LiveEngineHost>());
         // after the engine host, which has loaded the profile by the time this starts (PostgreSQL only; idle on SQLite)
         services.AddSingleton<ReadingInboxDrain>();
         services.AddHostedService(sp => sp.GetRequiredService<ReadingInboxDrain>());

@@ -43,7 +43,7 @@ public sealed class LiveEngineHost(
     TamperCheck tamper,
     ILeadership leadership,
     OpsLvp.Web.Retention.RetentionAlarm retentionAlarm,
-    InboxAlarms inboxAlarms) : BackgroundService
+    InboxAlarms inboxAlarms) : BackgroundService, IEngineStateView
 {
     /// <summary>The reason a standby gives for readings and commands it does not evaluate.</summary>
     public const string StandbyText = "this node is a standby: the engine runs on the leader node";
@@ -61,7 +61,6 @@ public sealed class LiveEngineHost(
     private string? _switchedFrom;
     private string? _stopped;
 
-    /// <summary>The profile in use; null before start or when the host is disabled.</summary>
     /// <summary>
     /// The loaded profile while the host runs and is not stopped, leading or not: a node that has just won leadership
     /// still restoring, or a standby, screens commands against it and lets the evaluation path decide (restore first, or

@@ -14,6 +14,11 @@ namespace OpsLvp.Web.Feeds.Demo;
 /// node keeps the scenario's schedule from its own start, but a node that does not lead submits nothing (no readings,
 /// forecasts or demo actions, which would otherwise be forwarded to the leader a second time) and shows no <c>demo</c>
 /// feed; the node that takes over goes on from its place in the schedule. On one node it always leads.</para>
+/// <para>On a node that leads, playing starts only once the engine has restored its state and the clock has passed
+/// everything that state holds (its evaluation time and latest readings, <see cref="WaitForEngineAsync"/>): a demo
+/// restarted on its own data folder starts its accelerated clock again from the real time, and a reading stamped before
+/// what the engine already holds would be refused as older than the latest (docs/reliability.md "Demo on an existing
+/// data folder").</para>
 /// </summary>
 public sealed class DemoSimulator(
     IOptions<DemoOptions> options,
@@ -24,7 +29,8 @@ public sealed class DemoSimulator(
     FeedHealthRegistry health,
     TimeProvider clock,
     ILogger<DemoSimulator> logger,
-    OpsLvp.Web.Cluster.ILeadership? leadership = null) : BackgroundService
+    OpsLvp.Web.Cluster.ILeadership? leadership = null,
+    OpsLvp.Web.Engine.IEngineStateView? engine = null) : BackgroundService
 {
     private long _skipped;
     private bool _registered;
@@ -58,6 +64,7 @@ public sealed class DemoSimulator(
             return;
         }
 
+        await WaitForEngineAsync(stoppingToken);
         var origin = clock.GetUtcNow();
         if (scenario.Rejections.Count > 0 && Leading())
         {
@@ -142,6 +149,35 @@ public sealed class DemoSimulator(
             }
         }
     }
+
+    /// <summary>
+    /// On a node that leads, until its engine has restored a state and the clock is past that state's evaluation time
+    /// and latest readings. After a clock regression the engine's first evaluation rebases its state at the clock's
+    /// now (docs/reliability.md "Clock regression"), which ends the wait at once; without one the wait is at most the
+    /// few seconds of tolerance. A node that does not lead (it plays nothing) and a simulator without an engine do not wait.
+    /// </summary>
+    private async Task WaitForEngineAsync(CancellationToken stoppingToken)
+    {
+        if (engine is null)
+        {
+            return;
+        }
+        var poll = TimeSpan.FromMilliseconds(50) * demoMode.Speed; // 50 ms of real time on the accelerated clock
+        var logged = false;
+        while (Leading() && !EngineBehindClock(engine.State, clock.GetUtcNow()))
+        {
+            if (!logged)
+            {
+                logger.LogInformation("Demo simulator: waiting for the engine to restore its state and for the clock to pass it before playing");
+                logged = true;
+            }
+            await Task.Delay(poll, clock, stoppingToken);
+        }
+    }
+
+    /// <summary>True when <paramref name="state"/> is restored and nothing in it is later than <paramref name="now"/>.</summary>
+    internal static bool EngineBehindClock(OpsLvp.Core.Engine.EngineState? state, DateTimeOffset now) =>
+        state is not null && state.EvaluatedAt <= now && state.Latest.Values.All(r => r.Time <= now);
 
     private async Task WaitUntilAsync(DateTimeOffset due, CancellationToken stoppingToken)
     {

@@ -43,7 +43,7 @@ public sealed class DemoSimulatorTests : IDisposable
 
     public void Dispose() => Directory.Delete(_folder, recursive: true);
 
-    private DemoSimulator Simulator(TimeProvider clock, FeedHealthRegistry health, bool demo = true, string scenario = "night.csv", OpsLvp.Web.Cluster.ILeadership? leadership = null) => new(
+    private DemoSimulator Simulator(TimeProvider clock, FeedHealthRegistry health, bool demo = true, string scenario = "night.csv", OpsLvp.Web.Cluster.ILeadership? leadership = null, OpsLvp.Web.Engine.IEngineStateView? engine = null) => new(
         Options.Create(new DemoOptions { ScenarioPath = scenario, ActionsPath = "night.actions.csv", LoopGap = TimeSpan.FromMinutes(1) }),
         new DemoMode(demo, 30),
         new ContentPaths(_folder),
@@ -52,7 +52,8 @@ public sealed class DemoSimulatorTests : IDisposable
         health,
         clock,
         NullLogger<DemoSimulator>.Instance,
-        leadership);
+        leadership,
+        engine);
 
     private async Task<ReadingBatch> NextAsync()
     {
@@ -120,7 +121,7 @@ public sealed class DemoSimulatorTests : IDisposable
         // docs/deployment.md "The demo in the ha profile": a standby submits nothing (readings, rejections, actions) and shows no demo feed
         var health = new FeedHealthRegistry(_fake);
         var leadership = new OpsLvp.Web.Tests.Cluster.SwitchableLeadership("node-b", leader: false, epoch: 1);
-        using var simulator = Simulator(_fake, health, leadership: leadership);
+        using var simulator = Simulator(_fake, health, leadership: leadership, engine: new EngineStateView()); // a standby runs no engine: no state, no wait
         await simulator.StartAsync(CancellationToken.None);
         await Infrastructure.Eventually.TrueAsync(() => simulator.SkippedGroups == 1, "the rows at 00:00 skipped");
         _fake.Advance(TimeSpan.FromMinutes(1));
@@ -142,6 +143,77 @@ public sealed class DemoSimulatorTests : IDisposable
         _fake.Advance(TimeSpan.FromMinutes(1));
         await Infrastructure.Eventually.TrueAsync(() => simulator.SkippedGroups == 3, "the next loop's first rows skipped");
         Assert.False(_pipeline.TryRead(out _));
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    private sealed class EngineStateView : OpsLvp.Web.Engine.IEngineStateView
+    {
+        public OpsLvp.Core.Engine.EngineState? State { get; set; }
+    }
+
+    /// <summary>The fake clock moved on in steps of the simulator's poll (50 ms of real time at x30) until a batch comes, or null after <paramref name="steps"/> steps.</summary>
+    private async Task<ReadingBatch?> AdvanceUntilBatchAsync(int steps)
+    {
+        for (var i = 0; i < steps; i++)
+        {
+            await Task.Delay(20);
+            if (_pipeline.TryRead(out var batch))
+            {
+                return batch;
+            }
+            _fake.Advance(TimeSpan.FromSeconds(1.5));
+        }
+        return null;
+    }
+
+    [Fact]
+    public async Task OnALeadingNode_PlaysOnlyOnceTheEngineIsRestored_AndTheClockHasPassedWhatItHolds()
+    {
+        // docs/reliability.md "Demo on an existing data folder": a demo restarted on its own folder starts its clock
+        // again from the real time; a reading stamped before what the restored engine holds would be refused as older
+        // than the latest, so nothing is played before the engine has restored and the clock is past its state
+        var engine = new EngineStateView();
+        using var simulator = Simulator(_fake, new FeedHealthRegistry(_fake), engine: engine);
+        await simulator.StartAsync(CancellationToken.None);
+        Assert.Null(await AdvanceUntilBatchAsync(10)); // not restored yet
+
+        // restored with its evaluation time and a latest reading 6 s ahead of the clock (inside the engine's tolerance,
+        // so no clock regression rebases it): nothing is played until the clock has passed both
+        var restoredAt = _fake.GetUtcNow().AddSeconds(6);
+        var latest = new Reading(restoredAt, "T1", ReadingKind.Rvr, 1200);
+        engine.State = new OpsLvp.Core.Engine.EngineState
+        {
+            EvaluatedAt = restoredAt.AddSeconds(-1),
+            PhaseSince = restoredAt.AddHours(-1),
+            Latest = System.Collections.Immutable.ImmutableDictionary<string, Reading>.Empty.Add(OpsLvp.Core.Engine.EngineState.SensorKey("T1", ReadingKind.Rvr), latest),
+        };
+        Assert.Null(await AdvanceUntilBatchAsync(2)); // 3 s of the 6
+        var rejected = await AdvanceUntilBatchAsync(40);
+        Assert.NotNull(rejected);
+        Assert.Empty(rejected.Readings);
+        var first = await NextAsync();
+        Assert.All(first.Readings, r => Assert.True(r.Time >= restoredAt, $"{r.SensorId} stamped {r.Time:o}, before the engine's latest reading at {restoredAt:o}"));
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    [Fact]
+    public async Task AfterAClockRegression_TheEnginesRebasedState_LetsItPlayAtOnce()
+    {
+        // the engine's first evaluation found its restored time minutes ahead and rebased at the clock's now
+        // (docs/reliability.md "Clock regression"): the simulator does not wait for the clock to reach the old time
+        var engine = new EngineStateView();
+        using var simulator = Simulator(_fake, new FeedHealthRegistry(_fake), engine: engine);
+        var ahead = _fake.GetUtcNow().AddMinutes(10);
+        engine.State = new OpsLvp.Core.Engine.EngineState { EvaluatedAt = ahead, PhaseSince = ahead };
+        await simulator.StartAsync(CancellationToken.None);
+        Assert.Null(await AdvanceUntilBatchAsync(10));
+
+        var now = _fake.GetUtcNow();
+        engine.State = engine.State with { EvaluatedAt = now, MonitoringSince = now };
+        var rejected = await AdvanceUntilBatchAsync(5);
+        Assert.NotNull(rejected);
+        var first = await NextAsync();
+        Assert.InRange(first.Readings[0].Time, now, now.AddSeconds(10));
         await simulator.StopAsync(CancellationToken.None);
     }
 
