@@ -72,6 +72,8 @@ public sealed class NotRecordingBrowserTests(ITestOutputHelper output)
         Assert.All(figures.EnumerateArray(), f => Assert.Equal("grayscale(1)", f.GetString()));
         // the phase is the last recorded one: drained of its colour, and the note beside it says so
         Assert.Equal("grayscale(1)", (await StyleAsync(wall, "[data-testid=wall-phase]")).GetProperty("filter").GetString());
+        // and so is the team page's phase chip (the console's has the same rule, opslvp.css)
+        Assert.Equal("grayscale(1)", (await StyleAsync(tablet, "[data-testid=actions-phase]")).GetProperty("filter").GetString());
         // the note is the wall component's, the banner the layout's: two renders, so the note gets its own (generous) wait
         await Expect(wall.Locator("[data-testid=wall-phase-note]").First).ToContainTextAsync("phase as last recorded before", new() { Timeout = 30_000 });
 
@@ -103,6 +105,7 @@ public sealed class NotRecordingBrowserTests(ITestOutputHelper output)
         output.WriteLine($"recording again: {back}");
         Assert.Equal(recording.GetProperty("color").GetString(), back.GetProperty("color").GetString());
         Assert.Equal("none", (await StyleAsync(wall, "[data-testid=wall-phase]")).GetProperty("filter").GetString());
+        Assert.Equal("none", (await StyleAsync(tablet, "[data-testid=actions-phase]")).GetProperty("filter").GetString());
         await Expect(wall.Locator("[data-testid=wall-phase-note]")).ToHaveCountAsync(0, new() { Timeout = 30_000 });
         Assert.Equal("none", back.GetProperty("filter").GetString());
         browser.AssertNoCspViolationOrUncaughtError();
