@@ -68,9 +68,23 @@ public sealed class AccessibilityBrowserTests(ITestOutputHelper output)
         var problems = new List<string>();
         // Judge the page as it is when live: under NO LIVE DATA its values are greyed on purpose.
         await Expect(page.Locator("html")).Not.ToHaveClassAsync(new System.Text.RegularExpressions.Regex("opslvp-nolive"), new() { Timeout = 20_000 });
-        // ... and once its title is set (the interactive render replaces the head; a loaded CI machine was once read in between).
-        await Expect(page).ToHaveTitleAsync(new System.Text.RegularExpressions.Regex(@"\S"), new() { Timeout = 20_000 });
-        var result = await page.RunAxe();
+        // ... and once its title is set. When the circuit starts, the interactive render replaces the prerendered head:
+        // the head's title is gone until the page's own render supplies it again, and a loaded CI machine was read in
+        // that gap (after the title had been seen). A document-title finding is therefore judged again after the title
+        // is back; a page that has no title, or loses it for good, still fails (the wait below runs out, or the last
+        // attempt keeps the finding).
+        Deque.AxeCore.Commons.AxeResult result;
+        for (var attempt = 1; ; attempt++)
+        {
+            await Expect(page).ToHaveTitleAsync(new System.Text.RegularExpressions.Regex(@"\S"), new() { Timeout = 20_000 });
+            result = await page.RunAxe();
+            if (attempt == 3 || !result.Violations.Any(v => v.Id == "document-title"))
+            {
+                break;
+            }
+            output.WriteLine($"{where}: document-title found on attempt {attempt} while the head was re-rendered; judged again");
+            await Task.Delay(500);
+        }
         foreach (var v in result.Violations.Where(v => v.Impact is "serious" or "critical"))
         {
             problems.Add($"{where}: {v.Impact} {v.Id}: {v.Help} at {string.Join(" | ", v.Nodes.Take(3).Select(n => n.Target?.ToString() + " " + n.Html?[..Math.Min(n.Html.Length, 120)]))}");
