@@ -16,6 +16,10 @@ public static class BenchmarksProgram
         {
             return await OpsLvp.Benchmarks.Live.ProbeProcess.RunChildAsync();
         }
+        if (args.SequenceEqual(OpsLvp.Benchmarks.Live.NodeProcess.RoleArguments))
+        {
+            return await OpsLvp.Benchmarks.Live.NodeProcess.RunChildAsync();
+        }
         BenchOptions options;
         try
         {
