@@ -14,7 +14,8 @@ namespace OpsLvp.Benchmarks.Live;
 /// <remarks>
 /// No orphans: <see cref="DisposeAsync"/> asks <c>quit</c>, closes the child's input and kills the child (by the
 /// handle this object holds) if it has not ended within <see cref="StopLimit"/>; the child is also killed when this
-/// process exits without disposing it (<see cref="AppDomain.ProcessExit"/>: a normal end or SIGTERM), and a child
+/// process exits without disposing it (<see cref="AppDomain.ProcessExit"/>: a normal end, or SIGTERM, SIGINT or SIGHUP,
+/// which <see cref="BenchmarksProgram.Main"/> turns into one), and a child
 /// ends by itself when its input closes (the parent killed: the pipe's write end goes with it).
 /// </remarks>
 internal sealed class ChildProcess : IAsyncDisposable
