@@ -20,6 +20,9 @@ namespace OpsLvp.Benchmarks.Live;
 /// </remarks>
 internal sealed class ChildProcess : IAsyncDisposable
 {
+    /// <summary>How long a request that waits for nothing in particular may take to be answered (loaded machine: generous).</summary>
+    public static readonly TimeSpan AnswerLimit = TimeSpan.FromSeconds(60);
+
     /// <summary>How long a child may take to end after <c>quit</c> before it is killed.</summary>
     private static readonly TimeSpan StopLimit = TimeSpan.FromSeconds(60);
 

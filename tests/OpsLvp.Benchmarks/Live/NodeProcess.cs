@@ -6,7 +6,7 @@ namespace OpsLvp.Benchmarks.Live;
 /// <summary>
 /// <see cref="IPushNode"/> in a process of its own, as a deployment runs each node: this program started again with
 /// <see cref="RoleArguments"/>, which starts one <see cref="LocalNode"/> there (<see cref="RunChildAsync"/>). Each node
-/// then has its own garbage collector, thread pool and Npgsql pool; a stall in one no longer delays the others.
+/// then has its own garbage collector, thread pool and Npgsql pool (all still share the machine's cores).
 /// </summary>
 /// <remarks>
 /// Protocol (<see cref="ChildProcess"/>): <c>start JSON</c> (the <see cref="NodeSpec"/>) → <c>started ADDRESS</c>;
@@ -21,9 +21,6 @@ internal sealed class NodeProcess : IPushNode
     /// <summary>How long starting a node may take (migrations, on a loaded machine: generous).</summary>
     private static readonly TimeSpan StartLimit = TimeSpan.FromMinutes(5);
 
-    /// <summary>How long any other request may take to be answered.</summary>
-    private static readonly TimeSpan AnswerLimit = TimeSpan.FromSeconds(60);
-
     /// <summary>How long the child waits for its node to stop before it ends anyway.</summary>
     private static readonly TimeSpan StopLimit = TimeSpan.FromSeconds(30);
 
@@ -36,9 +33,6 @@ internal sealed class NodeProcess : IPushNode
     }
 
     public Uri BaseAddress { get; }
-
-    /// <summary>The child's process id (for the run's notes).</summary>
-    public int ProcessId => _child.ProcessId;
 
     /// <summary>Starts the node process and its node; returns once the node listens.</summary>
     /// <exception cref="InvalidOperationException">The process or its node did not start.</exception>
@@ -59,14 +53,14 @@ internal sealed class NodeProcess : IPushNode
 
     public async Task<NodeStatus> StatusAsync()
     {
-        var answer = await _child.AskAsync("status", "status", AnswerLimit);
+        var answer = await _child.AskAsync("status", "status", ChildProcess.AnswerLimit);
         return new NodeStatus(answer[1], bool.Parse(answer[2]), bool.Parse(answer[3]));
     }
 
-    public async Task<string> IssuePushKeyAsync() => (await _child.AskAsync("key", "key", AnswerLimit))[1];
+    public async Task<string> IssuePushKeyAsync() => (await _child.AskAsync("key", "key", ChildProcess.AnswerLimit))[1];
 
     public async Task SetBarePayloadAsync(int chars) =>
-        await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"payload\t{chars}"), "payload", AnswerLimit);
+        await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"payload\t{chars}"), "payload", ChildProcess.AnswerLimit);
 
     public ValueTask DisposeAsync() => _child.DisposeAsync();
 

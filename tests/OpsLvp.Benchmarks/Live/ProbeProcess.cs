@@ -27,9 +27,6 @@ internal sealed class ProbeProcess : IProbes
     /// <summary>The arguments that make this program a client process instead of a benchmark run.</summary>
     public static readonly string[] RoleArguments = ["--role", "clients"];
 
-    /// <summary>How long a request other than connect and wait may take to be answered (loaded machine: generous).</summary>
-    private static readonly TimeSpan AnswerLimit = TimeSpan.FromSeconds(60);
-
     /// <summary>How long connecting every client may take (up to 2 500 connections on a loaded machine).</summary>
     private static readonly TimeSpan ConnectLimit = TimeSpan.FromMinutes(10);
 
@@ -50,7 +47,7 @@ internal sealed class ProbeProcess : IProbes
             for (var i = 0; i < 5; i++)
             {
                 var before = Stopwatch.GetTimestamp();
-                var answer = await probes._child.AskAsync("clock", "clock", AnswerLimit);
+                var answer = await probes._child.AskAsync("clock", "clock", ChildProcess.AnswerLimit);
                 var after = Stopwatch.GetTimestamp();
                 var frequency = long.Parse(answer[1], CultureInfo.InvariantCulture);
                 var theirs = long.Parse(answer[2], CultureInfo.InvariantCulture);
@@ -74,19 +71,19 @@ internal sealed class ProbeProcess : IProbes
 
     public async Task<long> ArmAsync(int setup, string? marker)
     {
-        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"arm\t{setup}\t{(marker is null ? "-" : "=" + marker)}"), "armed", AnswerLimit);
+        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"arm\t{setup}\t{(marker is null ? "-" : "=" + marker)}"), "armed", ChildProcess.AnswerLimit);
         return long.Parse(answer[1], CultureInfo.InvariantCulture);
     }
 
     public async Task<long[]> WaitAsync(int setup, TimeSpan timeout)
     {
-        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"wait\t{setup}\t{(long)timeout.TotalMilliseconds}"), "received", timeout + AnswerLimit);
+        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"wait\t{setup}\t{(long)timeout.TotalMilliseconds}"), "received", timeout + ChildProcess.AnswerLimit);
         return answer[1].Length == 0 ? [] : [.. answer[1].Split(',').Select(t => long.Parse(t, CultureInfo.InvariantCulture))];
     }
 
     public async Task<(long Deliveries, int PayloadChars)> CountAsync(int setup)
     {
-        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"count\t{setup}"), "count", AnswerLimit);
+        var answer = await _child.AskAsync(string.Create(CultureInfo.InvariantCulture, $"count\t{setup}"), "count", ChildProcess.AnswerLimit);
         return (long.Parse(answer[1], CultureInfo.InvariantCulture), int.Parse(answer[2], CultureInfo.InvariantCulture));
     }
 
