@@ -2,11 +2,12 @@ namespace OpsLvp.Benchmarks;
 
 /// <summary>
 /// Command line: <c>[--quick] [--only engine,audit,review,push,circuits,pg-audit,anchors,year] [--days N] [--out FOLDER] [--data-dir FOLDER]
-/// [--rounds N] [--counts N,N,…] [--clients-in-process]</c>.
+/// [--rounds N] [--counts N,N,…] [--clients-in-process] [--nodes-in-process]</c>.
 /// The <c>year</c> suite (a database filled with <see cref="Days"/> days of readings, issue 16) and <c>push-ha</c> (push
 /// latency through two nodes and Redis, issue 16; needs PostgreSQL and redis-server) and <c>inbox</c> (the reading
-/// inbox's throughput through two nodes, issue 16; needs PostgreSQL) run only when named. The last three options are
-/// push-ha's. (<c>--role clients</c> alone makes the program push-ha's client process, see <c>Live/ProbeProcess.cs</c>.)
+/// inbox's throughput through two nodes, issue 16; needs PostgreSQL) run only when named. The last four options are
+/// push-ha's. (<c>--role clients</c> alone makes the program push-ha's client process, see <c>Live/ProbeProcess.cs</c>;
+/// <c>--role node</c> alone one of its server nodes, see <c>Live/NodeProcess.cs</c>.)
 /// </summary>
 public sealed record BenchOptions
 {
@@ -35,13 +36,17 @@ public sealed record BenchOptions
     /// <summary>push-ha: the hub clients in the servers' process, as before 2026-12-03, instead of a process of their own.</summary>
     public bool ClientsInProcess { get; init; }
 
+    /// <summary>push-ha: every server node in the benchmark's own process, as before 2026-12-03 10:00 UTC, instead of each in a process of its own.</summary>
+    public bool NodesInProcess { get; init; }
+
     public bool Runs(string suite) => Only.Contains(suite);
 
     /// <summary>The push-ha options as given on the command line (empty when none), for the command a result names.</summary>
     public string PushHaArguments() =>
         (Rounds is { } rounds ? $" --rounds {rounds}" : "")
         + (ClientCounts is { } counts ? $" --counts {string.Join(',', counts)}" : "")
-        + (ClientsInProcess ? " --clients-in-process" : "");
+        + (ClientsInProcess ? " --clients-in-process" : "")
+        + (NodesInProcess ? " --nodes-in-process" : "");
 
     /// <summary>Parses the arguments; unknown ones give a message naming them.</summary>
     /// <exception cref="ArgumentException">An unknown option or suite, or an option missing its value.</exception>
@@ -90,11 +95,14 @@ public sealed record BenchOptions
                 case "--clients-in-process":
                     options = options with { ClientsInProcess = true };
                     break;
+                case "--nodes-in-process":
+                    options = options with { NodesInProcess = true };
+                    break;
                 case "--data-dir":
                     options = options with { DataDir = Path.GetFullPath(Value()) };
                     break;
                 default:
-                    throw new ArgumentException($"unknown argument '{args[i]}' (use --quick, --only {string.Join(",", Suites)}, --days N, --out FOLDER, --data-dir FOLDER, --rounds N, --counts N,N, --clients-in-process)");
+                    throw new ArgumentException($"unknown argument '{args[i]}' (use --quick, --only {string.Join(",", Suites)}, --days N, --out FOLDER, --data-dir FOLDER, --rounds N, --counts N,N, --clients-in-process, --nodes-in-process)");
             }
         }
         return options;

@@ -1,5 +1,6 @@
 using System.Diagnostics;
 using System.Globalization;
+using System.Runtime.InteropServices;
 using BenchmarkDotNet.Running;
 using OpsLvp.Benchmarks.Audit;
 using OpsLvp.Benchmarks.Engine;
@@ -12,9 +13,19 @@ public static class BenchmarksProgram
 {
     public static async Task<int> Main(string[] args)
     {
+        // Since .NET 10 a termination signal ends the process at once, without AppDomain.ProcessExit
+        // (learn.microsoft.com, "core-libraries/10.0/sigterm-signal-handler"): make it a normal exit, so what the run
+        // started (the throwaway PostgreSQL cluster, redis-server, push-ha's child processes) is stopped at ProcessExit.
+        using var term = PosixSignalRegistration.Create(PosixSignal.SIGTERM, _ => Environment.Exit(143));
+        using var interrupt = PosixSignalRegistration.Create(PosixSignal.SIGINT, _ => Environment.Exit(130));
+        using var hangUp = PosixSignalRegistration.Create(PosixSignal.SIGHUP, _ => Environment.Exit(129));
         if (args.SequenceEqual(OpsLvp.Benchmarks.Live.ProbeProcess.RoleArguments))
         {
             return await OpsLvp.Benchmarks.Live.ProbeProcess.RunChildAsync();
+        }
+        if (args.SequenceEqual(OpsLvp.Benchmarks.Live.NodeProcess.RoleArguments))
+        {
+            return await OpsLvp.Benchmarks.Live.NodeProcess.RunChildAsync();
         }
         BenchOptions options;
         try

@@ -10,15 +10,20 @@ namespace OpsLvp.Benchmarks.Live;
 /// </summary>
 internal static class HarnessSupport
 {
-    /// <summary>How long <see cref="WaitAsync"/> waits before giving up: generous, the machine may be loaded.</summary>
+    /// <summary>How long <c>WaitAsync</c> waits before giving up: generous, the machine may be loaded.</summary>
     public static readonly TimeSpan WaitLimit = TimeSpan.FromMinutes(2);
 
     /// <summary>Polls <paramref name="condition"/> every 100 ms until it holds.</summary>
     /// <exception cref="TimeoutException">Not held within <see cref="WaitLimit"/>; the message names the suite and <paramref name="what"/>.</exception>
-    public static async Task WaitAsync(string suite, Func<bool> condition, string what)
+    public static Task WaitAsync(string suite, Func<bool> condition, string what) =>
+        WaitAsync(suite, () => Task.FromResult(condition()), what);
+
+    /// <summary>Polls <paramref name="condition"/> (asked of another process, say) every 100 ms until it holds.</summary>
+    /// <exception cref="TimeoutException">Not held within <see cref="WaitLimit"/>; the message names the suite and <paramref name="what"/>.</exception>
+    public static async Task WaitAsync(string suite, Func<Task<bool>> condition, string what)
     {
         var clock = Stopwatch.StartNew();
-        while (!condition())
+        while (!await condition())
         {
             if (clock.Elapsed > WaitLimit)
             {

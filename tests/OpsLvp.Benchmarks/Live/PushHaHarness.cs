@@ -1,13 +1,11 @@
 using System.Globalization;
 using System.Net.Http.Json;
 using Microsoft.Data.Sqlite;
-using Microsoft.Extensions.DependencyInjection;
 using Npgsql;
 using OpsLvp.Benchmarks.Reporting;
 using OpsLvp.Benchmarks.Services;
 using OpsLvp.Web.Access;
 using OpsLvp.Web.Cluster;
-using OpsLvp.Web.Engine;
 
 namespace OpsLvp.Benchmarks.Live;
 
@@ -21,9 +19,10 @@ namespace OpsLvp.Benchmarks.Live;
 /// prefix) with the clients split half and half between leader and standby. All configurations stay connected and
 /// are measured round by round in rotation (<see cref="PushLatencyHarness.MeasureInterleavedAsync"/>), so load that
 /// drifts during the run hits them alike. On loopback: a throwaway PostgreSQL cluster (<see cref="BenchPostgres"/>), a
-/// throwaway redis-server (<see cref="BenchRedis"/>), the nodes on in-process Kestrel (<see cref="BenchServer"/>), and
-/// the measuring hub clients in a process of their own (<see cref="ProbeProcess"/>; in this one with
-/// <c>--clients-in-process</c>).
+/// throwaway redis-server (<see cref="BenchRedis"/>), each node on Kestrel in a process of its own as a deployment has
+/// it (<see cref="NodeProcess"/>; all in this one with <c>--nodes-in-process</c>), and the measuring hub clients in a
+/// process of their own too (<see cref="ProbeProcess"/>; in this one with <c>--clients-in-process</c>). This process
+/// starts PostgreSQL and Redis, posts the readings (t0 taken here), runs the rotation and writes the report.
 /// </summary>
 public static class PushHaHarness
 {
@@ -39,17 +38,25 @@ public static class PushHaHarness
     private const string Suite = "push-ha";
 
     /// <summary>
-    /// Npgsql pool size per connection string. Five nodes share this process (three connection strings) and the
-    /// throwaway cluster allows 100 connections; at Npgsql's default of 100 per pool, 500 hub connections
-    /// authenticating at once ran the server out of connections ("53300: sorry, too many clients already").
+    /// Npgsql pool size per connection string with <c>--nodes-in-process</c>: five nodes share this process (three
+    /// connection strings, so a pair shares one pool) and the throwaway cluster allows 100 connections; at Npgsql's
+    /// default of 100 per pool, 500 hub connections authenticating at once ran the server out of connections
+    /// ("53300: sorry, too many clients already").
     /// </summary>
-    private const int PoolSize = 25;
+    private const int SharedPoolSize = 25;
+
+    /// <summary>
+    /// Npgsql pool size of each node in a process of its own (each its own pool): five nodes on PostgreSQL, each with
+    /// up to this many pooled connections and two unpooled sessions (leadership, inbox LISTEN: <c>DedicatedSession</c>),
+    /// 5 × (16 + 2) = 90 of the cluster's 100 (3 of them reserved for superusers, PostgreSQL's default).
+    /// </summary>
+    private const int NodePoolSize = 16;
 
     /// <summary>Issue 16's benchmark target: two-node p99 ≤ one-node p99 (PostgreSQL, the two nodes' database) + this, in ms.</summary>
     public const double TargetSlackMs = 2;
 
-    private static string Pooled(string connectionString) =>
-        new NpgsqlConnectionStringBuilder(connectionString) { MaxPoolSize = PoolSize }.ConnectionString;
+    private static string Pooled(string connectionString, int poolSize) =>
+        new NpgsqlConnectionStringBuilder(connectionString) { MaxPoolSize = poolSize }.ConnectionString;
 
     public static async Task RunAsync(BenchOptions options, ResultsBook book, string command)
     {
@@ -57,6 +64,8 @@ public static class PushHaHarness
         var counts = options.ClientCounts ?? defaultCounts;
         var rounds = options.Rounds ?? (options.Quick ? 5 : 60);
         var host = options.ClientsInProcess ? ClientHost.InProcess : ClientHost.OwnProcess;
+        Func<NodeSpec, Task<IPushNode>> start = options.NodesInProcess ? LocalNode.StartAsync : NodeProcess.StartAsync;
+        var poolSize = options.NodesInProcess ? SharedPoolSize : NodePoolSize;
         const string section = "Live push latency through two nodes and Redis (reading posted to the leader → state received, per client)";
         if (BenchPostgres.FindBin() is null || BenchRedis.Find() is null)
         {
@@ -71,31 +80,28 @@ public static class PushHaHarness
         Directory.CreateDirectory(shared);
         try
         {
-            await using var sqlite = BenchServer.Start(new Dictionary<string, string?> { [RateSetting] = Rate });
-            await using var pgOne = BenchServer.Start(PostgresSettings(Pooled(BenchPostgres.Shared.CreateDatabase()), shared, "pg-single", null));
-            var database = Pooled(BenchPostgres.Shared.CreateDatabase());
-            await using var first = BenchServer.Start(PostgresSettings(database, shared, "node-a", redis.Configuration));
-            await using var second = BenchServer.Start(PostgresSettings(database, shared, "node-b", redis.Configuration));
+            Progress(options.NodesInProcess ? "starting the nodes in this process" : "starting the nodes, each in a process of its own");
+            await using var sqlite = await start(new("sqlite", new() { [RateSetting] = Rate }));
+            await using var pgOne = await start(new("pg-single", PostgresSettings(Pooled(BenchPostgres.Shared.CreateDatabase(), poolSize), shared, "pg-single", null)));
+            var database = Pooled(BenchPostgres.Shared.CreateDatabase(), poolSize);
+            await using var first = await start(new("node-a", PostgresSettings(database, shared, "node-a", redis.Configuration)));
+            await using var second = await start(new("node-b", PostgresSettings(database, shared, "node-b", redis.Configuration)));
             // the split layout on a second pair, so both layouts stay connected and are measured in turn
-            var splitDatabase = Pooled(BenchPostgres.Shared.CreateDatabase());
-            await using var third = BenchServer.Start(PostgresSettings(splitDatabase, shared, "node-c", redis.Configuration, "opslvp-split"));
-            await using var fourth = BenchServer.Start(PostgresSettings(splitDatabase, shared, "node-d", redis.Configuration, "opslvp-split"));
-            await using var bare = await BareServer.StartAsync();
+            var splitDatabase = Pooled(BenchPostgres.Shared.CreateDatabase(), poolSize);
+            await using var third = await start(new("node-c", PostgresSettings(splitDatabase, shared, "node-c", redis.Configuration, "opslvp-split")));
+            await using var fourth = await start(new("node-d", PostgresSettings(splitDatabase, shared, "node-d", redis.Configuration, "opslvp-split")));
+            await using var bare = await start(new("bare", null));
 
-            await WaitAsync(() => pgOne.Services.GetRequiredService<ILeadership>().IsLeader && pgOne.Services.GetRequiredService<LiveEngineHost>().State is not null,
-                "the one PostgreSQL node to lead and restore");
-            await WaitAsync(() => first.Services.GetRequiredService<ILeadership>().IsLeader != second.Services.GetRequiredService<ILeadership>().IsLeader,
-                "exactly one of the two nodes to lead");
-            await WaitAsync(() => third.Services.GetRequiredService<ILeadership>().IsLeader != fourth.Services.GetRequiredService<ILeadership>().IsLeader,
-                "exactly one of the split pair to lead");
-            var (leader, standby) = first.Services.GetRequiredService<ILeadership>().IsLeader ? (first, second) : (second, first);
-            var (splitLeader, splitStandby) = third.Services.GetRequiredService<ILeadership>().IsLeader ? (third, fourth) : (fourth, third);
-            await WaitAsync(() => leader.Services.GetRequiredService<LiveEngineHost>().State is not null
-                && splitLeader.Services.GetRequiredService<LiveEngineHost>().State is not null, "the leaders to restore their engines");
-            var leaderName = leader.Services.GetRequiredService<ILeadership>().NodeId;
-            var standbyName = standby.Services.GetRequiredService<ILeadership>().NodeId;
-            var splitLeaderName = splitLeader.Services.GetRequiredService<ILeadership>().NodeId;
-            var splitStandbyName = splitStandby.Services.GetRequiredService<ILeadership>().NodeId;
+            await WaitAsync(async () => await pgOne.StatusAsync() is { IsLeader: true, EngineRestored: true }, "the one PostgreSQL node to lead and restore");
+            await WaitAsync(async () => (await first.StatusAsync()).IsLeader != (await second.StatusAsync()).IsLeader, "exactly one of the two nodes to lead");
+            await WaitAsync(async () => (await third.StatusAsync()).IsLeader != (await fourth.StatusAsync()).IsLeader, "exactly one of the split pair to lead");
+            var (leader, standby) = (await first.StatusAsync()).IsLeader ? (first, second) : (second, first);
+            var (splitLeader, splitStandby) = (await third.StatusAsync()).IsLeader ? (third, fourth) : (fourth, third);
+            await WaitAsync(async () => (await leader.StatusAsync()).EngineRestored && (await splitLeader.StatusAsync()).EngineRestored, "the leaders to restore their engines");
+            var leaderName = (await leader.StatusAsync()).NodeId;
+            var standbyName = (await standby.StatusAsync()).NodeId;
+            var splitLeaderName = (await splitLeader.StatusAsync()).NodeId;
+            var splitStandbyName = (await splitStandby.StatusAsync()).NodeId;
 
             var sqliteKey = await sqlite.IssuePushKeyAsync();
             var pgKey = await pgOne.IssuePushKeyAsync();
@@ -103,7 +109,7 @@ public static class PushHaHarness
             var splitKey = await splitLeader.IssuePushKeyAsync();
             using var http = new HttpClient { Timeout = TimeSpan.FromSeconds(20) };
             var value = 1500;
-            Func<Task> PostTo(BenchServer target, string key) => async () =>
+            Func<Task> PostTo(IPushNode target, string key) => async () =>
             {
                 value = PushLatencyHarness.NextValue(value);
                 var body = new { readings = new[] { new { time = TimeProvider.System.GetUtcNow().ToString("O", CultureInfo.InvariantCulture), sensor = PushLatencyHarness.Sensor, kind = "rvr", value, status = "ok" } } };
@@ -113,7 +119,7 @@ public static class PushHaHarness
                 response.EnsureSuccessStatusCode();
             };
             string? Marker() => string.Create(CultureInfo.InvariantCulture, $":{PushLatencyHarness.NextValue(value)}");
-            static List<(string, Uri)> On(int n, params (string Group, BenchServer Server)[] nodes) =>
+            static List<(string, Uri)> On(int n, params (string Group, IPushNode Server)[] nodes) =>
                 Enumerable.Range(0, n).Select(i => (nodes[i % nodes.Length].Group, new Uri(nodes[i % nodes.Length].Server.BaseAddress, "/hubs/lvp"))).ToList();
             var bareHubs = Enumerable.Range(0, counts.Max()).Select(_ => ("bare", new Uri(bare.BaseAddress, "/hubs/bare"))).ToList();
 
@@ -124,7 +130,7 @@ public static class PushHaHarness
             foreach (var n in counts)
             {
                 Progress($"{n} clients");
-                BareServer.PayloadChars = payloadChars > 0 ? payloadChars : 4096;
+                await bare.SetBarePayloadAsync(payloadChars > 0 ? payloadChars : 4096);
                 List<PushLatencyHarness.Setup> setups =
                 [
                     new("bare", bareHubs.Take(n).ToList(), null, () => null, async () =>
@@ -172,8 +178,13 @@ public static class PushHaHarness
                 duplicates.Add(string.Create(CultureInfo.InvariantCulture,
                     $"{n} clients: one node SQLite {one.DeliveriesPerRound:0.00}, PostgreSQL {pg.DeliveriesPerRound:0.00}, all on standby {allOnStandby.DeliveriesPerRound:0.00}{(split is null ? "" : $", split {split.DeliveriesPerRound:0.00}")}"));
             }
+            var nodesWhere = options.NodesInProcess ? "all nodes in the benchmark's process (--nodes-in-process)"
+                : "each node (bare hub, one node SQLite, one node PostgreSQL, node-a to node-d) in a process of its own (--role node)";
+            var clientsWhere = host == ClientHost.OwnProcess
+                ? "the hub clients in a process of their own (--role clients; latency from one clock: Stopwatch timestamps, CLOCK_MONOTONIC, checked at its start)"
+                : "the hub clients in the benchmark's process (--clients-in-process)";
             book.Note(string.Create(CultureInfo.InvariantCulture,
-                $"push-ha: {rounds} rounds per client count and configuration, the configurations in turn (order rotated each round), 150 ms apart, all connected at once; state payload up to {payloadChars} characters; all on the standby: leader {leaderName}, standby {standbyName}; split: leader {splitLeaderName}, standby {splitStandbyName} (second pair, Redis prefix opslvp-split); Live:MaxStatesPerSecond={Rate} on every node; Npgsql pool {PoolSize} per database; one PostgreSQL cluster (max_connections 100) and one redis-server on loopback, all nodes in one process, {(host == ClientHost.OwnProcess ? "the hub clients in a second process (latency from one clock: Stopwatch timestamps, CLOCK_MONOTONIC, checked at its start)" : "the hub clients in the same process")}."));
+                $"push-ha: {rounds} rounds per client count and configuration, the configurations in turn (order rotated each round), 150 ms apart, all connected at once; state payload up to {payloadChars} characters; all on the standby: leader {leaderName}, standby {standbyName}; split: leader {splitLeaderName}, standby {splitStandbyName} (second pair, Redis prefix opslvp-split); Live:MaxStatesPerSecond={Rate} on every node; Npgsql pool {poolSize} per {(options.NodesInProcess ? "database" : "node")}; one PostgreSQL cluster (max_connections 100) and one redis-server on loopback, {nodesWhere}, {clientsWhere}; the benchmark's process posts the readings and takes t0."));
             book.Note("push-ha: the POST's own time, sent → answered, p50 / p99 ms (a reading's 202 comes after its evaluation is committed and published, docs/feeds.md; the bare hub's after its broadcast is issued): " + string.Join("; ", answers) + ".");
             book.Note("push-ha: state messages of the awaited snapshot version received per client per round (1.00 = each snapshot once): " + string.Join("; ", duplicates) + ".");
         }
@@ -190,7 +201,7 @@ public static class PushHaHarness
         HarnessSupport.PostgresNode(connectionString, shared, node, redis is null ? node + "-anchor-key.pem" : (redisPrefix ?? "opslvp") + "-anchor-key.pem",
             redis, redisPrefix, new Dictionary<string, string?> { [RateSetting] = Rate });
 
-    private static Task WaitAsync(Func<bool> condition, string what) => HarnessSupport.WaitAsync(Suite, condition, what);
+    private static Task WaitAsync(Func<Task<bool>> condition, string what) => HarnessSupport.WaitAsync(Suite, condition, what);
 
     private static void Progress(string what) => HarnessSupport.Progress(Suite, what);
 

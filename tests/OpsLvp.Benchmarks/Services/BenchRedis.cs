@@ -8,16 +8,20 @@ namespace OpsLvp.Benchmarks.Services;
 
 /// <summary>
 /// A throwaway <c>redis-server</c> for a benchmark run, the same recipe as the tests' <c>RedisServerProcess</c>
-/// (not referenced so xunit stays out): a free port of 127.0.0.1, no persistence, killed when disposed.
+/// (not referenced so xunit stays out): a free port of 127.0.0.1, no persistence, killed when disposed or, not
+/// disposed, when this process exits.
 /// </summary>
 public sealed class BenchRedis : IDisposable
 {
     private readonly Process _process;
+    private readonly EventHandler _killAtExit;
 
     private BenchRedis(Process process, int port)
     {
         _process = process;
         Port = port;
+        _killAtExit = (_, _) => Kill();
+        AppDomain.CurrentDomain.ProcessExit += _killAtExit;
     }
 
     public int Port { get; }
@@ -95,6 +99,13 @@ public sealed class BenchRedis : IDisposable
 
     public void Dispose()
     {
+        AppDomain.CurrentDomain.ProcessExit -= _killAtExit;
+        Kill();
+        _process.Dispose();
+    }
+
+    private void Kill()
+    {
         try
         {
             if (!_process.HasExited)
@@ -106,6 +117,5 @@ public sealed class BenchRedis : IDisposable
         catch (InvalidOperationException)
         {
         }
-        _process.Dispose();
     }
 }
