@@ -6,4 +6,7 @@ namespace OpsLvp.Web.Engine;
 public interface IEngineStateView
 {
     EngineState? State { get; }
+
+    /// <summary>False when this node's engine will not evaluate (<c>Engine:Enabled=false</c>, or stopped on a state mismatch): no state will come.</summary>
+    bool WillEvaluate { get; }
 }

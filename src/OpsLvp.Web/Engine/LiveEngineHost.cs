@@ -71,6 +71,8 @@ public sealed class LiveEngineHost(
     /// <summary>The current (committed) state; null before start.</summary>
     public EngineState? State => _evaluator?.State;
 
+    public bool WillEvaluate => options.Value.Enabled && _stopped is null;
+
     public EngineHealth Health => new(
         _evaluator is not null,
         _evaluator?.LastEvaluationAt,

@@ -154,7 +154,8 @@ public sealed class DemoSimulator(
     /// On a node that leads, until its engine has restored a state and the clock is past that state's evaluation time
     /// and latest readings. After a clock regression the engine's first evaluation rebases its state at the clock's
     /// now (docs/reliability.md "Clock regression"), which ends the wait at once; without one the wait is at most the
-    /// few seconds of tolerance. A node that does not lead (it plays nothing) and a simulator without an engine do not wait.
+    /// few seconds of tolerance. A node that does not lead (it plays nothing), a node whose engine will not evaluate
+    /// (disabled, or stopped) and a simulator without an engine do not wait.
     /// </summary>
     private async Task WaitForEngineAsync(CancellationToken stoppingToken)
     {
@@ -164,7 +165,7 @@ public sealed class DemoSimulator(
         }
         var poll = TimeSpan.FromMilliseconds(50) * demoMode.Speed; // 50 ms of real time on the accelerated clock
         var logged = false;
-        while (Leading() && !EngineBehindClock(engine.State, clock.GetUtcNow()))
+        while (Leading() && engine.WillEvaluate && !EngineBehindClock(engine.State, clock.GetUtcNow()))
         {
             if (!logged)
             {

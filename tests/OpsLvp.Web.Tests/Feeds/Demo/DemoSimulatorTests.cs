@@ -149,6 +149,8 @@ public sealed class DemoSimulatorTests : IDisposable
     private sealed class EngineStateView : OpsLvp.Web.Engine.IEngineStateView
     {
         public OpsLvp.Core.Engine.EngineState? State { get; set; }
+
+        public bool WillEvaluate { get; set; } = true;
     }
 
     /// <summary>The fake clock moved on in steps of the simulator's poll (50 ms of real time at x30) until a batch comes, or null after <paramref name="steps"/> steps.</summary>
@@ -214,6 +216,17 @@ public sealed class DemoSimulatorTests : IDisposable
         Assert.NotNull(rejected);
         var first = await NextAsync();
         Assert.InRange(first.Readings[0].Time, now, now.AddSeconds(10));
+        await simulator.StopAsync(CancellationToken.None);
+    }
+
+    [Fact]
+    public async Task WithAnEngineThatWillNotEvaluate_PlaysWithoutWaiting()
+    {
+        // Engine:Enabled=false, or an engine stopped on a state mismatch: no state will come, so there is nothing to wait for
+        using var simulator = Simulator(_fake, new FeedHealthRegistry(_fake), engine: new EngineStateView { WillEvaluate = false });
+        await simulator.StartAsync(CancellationToken.None);
+        Assert.Empty((await NextAsync()).Readings); // the scenario's rejected row
+        Assert.Equal(s_start, (await NextAsync()).Readings[0].Time);
         await simulator.StopAsync(CancellationToken.None);
     }
 
