@@ -19,6 +19,14 @@ public sealed class NotRecordingScreensBrowserTests(ITestOutputHelper output)
 {
     private const string Banner = "[data-testid=not-recording]";
 
+    /// <summary>The safety line (README, and the project's rule that the UI says it): on every page, whole and in view.</summary>
+    private const string Safety = "[data-testid=safety-line]";
+
+    /// <summary>The wall's safety line without the signed-in name beside it (small on purpose: it is not read across the room).</summary>
+    private const string WallSafety = "[data-testid=safety-line] .opslvp-wall-safety-text";
+
+    private const string SafetyWords = "does not replace|Demo thresholds are illustrative";
+
     [BrowserRootFact]
     public async Task NotRecordingWithOpenItems_EveryScreenAtEverySize_SaysThePhaseIsTheLastRecorded_AndOffersNoTickThatWouldBeLost()
     {
@@ -68,15 +76,20 @@ public sealed class NotRecordingScreensBrowserTests(ITestOutputHelper output)
             var touch = size.Width <= 1024;
             await ScreenMeasure.ShowAtAsync(wall, size, $"not-recording-wall-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(wall, $"wall page at {size.Name}", "[data-testid=wall-phase]",
-                [("[data-testid=wall-phase-note]", note), (Banner, "NOT RECORDING since")], wall: size.Name == "wall", touch, ["[data-testid=wall-phase-note]", Banner]));
+                [("[data-testid=wall-phase-note]", note), (Banner, "NOT RECORDING since"), (WallSafety, SafetyWords)], wall: size.Name == "wall", touch,
+                ["[data-testid=wall-phase-note]", Banner, WallSafety]));
+            problems.AddRange(await ScreenMeasure.ContentReachableAsync(wall, $"wall page at {size.Name}"));
             await ScreenMeasure.ShowAtAsync(console, size, $"not-recording-console-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(console, $"console page at {size.Name}", "[data-testid=console-phase]",
-                [("[data-testid=console-phase-note]", note), (Banner, "NOT RECORDING since")], wall: false, touch, ["[data-testid=console-phase-note]", Banner]));
+                [("[data-testid=console-phase-note]", note), (Banner, "NOT RECORDING since"), (Safety, SafetyWords)], wall: false, touch,
+                ["[data-testid=console-phase-note]", Banner, Safety]));
+            problems.AddRange(await ScreenMeasure.ContentReachableAsync(console, $"console page at {size.Name}"));
             await ScreenMeasure.ShowAtAsync(tablet, size, $"not-recording-team-page-at-{size.Name}.png", output);
             problems.AddRange(await ScreenMeasure.ProblemsAsync(tablet, $"team page at {size.Name}", "[data-testid=actions-phase]",
                 [("[data-testid=actions-phase-note]", note), (Banner, "NOT RECORDING since"),
-                 ("[data-item-id=prep-works] [data-testid=action-not-recording]", "NOT RECORDING since|cannot be recorded now")], wall: false, touch,
-                ["[data-testid=actions-phase-note]", Banner]));
+                 ("[data-item-id=prep-works] [data-testid=action-not-recording]", "NOT RECORDING since|cannot be recorded now"), (Safety, SafetyWords)], wall: false, touch,
+                ["[data-testid=actions-phase-note]", Banner, Safety]));
+            problems.AddRange(await ScreenMeasure.ContentReachableAsync(tablet, $"team page at {size.Name}"));
             // no tick button that looks as if it would be recorded
             await Expect(works.Locator("[data-testid=action-tick]")).ToBeDisabledAsync();
             await Expect(works.Locator("[data-testid=action-tick]")).ToContainTextAsync("not recording");

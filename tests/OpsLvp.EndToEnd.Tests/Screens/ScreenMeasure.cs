@@ -128,4 +128,56 @@ internal static class ScreenMeasure
             """, new object[] { phase, texts.Select(t => new[] { t.Selector, t.Words }).ToArray(), wall, touch, WallMinFontPx, MinTargetPx, (inView ?? []).ToArray() });
         return [.. report.EnumerateArray().Select(p => $"{where}: {p.GetString()}")];
     }
+
+    /// <summary>
+    /// What a person cannot reach on <paramref name="page"/> as it is now: the lowest text of the page's <c>main</c> must be on
+    /// the screen or reachable by scrolling (every box that clips it scrolls: overflow auto or scroll, the page itself
+    /// included), and once scrolled to it must not lie under anything (the safety line, a banner). Text cut on purpose (an
+    /// alarm's first lines, with "Show all") is not counted. Every scrolled box is put back afterwards.
+    /// </summary>
+    public static async Task<IReadOnlyList<string>> ContentReachableAsync(IPage page, string where)
+    {
+        var report = await page.EvaluateAsync<JsonElement>("""
+            () => {
+              const main = document.querySelector('main');
+              if (!main) return ['no main element'];
+              const shown = e => { const s = getComputedStyle(e); const r = e.getBoundingClientRect(); return s.visibility !== 'hidden' && s.display !== 'none' && r.width > 0 && r.height > 0; };
+              const hasText = x => [...x.childNodes].some(n => n.nodeType === 3 && n.textContent.trim());
+              const name = x => `${x.tagName.toLowerCase()}${[...x.classList].map(c => '.' + c).join('')}`;
+              const texts = [...main.querySelectorAll('*')].filter(x => shown(x) && hasText(x) && !x.closest('[data-clamped=true]'));
+              if (texts.length === 0) return [];
+              const lowest = texts.reduce((a, b) => b.getBoundingClientRect().bottom > a.getBoundingClientRect().bottom ? b : a);
+              const what = `the lowest text (${name(lowest)} "${lowest.innerText.trim().slice(0, 40)}")`;
+              const problems = [];
+              const scrolled = [];
+              // up from the text: a box that clips it and scrolls brings it into its own box, so from there on that box
+              // is what must be reachable; a box that clips it and does not scroll hides it for good
+              let subject = lowest;
+              for (let a = lowest.parentElement; a; a = a.parentElement) {
+                const s = getComputedStyle(a);
+                if (s.overflowY === 'visible') continue;
+                const page = a === document.documentElement || a === document.body;
+                const bottom = page ? window.innerHeight : a.getBoundingClientRect().bottom;
+                if (subject.getBoundingClientRect().bottom <= bottom + 1) continue;
+                if (['auto', 'scroll'].includes(s.overflowY)) { subject = a; continue; }
+                problems.push(`${what} lies below the bottom of ${name(a)}, which cuts it (overflow ${s.overflowY}): nobody can scroll to it`);
+                break;
+              }
+              if (problems.length > 0) return problems;
+              for (let a = lowest.parentElement; a; a = a.parentElement) scrolled.push([a, a.scrollTop]);
+              lowest.scrollIntoView({ block: 'nearest' });
+              const r = lowest.getBoundingClientRect();
+              const x = r.left + Math.min(8, r.width / 2), y = (r.top + r.bottom) / 2;
+              if (r.bottom > window.innerHeight + 1) problems.push(`${what} still ends at ${Math.round(r.bottom)} px below the ${window.innerHeight} px screen after scrolling to it`);
+              else {
+                const top = document.elementFromPoint(x, y);
+                if (top && !lowest.contains(top) && !top.contains(lowest)) problems.push(`${what}, scrolled to, lies under ${name(top)} at ${Math.round(x)},${Math.round(y)}`);
+              }
+              for (const [a, t] of scrolled) a.scrollTop = t;
+              window.scrollTo(0, 0);
+              return problems;
+            }
+            """);
+        return [.. report.EnumerateArray().Select(p => $"{where}: {p.GetString()}")];
+    }
 }
